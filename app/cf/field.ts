@@ -1,0 +1,37 @@
+import type { Grid } from '../grid/types.js';
+import type { ParsedUnits } from './units.js';
+
+/** One decoded time coordinate value. */
+export interface DecodedTime {
+  /** value in the file's units */
+  value: number;
+  /** ISO-like date text in the file's calendar, e.g. "0001-07-16T12:00:00" */
+  iso: string;
+  /** year as a fractional number in the file's calendar (for spin-up axes) */
+  yearFraction: number;
+}
+
+export interface TimeAxis {
+  name: string;
+  units: string;
+  calendar: string;
+  values: DecodedTime[];
+}
+
+/**
+ * A CF-decoded variable on its grid, read lazily one horizontal level at a time.
+ * Values are in the file's units (after packing), NaN where missing or outside valid range.
+ */
+export interface FieldSource {
+  file: string;
+  variable: string;
+  units: ParsedUnits;
+  standardName?: string;
+  longName?: string;
+  grid: Grid;
+  /** number of time steps (1 when there is no time dimension) */
+  nt: number;
+  time: TimeAxis | null;
+  /** one horizontal level (ny * nx), row-major, longitude fastest, latitude increasing */
+  readLevel(t: number, k: number): Promise<Float32Array>;
+}

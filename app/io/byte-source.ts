@@ -1,0 +1,68 @@
+import { open, stat, type FileHandle } from 'node:fs/promises';
+import { StillwaterError } from '../errors.js';
+
+/**
+ * Readers ask a ByteSource for ranges, so the same format code serves local files,
+ * bytes held in memory (tests), and ranged remote storage later.
+ */
+export interface ByteSource {
+  readonly name: string;
+  readonly size: number;
+  /** Read exactly `length` bytes at `offset`; throws E_FORMAT when the source is shorter. */
+  read(offset: number, length: number): Promise<Uint8Array>;
+  close(): Promise<void>;
+}
+
+export class MemorySource implements ByteSource {
+  readonly size: number;
+  constructor(readonly name: string, private readonly bytes: Uint8Array) {
+    this.size = bytes.byteLength;
+  }
+  async read(offset: number, length: number): Promise<Uint8Array> {
+    if (offset < 0 || offset + length > this.size) throw truncated(this.name, offset, length, this.size);
+    return this.bytes.subarray(offset, offset + length);
+  }
+  async close(): Promise<void> {}
+}
+
+export class FileSource implements ByteSource {
+  private constructor(readonly name: string, readonly size: number, private readonly handle: FileHandle) {}
+
+  static async open(path: string): Promise<FileSource> {
+    let size: number;
+    try {
+      const s = await stat(path);
+      if (!s.isFile()) throw new StillwaterError('E_FILE', `${path}: is not a regular file.`, { file: path });
+      size = s.size;
+    } catch (e) {
+      if (e instanceof StillwaterError) throw e;
+      throw new StillwaterError('E_FILE', `${path}: no such file.`, { file: path });
+    }
+    const handle = await open(path, 'r');
+    return new FileSource(path, size, handle);
+  }
+
+  async read(offset: number, length: number): Promise<Uint8Array> {
+    if (offset < 0 || offset + length > this.size) throw truncated(this.name, offset, length, this.size);
+    const buf = new Uint8Array(length);
+    let done = 0;
+    while (done < length) {
+      const { bytesRead } = await this.handle.read(buf, done, length - done, offset + done);
+      if (bytesRead === 0) throw truncated(this.name, offset, length, this.size);
+      done += bytesRead;
+    }
+    return buf;
+  }
+
+  async close(): Promise<void> {
+    await this.handle.close();
+  }
+}
+
+function truncated(name: string, offset: number, length: number, size: number): StillwaterError {
+  return new StillwaterError(
+    'E_FORMAT',
+    `${name}: the file is truncated or damaged (needed bytes ${offset}..${offset + length}, the file has ${size}).`,
+    { file: name },
+  );
+}

@@ -1,0 +1,12 @@
+/**
+ * The one table of operations the screen may ask for. Electron IPC (main/ipc.ts) and the
+ * browser-mode HTTP server (main/http.ts) both serve exactly this table.
+ * Each concept contributes its entries from app/services/<concept>.ts.
+ */
+import type { ServiceEntry } from './services/types.js';
+
+export const serviceTable: ServiceEntry[] = [];
+
+export function findService(name: string): ServiceEntry | undefined {
+  return serviceTable.find((e) => e.name === name);
+}

@@ -1,0 +1,31 @@
+import type { z } from 'zod';
+
+/** What a service handler may use from the transport that called it. */
+export interface ServiceContext {
+  /**
+   * Turn a path given by the screen into an absolute path that the handler may read or write.
+   * Browser mode allows only the folders named at start; throws StillwaterError E_FILE otherwise.
+   */
+  resolvePath(path: string): string;
+  /** folders the person may browse */
+  roots: string[];
+  /** cache folder for regridding weights */
+  cacheDir: string;
+  /** progress of long work, fraction 0..1 */
+  progress(fraction: number, message: string): void;
+  signal: AbortSignal;
+}
+
+/** One operation the screen may ask for: a name, an input schema, and a handler. */
+export interface ServiceEntry<S extends z.ZodType = z.ZodType, O = unknown> {
+  name: string;
+  summary: string;
+  input: S;
+  /** run in a worker thread, so that the screen never freezes */
+  heavy?: boolean;
+  run(input: z.infer<S>, ctx: ServiceContext): Promise<O>;
+}
+
+export function entry<S extends z.ZodType, O>(e: ServiceEntry<S, O>): ServiceEntry<S, O> {
+  return e;
+}
