@@ -1,0 +1,77 @@
+/**
+ * The pixel-to-cell lookup behind every map: each pixel centre is inverse-projected once and the
+ * grid cell under it found, so that a change of depth or variable only recolours (see recolour.ts).
+ */
+import type { MapProjection } from './projections.js';
+
+/** lookup value of a pixel that lies off the globe or outside the projection's view */
+export const OFF_MAP = -1;
+/** lookup value of a pixel on the globe that no grid cell covers */
+export const OFF_GRID = -2;
+
+/** Canvas height that keeps the projection's aspect ratio for a given width. */
+export function canvasHeightFor(proj: MapProjection, width: number): number {
+  const e = proj.extent;
+  return Math.max(1, Math.round((width * (e.ymax - e.ymin)) / (e.xmax - e.xmin)));
+}
+
+/** Projected coordinates of a pixel centre (row 0 at the top). */
+export function pixelToProjected(proj: MapProjection, width: number, height: number, px: number, py: number): [number, number] {
+  const e = proj.extent;
+  return [e.xmin + ((px + 0.5) * (e.xmax - e.xmin)) / width, e.ymax - ((py + 0.5) * (e.ymax - e.ymin)) / height];
+}
+
+/** Fractional pixel position of projected coordinates (inverse of pixelToProjected). */
+export function projectedToPixel(proj: MapProjection, width: number, height: number, x: number, y: number): [number, number] {
+  const e = proj.extent;
+  return [((x - e.xmin) / (e.xmax - e.xmin)) * width - 0.5, ((e.ymax - y) / (e.ymax - e.ymin)) * height - 0.5];
+}
+
+/** Index of the interval of increasing `edges` that holds v, or -1. */
+export function findInterval(edges: ArrayLike<number>, v: number): number {
+  const n = edges.length - 1;
+  if (!(v >= edges[0] && v <= edges[n])) return -1;
+  let lo = 0;
+  let hi = n;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (edges[mid] <= v) lo = mid;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/** Cell (j * nx + i) of a rectilinear grid with the given edges that holds (lon, lat), or OFF_GRID. */
+export function cellAt(lonEdges: ArrayLike<number>, latEdges: ArrayLike<number>, lon: number, lat: number): number {
+  const nx = lonEdges.length - 1;
+  const west = lonEdges[0];
+  const span = lonEdges[nx] - west;
+  // a periodic grid takes any longitude: bring it into [west, west + 360)
+  let l = lon;
+  if (Math.abs(span - 360) < 1e-6) l = west + ((((lon - west) % 360) + 360) % 360);
+  const i = findInterval(lonEdges, l);
+  const j = findInterval(latEdges, lat);
+  return i < 0 || j < 0 ? OFF_GRID : j * nx + i;
+}
+
+/**
+ * For a canvas of width × height pixels showing `proj`, the cell of each pixel (row-major, row 0 at
+ * the top): a grid cell index, OFF_MAP or OFF_GRID.
+ */
+export function buildPixelLookup(
+  proj: MapProjection,
+  lonEdges: ArrayLike<number>,
+  latEdges: ArrayLike<number>,
+  width: number,
+  height: number,
+): Int32Array {
+  const out = new Int32Array(width * height);
+  for (let py = 0; py < height; py++) {
+    for (let px = 0; px < width; px++) {
+      const [x, y] = pixelToProjected(proj, width, height, px, py);
+      const ll = proj.inverse(x, y);
+      out[py * width + px] = ll === null ? OFF_MAP : cellAt(lonEdges, latEdges, ll[0], ll[1]);
+    }
+  }
+  return out;
+}
