@@ -10,7 +10,18 @@ export interface ByteSource {
   readonly size: number;
   /** Read exactly `length` bytes at `offset`; throws E_FORMAT when the source is shorter. */
   read(offset: number, length: number): Promise<Uint8Array>;
+  /**
+   * Optional: read exactly `into.byteLength` bytes at `offset` straight into `into`
+   * (no intermediate copy; readers use it to fill a typed array in one call).
+   */
+  readInto?(offset: number, into: Uint8Array): Promise<void>;
   close(): Promise<void>;
+}
+
+/** Fill `into` from `source` at `offset`, without a copy where the source allows it. */
+export async function readIntoFrom(source: ByteSource, offset: number, into: Uint8Array): Promise<void> {
+  if (source.readInto) return source.readInto(offset, into);
+  into.set(await source.read(offset, into.byteLength));
 }
 
 export class MemorySource implements ByteSource {
@@ -21,6 +32,9 @@ export class MemorySource implements ByteSource {
   async read(offset: number, length: number): Promise<Uint8Array> {
     if (offset < 0 || offset + length > this.size) throw truncated(this.name, offset, length, this.size);
     return this.bytes.subarray(offset, offset + length);
+  }
+  async readInto(offset: number, into: Uint8Array): Promise<void> {
+    into.set(await this.read(offset, into.byteLength));
   }
   async close(): Promise<void> {}
 }
@@ -52,6 +66,17 @@ export class FileSource implements ByteSource {
       done += bytesRead;
     }
     return buf;
+  }
+
+  async readInto(offset: number, into: Uint8Array): Promise<void> {
+    const length = into.byteLength;
+    if (offset < 0 || offset + length > this.size) throw truncated(this.name, offset, length, this.size);
+    let done = 0;
+    while (done < length) {
+      const { bytesRead } = await this.handle.read(into, done, length - done, offset + done);
+      if (bytesRead === 0) throw truncated(this.name, offset, length, this.size);
+      done += bytesRead;
+    }
   }
 
   async close(): Promise<void> {
