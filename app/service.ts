@@ -4,8 +4,9 @@
  * Each concept contributes its entries from app/services/<concept>.ts.
  */
 import type { ServiceEntry } from './services/types.js';
+import { filesServices } from './services/files.js';
 
-export const serviceTable: ServiceEntry[] = [];
+export const serviceTable: ServiceEntry[] = [...filesServices];
 
 export function findService(name: string): ServiceEntry | undefined {
   return serviceTable.find((e) => e.name === name);

@@ -202,3 +202,7 @@ export async function startRecipe(): Promise<string | null> {
 export function vendorUrl(key: keyof typeof VENDOR): string {
   return VENDOR[key];
 }
+
+// The end-to-end tests (tests/e2e) reach the same client through the page; it grants nothing the page's own
+// scripts could not already do.
+(globalThis as unknown as { stillwaterBridge?: unknown }).stillwaterBridge = { call, cancel, onProgress, transportKind, startRecipe };

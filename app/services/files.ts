@@ -1,0 +1,116 @@
+/**
+ * Browsing the folders the workbench may read: the allowed roots, the entries of one folder, and a file's
+ * variables. Every path goes through ctx.resolvePath, so nothing outside the allowed folders is ever listed.
+ */
+import { readdir, stat } from 'node:fs/promises';
+import { basename, dirname, extname, join } from 'node:path';
+import { z } from 'zod';
+import { StillwaterError } from '../errors.js';
+import { entry, type ServiceEntry } from './types.js';
+
+/** What kind of thing a file is, by its name; the readers still check the bytes. */
+const KINDS: Record<string, FileKind> = {
+  '.nc': 'dataset',
+  '.nc4': 'dataset',
+  '.cdf': 'dataset',
+  '.h5': 'dataset',
+  '.hdf5': 'dataset',
+  '.tif': 'dataset',
+  '.tiff': 'dataset',
+  '.csv': 'table',
+  '.json': 'recipe',
+  '.geojson': 'shapes',
+};
+
+export type FileKind = 'dataset' | 'table' | 'recipe' | 'shapes' | 'other';
+
+export interface FolderEntry {
+  name: string;
+  /** absolute path, to pass back to other services */
+  path: string;
+  type: 'folder' | 'file';
+  kind: FileKind | 'folder';
+  size: number;
+  modified: string;
+}
+
+export interface FolderListing {
+  /** absolute path of the folder listed */
+  folder: string;
+  /** the folder above, when it is still allowed; null at a root */
+  parent: string | null;
+  entries: FolderEntry[];
+}
+
+const listInput = z.object({
+  /** absent: the allowed roots themselves */
+  folder: z.string().min(1).optional(),
+  /** include names starting with a dot */
+  hidden: z.boolean().optional(),
+});
+
+async function describeEntry(path: string, name: string): Promise<FolderEntry | undefined> {
+  try {
+    const s = await stat(path);
+    const folder = s.isDirectory();
+    return {
+      name,
+      path,
+      type: folder ? 'folder' : 'file',
+      kind: folder ? 'folder' : (KINDS[extname(name).toLowerCase()] ?? 'other'),
+      size: folder ? 0 : s.size,
+      modified: s.mtime.toISOString(),
+    };
+  } catch {
+    return undefined; // a dangling link or a file removed meanwhile is simply not shown
+  }
+}
+
+export const filesServices: ServiceEntry[] = [
+  entry({
+    name: 'files.roots',
+    summary: 'The folders this workbench may read.',
+    input: z.object({}).optional(),
+    async run(_input, ctx): Promise<FolderEntry[]> {
+      const out: FolderEntry[] = [];
+      for (const r of ctx.roots) {
+        const e = await describeEntry(r, basename(r) || r);
+        if (e) out.push(e);
+      }
+      return out;
+    },
+  }),
+  entry({
+    name: 'files.list',
+    summary: 'Folders and files inside one allowed folder, folders first.',
+    input: listInput,
+    async run(input, ctx): Promise<FolderListing> {
+      if (!input.folder) {
+        const roots = await Promise.all(ctx.roots.map((r) => describeEntry(r, basename(r) || r)));
+        return { folder: '', parent: null, entries: roots.filter((e): e is FolderEntry => e !== undefined) };
+      }
+      const folder = ctx.resolvePath(input.folder);
+      let names: string[];
+      try {
+        const s = await stat(folder);
+        if (!s.isDirectory()) throw new StillwaterError('E_FILE', `${input.folder}: not a folder.`, { file: input.folder });
+        names = await readdir(folder);
+      } catch (e) {
+        if (e instanceof StillwaterError) throw e;
+        throw new StillwaterError('E_FILE', `${input.folder}: no such folder, or it cannot be read.`, { file: input.folder });
+      }
+      const shown = names.filter((n) => input.hidden || !n.startsWith('.')).sort((a, b) => a.localeCompare(b));
+      const entries = (await Promise.all(shown.map((n) => describeEntry(join(folder, n), n)))).filter((e): e is FolderEntry => e !== undefined);
+      entries.sort((a, b) => (a.type === b.type ? 0 : a.type === 'folder' ? -1 : 1));
+      let parent: string | null = null;
+      if (!ctx.roots.includes(folder)) {
+        try {
+          parent = ctx.resolvePath(dirname(folder));
+        } catch {
+          parent = null;
+        }
+      }
+      return { folder, parent, entries };
+    },
+  }),
+];
