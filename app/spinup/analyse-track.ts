@@ -1,0 +1,164 @@
+import { fitFirstOrder, firstOrderValue, t90 } from './first-order-fit.js';
+import { linearSlope, mean } from './linear-slope.js';
+import { chooseTail } from './tail-window.js';
+import { turningPoints } from './turning-points.js';
+import { fmt, fmtSigned, years as yrs } from './format.js';
+import type { DriftRate, FirstOrderFit, TrackVerdict } from './types.js';
+
+/** A run shorter than this has not settled in the deep ocean (England 1995; common practice: "a few thousand years"). */
+export const DEEP_SETTLING_YEARS = 3000;
+/** A first-order fit has three parameters: it needs one more point than that to say anything. */
+export const MIN_FIT_POINTS = 4;
+
+export interface TrackInput {
+  years: ArrayLike<number>;
+  mean: ArrayLike<number>;
+  inventory: ArrayLike<number>;
+  units: string;
+  /** the track includes depths below 1000 m */
+  deep: boolean;
+  thresholdPercentPerKyr: number;
+  tailYears?: number;
+}
+
+export interface TrackAnalysis {
+  drift: DriftRate | null;
+  fit: FirstOrderFit | null;
+  fitNote: string;
+  turningYears: number[];
+  monotonic: boolean;
+  verdict: TrackVerdict;
+}
+
+export function driftRate(input: TrackInput): DriftRate {
+  const tail = chooseTail(input.years, input.tailYears);
+  const t = Array.from(input.years).slice(tail.start);
+  const x = Array.from(input.mean).slice(tail.start);
+  const inv = Array.from(input.inventory).slice(tail.start);
+  const perYear = linearSlope(t, x);
+  const m = mean(x);
+  return {
+    fromYear: t[0],
+    toYear: t[t.length - 1],
+    n: t.length,
+    perKyr: perYear * 1000,
+    windowMean: m,
+    percentPerKyr: m !== 0 ? ((perYear * 1000) / Math.abs(m)) * 100 : null,
+    inventoryPerKyr: linearSlope(t, inv) * 1000,
+    window: tail.description,
+  };
+}
+
+/** Fit on the window, with the derived quantities a person asks about. */
+export function describeFit(t: number[], x: number[], lastYear: number, thresholdPerYear: number): FirstOrderFit | null {
+  const raw = fitFirstOrder(t, x);
+  if (!raw) return null;
+  const xLast = firstOrderValue(raw, lastYear);
+  const remaining = raw.xInf - xLast;
+  const amplitude = Math.abs(raw.x0 - raw.xInf);
+  let yearsToSettle: number | null = null;
+  if (raw.constrained) {
+    // fitted drift |dx/dt| = |x0 − x∞|/τ · e^(−(t − t0)/τ) falls below the threshold at this time
+    const settleAt = amplitude > 0 && thresholdPerYear > 0 ? raw.t0 + raw.tau * Math.log(amplitude / (thresholdPerYear * raw.tau)) : -Infinity;
+    yearsToSettle = Math.max(0, settleAt - lastYear);
+  }
+  return {
+    t0: raw.t0,
+    x0: raw.x0,
+    xInf: raw.xInf,
+    tau: raw.tau,
+    t90: t90(raw.tau),
+    remainingChange: remaining,
+    remainingPercent: raw.xInf !== 0 ? (remaining / Math.abs(raw.xInf)) * 100 : null,
+    yearsTo90: Math.max(0, raw.t0 + t90(raw.tau) - lastYear),
+    yearsToSettle,
+    rmse: Math.sqrt(raw.sse / raw.n),
+    n: raw.n,
+    constrained: raw.constrained,
+    extrapolated: raw.tau > t[t.length - 1] - t[0],
+  };
+}
+
+export function analyseTrack(input: TrackInput): TrackAnalysis {
+  const t = Array.from(input.years);
+  const x = Array.from(input.mean);
+  const n = t.length;
+  const lastYear = t[n - 1];
+  if (x.some((v) => !Number.isFinite(v))) {
+    return {
+      drift: null,
+      fit: null,
+      fitNote: 'no fit: the track has no wet cell in some snapshot',
+      turningYears: [],
+      monotonic: true,
+      verdict: { status: 'undetermined', deepCaution: false, sentence: 'Undetermined: this region and layer hold no wet cell in some snapshot.' },
+    };
+  }
+  const drift = driftRate(input);
+  const turns = turningPoints(x);
+  const turningYears = turns.map((i) => t[i]);
+  const fitStart = turns.length ? turns[turns.length - 1] : 0;
+  const tw = t.slice(fitStart);
+  const xw = x.slice(fitStart);
+  // the threshold is relative to the same mean as the drift rate: the tail's
+  const thresholdPerYear = ((input.thresholdPercentPerKyr / 100) * Math.abs(drift.windowMean)) / 1000;
+  const range = Math.max(...x) - Math.min(...x);
+  let fit: FirstOrderFit | null = null;
+  let fitNote: string;
+  if (range === 0) {
+    fitNote = 'no fit: the track does not change';
+  } else if (tw.length < MIN_FIT_POINTS) {
+    fitNote = turns.length
+      ? `no fit: only ${tw.length} snapshots follow the last turning point (model year ${yrs(t[fitStart])}); a first-order fit needs ${MIN_FIT_POINTS}`
+      : `no fit: ${tw.length} snapshots; a first-order fit needs ${MIN_FIT_POINTS}`;
+  } else {
+    fit = describeFit(tw, xw, lastYear, thresholdPerYear);
+    fitNote = turns.length
+      ? `fit on the ${tw.length} snapshots after the last turning point (model year ${yrs(t[fitStart])}), because the track overshoots and turns back`
+      : `fit on all ${tw.length} snapshots`;
+  }
+  const deepCaution = input.deep && lastYear < DEEP_SETTLING_YEARS;
+  return { drift, fit, fitNote, turningYears, monotonic: turns.length === 0, verdict: verdictFor(input, drift, fit, turningYears, deepCaution, lastYear) };
+}
+
+function verdictFor(
+  input: TrackInput,
+  drift: DriftRate,
+  fit: FirstOrderFit | null,
+  turningYears: number[],
+  deepCaution: boolean,
+  lastYear: number,
+): TrackVerdict {
+  const over = `over model years ${yrs(drift.fromYear)}–${yrs(drift.toYear)}`;
+  const parts: string[] = [];
+  let status: TrackVerdict['status'];
+  if (drift.percentPerKyr === null) {
+    status = 'undetermined';
+    parts.push(`Undetermined: the mean is zero, so a relative drift has no meaning; the drift is ${fmtSigned(drift.perKyr)} ${input.units} per 1000 years ${over}.`);
+  } else if (Math.abs(drift.percentPerKyr) <= input.thresholdPercentPerKyr) {
+    status = 'settled';
+    parts.push(`Settled: drift ${fmtSigned(drift.percentPerKyr)} % of the mean per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr)} %).`);
+  } else {
+    status = 'drifting';
+    parts.push(`Still drifting: ${fmtSigned(drift.percentPerKyr)} % of the mean per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr)} %).`);
+  }
+  if (turningYears.length) {
+    parts.push(`The track overshoots and turns back (turning point${turningYears.length > 1 ? 's' : ''} at model year ${turningYears.map(yrs).join(', ')}), so it is not monotonic; the fit uses only the snapshots after the last turning point.`);
+  }
+  if (status === 'drifting' && fit) {
+    if (!fit.constrained) {
+      parts.push('The fit cannot yet tell where it will settle: the tail still looks like a straight line.');
+    } else {
+      const toSettle = fit.yearsToSettle !== null && fit.yearsToSettle > 0 ? `; about ${yrs(fit.yearsToSettle)} more model years until the drift falls below the threshold` : '';
+      parts.push(
+        `First-order fit: heading for ${fmt(fit.xInf)} ${input.units} with τ = ${yrs(fit.tau)} years (90 % of the change takes ${yrs(fit.t90)} years; ${fit.yearsTo90 > 0 ? `${yrs(fit.yearsTo90)} more model years to get there` : 'already past that'})${toSettle}.`,
+      );
+    }
+  }
+  if (deepCaution) {
+    parts.push(
+      `The run is only ${yrs(lastYear)} model years long: a spin-up much shorter than a few thousand years has not settled in the deep ocean (England 1995; common practice), so a small drift here may hide a slow deep adjustment.`,
+    );
+  }
+  return { status, deepCaution, sentence: parts.join(' ') };
+}

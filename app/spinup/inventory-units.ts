@@ -1,0 +1,34 @@
+import type { ParsedUnits } from '../cf/units.js';
+import type { InventoryUnits } from './types.js';
+
+/** Molar volume of an ideal gas at STP, L mol-1 (1 ml(STP) O2 = 44.661 µmol; common practice, from memory). */
+export const MOLAR_VOLUME_STP_L = 22.392;
+
+/**
+ * How Σ c·V (field units x m³) becomes an inventory with proper units:
+ * amount per volume x m³ -> mol; amount per mass x nominal density x m³ -> mol (said so);
+ * gas volume per volume (ml L-1) x m³ -> mol through the molar volume at STP (said so);
+ * anything else stays Σ c·V in "<units> m3" (a volume integral, not an amount).
+ * `weightsAreAreas` for 2-D fields, whose weights are cell areas.
+ */
+export function inventoryUnits(units: ParsedUnits, nominalDensity: number, weightsAreAreas = false): InventoryUnits {
+  if (weightsAreAreas) return { units: `${units.canonical} m2`, factor: 1, note: 'a 2-D field: the inventory is the area integral Σ c·A' };
+  switch (units.kind) {
+    case 'amount_per_volume':
+      return { units: 'mol', factor: units.factor };
+    case 'amount_per_mass':
+      return {
+        units: 'mol',
+        factor: units.factor * nominalDensity,
+        note: `${units.text} was turned into an amount with a nominal seawater density of ${nominalDensity} kg m-3 (common practice)`,
+      };
+    case 'gas_volume_per_volume':
+      return {
+        units: 'mol',
+        factor: (units.factor * 1000) / MOLAR_VOLUME_STP_L,
+        note: `${units.text} was turned into an amount with the molar volume of a gas at STP, ${MOLAR_VOLUME_STP_L} L mol-1 (common practice)`,
+      };
+    default:
+      return { units: `${units.canonical} m3`, factor: 1, note: `${units.text} is not an amount: the inventory column is the volume integral Σ c·V` };
+  }
+}

@@ -1,0 +1,76 @@
+import { describe, expect, it } from 'vitest';
+import { analyseTrack, driftRate } from '../../../app/spinup/analyse-track.js';
+import { chooseTail } from '../../../app/spinup/tail-window.js';
+import { firstOrderSeries } from './seeded.js';
+
+const years = (n: number, step: number, start = 0): number[] => Array.from({ length: n }, (_, i) => start + i * step);
+const base = { units: 'mmol m-3', deep: false, thresholdPercentPerKyr: 0.1 };
+
+describe('drift rate and verdict', () => {
+  it('reports a constant series as settled with exactly zero drift', () => {
+    const t = years(12, 500);
+    const x = t.map(() => 2.5);
+    const a = analyseTrack({ ...base, years: t, mean: x, inventory: x });
+    expect(a.drift!.perKyr).toBe(0);
+    expect(a.drift!.percentPerKyr).toBe(0);
+    expect(a.verdict.status).toBe('settled');
+    expect(a.monotonic).toBe(true);
+    expect(a.fit).toBeNull();
+  });
+
+  it('measures the rate of a straight line exactly, per 1000 years and relative to the mean', () => {
+    const t = years(11, 100, 1000);
+    const x = t.map((ti) => 100 + 0.002 * ti); // 2 units per 1000 years
+    const d = driftRate({ ...base, years: t, mean: x, inventory: x.map((v) => v * 10) });
+    expect(d.perKyr).toBeCloseTo(2, 10);
+    expect(d.inventoryPerKyr).toBeCloseTo(20, 9);
+    // tail = last 10 % of 1000 years = years 1900 and 2000, fewer than 3 snapshots: the last 3
+    expect(d.n).toBe(3);
+    const windowMean = (100 + 0.002 * 1800 + 100 + 0.002 * 2000) / 2;
+    expect(d.percentPerKyr!).toBeCloseTo((2 / windowMean) * 100, 10);
+  });
+
+  it('calls a first-order series drifting early and settled once the rate is below the threshold', () => {
+    const t = years(50, 100);
+    const x = firstOrderSeries(t, 1, 2, 400);
+    const early = analyseTrack({ ...base, years: t.slice(0, 10), mean: x.slice(0, 10), inventory: x.slice(0, 10) });
+    expect(early.verdict.status).toBe('drifting');
+    const late = analyseTrack({ ...base, years: t, mean: x, inventory: x });
+    expect(late.verdict.status).toBe('settled');
+  });
+
+  it('predicts when the drift falls below the threshold from the fit (noise-free first-order series)', () => {
+    const t = years(16, 100);
+    const x = firstOrderSeries(t, 1, 2, 800);
+    const a = analyseTrack({ ...base, years: t, mean: x, inventory: x });
+    expect(a.verdict.status).toBe('drifting');
+    const f = a.fit!;
+    // fitted drift (x∞ − x)/τ equals the threshold (0.1 % of the tail's mean per 1000 years) at the predicted year
+    const meanAll = a.drift!.windowMean;
+    expect(meanAll).toBeCloseTo((x[13] + x[14] + x[15]) / 3, 12);
+    const tSettle = 1500 + f.yearsToSettle!;
+    const rate = ((2 - firstOrderSeries([tSettle], 1, 2, 800)[0]) / 800) * 1000;
+    expect(rate / ((0.1 / 100) * meanAll) - 1).toBeCloseTo(0, 5);
+    expect(f.yearsTo90).toBeCloseTo(800 * Math.LN10 - 1500, 4);
+    expect(a.verdict.sentence).toMatch(/Still drifting/);
+  });
+
+  it('warns that a short run has not settled in the deep ocean (England 1995) when deep layers are involved', () => {
+    const t = years(6, 100);
+    const x = t.map(() => 5);
+    const deep = analyseTrack({ ...base, deep: true, years: t, mean: x, inventory: x });
+    expect(deep.verdict.deepCaution).toBe(true);
+    expect(deep.verdict.sentence).toMatch(/England 1995/);
+    const shallow = analyseTrack({ ...base, years: t, mean: x, inventory: x });
+    expect(shallow.verdict.deepCaution).toBe(false);
+    const long = analyseTrack({ ...base, deep: true, years: years(6, 1000), mean: x, inventory: x });
+    expect(long.verdict.deepCaution).toBe(false);
+  });
+
+  it('chooses the tail: last 10 % of the series, at least 3 snapshots, or the years a person gives', () => {
+    expect(chooseTail(years(101, 10)).start).toBe(90);
+    expect(chooseTail(years(5, 10)).start).toBe(2);
+    expect(chooseTail(years(101, 10), 200).start).toBe(80);
+    expect(chooseTail(years(101, 10), 5).start).toBe(99);
+  });
+});
