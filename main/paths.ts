@@ -1,0 +1,19 @@
+import { existsSync, readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+/** The folder holding Stillwater's package.json, found from this file whether bundled (dist/) or not. */
+export function packageRoot(): string {
+  let dir = dirname(fileURLToPath(import.meta.url));
+  for (;;) {
+    const pkg = join(dir, 'package.json');
+    if (existsSync(pkg) && (JSON.parse(readFileSync(pkg, 'utf8')) as { name?: string }).name === 'stillwater') return dir;
+    const up = dirname(dir);
+    if (up === dir) throw new Error('Stillwater package root not found above ' + fileURLToPath(import.meta.url));
+    dir = up;
+  }
+}
+
+export function sampleDataDir(): string {
+  return join(packageRoot(), 'sample-data');
+}
