@@ -34,4 +34,6 @@ export interface FieldSource {
   time: TimeAxis | null;
   /** one horizontal level (ny * nx), row-major, longitude fastest, latitude increasing */
   readLevel(t: number, k: number): Promise<Float32Array>;
+  /** release the file behind the field (set by openField; absent for fields over a caller's dataset) */
+  close?(): Promise<void>;
 }

@@ -1,0 +1,127 @@
+/**
+ * Curvilinear horizontal grids: 2-D centre longitudes and latitudes (ny × nx, longitude index fastest),
+ * cell corners read from CF bounds or derived, and cell areas as spherical polygons with great-circle edges.
+ */
+import { StillwaterError } from '../errors.js';
+import { EARTH_RADIUS_M, type HorizontalGrid } from './types.js';
+import { fromUnitVector, toUnitVector, triangleSolidAngle, type Vec3 } from './spherical-area.js';
+
+export interface Corners {
+  /** ny * nx * 4 corner longitudes, counter-clockwise: (i-, j-), (i+, j-), (i+, j+), (i-, j+) */
+  lon: Float64Array;
+  lat: Float64Array;
+}
+
+/** Great-circle angle between two unit vectors, radians. */
+function angle(a: Vec3, b: Vec3): number {
+  const c: Vec3 = [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
+  return Math.atan2(Math.hypot(c[0], c[1], c[2]), a[0] * b[0] + a[1] * b[1] + a[2] * b[2]);
+}
+
+/** A grid wraps in i when, along its middle row, the last centre is as close to the first as neighbours are. */
+export function wrapsInI(centres: Vec3[], nx: number, ny: number): boolean {
+  if (nx < 3) return false;
+  const j = Math.floor(ny / 2);
+  let sum = 0;
+  for (let i = 1; i < nx; i++) sum += angle(centres[j * nx + i - 1], centres[j * nx + i]);
+  const mean = sum / (nx - 1);
+  return angle(centres[j * nx + nx - 1], centres[j * nx]) < 1.5 * mean;
+}
+
+/** Longitude `x` moved by whole turns to lie within 180° of `ref`. */
+export function nearLongitude(x: number, ref: number): number {
+  return x - 360 * Math.round((x - ref) / 360);
+}
+
+/**
+ * Corners as averages of the four surrounding centres (on the unit sphere, so the longitude wrap and the
+ * poles need no special case); outside the grid the centres are extrapolated linearly, except across the
+ * seam of a grid that wraps in i.
+ */
+export function deriveCorners(lon2d: ArrayLike<number>, lat2d: ArrayLike<number>, nx: number, ny: number, periodic: boolean): Corners {
+  if (nx < 2 || ny < 2) throw new StillwaterError('E_GRID', 'Deriving cell corners needs a curvilinear grid of at least 2 × 2 cells.');
+  const W = nx + 2;
+  const ext: Vec3[] = new Array((ny + 2) * W);
+  const at = (jj: number, ii: number): Vec3 => ext[jj * W + ii];
+  const lin = (a: Vec3, b: Vec3): Vec3 => [2 * a[0] - b[0], 2 * a[1] - b[1], 2 * a[2] - b[2]];
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) ext[(j + 1) * W + i + 1] = toUnitVector(lon2d[j * nx + i], lat2d[j * nx + i]);
+    ext[(j + 1) * W] = periodic ? at(j + 1, nx) : lin(at(j + 1, 1), at(j + 1, 2));
+    ext[(j + 1) * W + nx + 1] = periodic ? at(j + 1, 1) : lin(at(j + 1, nx), at(j + 1, nx - 1));
+  }
+  for (let ii = 0; ii < W; ii++) {
+    ext[ii] = lin(at(1, ii), at(2, ii));
+    ext[(ny + 1) * W + ii] = lin(at(ny, ii), at(ny - 1, ii));
+  }
+  const CW = nx + 1;
+  const cLon = new Float64Array((ny + 1) * CW);
+  const cLat = new Float64Array((ny + 1) * CW);
+  for (let jj = 0; jj <= ny; jj++) {
+    for (let ii = 0; ii <= nx; ii++) {
+      const a = at(jj, ii), b = at(jj, ii + 1), c = at(jj + 1, ii), d = at(jj + 1, ii + 1);
+      const p = fromUnitVector([a[0] + b[0] + c[0] + d[0], a[1] + b[1] + c[1] + d[1], a[2] + b[2] + c[2] + d[2]]);
+      cLon[jj * CW + ii] = p.lon;
+      cLat[jj * CW + ii] = p.lat;
+    }
+  }
+  const lon = new Float64Array(nx * ny * 4);
+  const lat = new Float64Array(nx * ny * 4);
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const c = (j * nx + i) * 4;
+      const idx = [j * CW + i, j * CW + i + 1, (j + 1) * CW + i + 1, (j + 1) * CW + i];
+      const ref = lon2d[j * nx + i];
+      for (let q = 0; q < 4; q++) {
+        lon[c + q] = nearLongitude(cLon[idx[q]], ref);
+        lat[c + q] = cLat[idx[q]];
+      }
+    }
+  }
+  return { lon, lat };
+}
+
+/** Area of one quadrilateral cell with great-circle edges, m². */
+export function quadArea(lon: ArrayLike<number>, lat: ArrayLike<number>, offset: number, radius = EARTH_RADIUS_M): number {
+  const a = toUnitVector(lon[offset], lat[offset]);
+  const b = toUnitVector(lon[offset + 1], lat[offset + 1]);
+  const c = toUnitVector(lon[offset + 2], lat[offset + 2]);
+  const d = toUnitVector(lon[offset + 3], lat[offset + 3]);
+  return Math.abs(triangleSolidAngle(a, b, c) + triangleSolidAngle(a, c, d)) * radius * radius;
+}
+
+/**
+ * A curvilinear grid from 2-D centres (ny * nx, i fastest). Corners from the file's bounds when given,
+ * else derived (and the grid flagged boundsDerived).
+ */
+export function makeCurvilinearGrid(
+  lon2d: ArrayLike<number>,
+  lat2d: ArrayLike<number>,
+  nx: number,
+  ny: number,
+  corners?: Corners,
+  radius = EARTH_RADIUS_M,
+): HorizontalGrid {
+  const n = nx * ny;
+  if (lon2d.length !== n || lat2d.length !== n) throw new StillwaterError('E_GRID', `A curvilinear grid of ${ny} × ${nx} needs ${n} centre longitudes and latitudes.`);
+  const lon = Float64Array.from(lon2d);
+  const lat = Float64Array.from(lat2d);
+  const centres: Vec3[] = [];
+  for (let c = 0; c < n; c++) centres.push(toUnitVector(lon[c], lat[c]));
+  const periodic = wrapsInI(centres, nx, ny);
+  const cs = corners ?? deriveCorners(lon, lat, nx, ny, periodic);
+  if (cs.lon.length !== n * 4 || cs.lat.length !== n * 4) throw new StillwaterError('E_GRID', `Cell corners of a ${ny} × ${nx} grid need ${n * 4} values.`);
+  const area = new Float64Array(n);
+  for (let c = 0; c < n; c++) area[c] = quadArea(cs.lon, cs.lat, c * 4, radius);
+  return {
+    kind: 'curvilinear',
+    nx,
+    ny,
+    lon,
+    lat,
+    cornerLon: cs.lon,
+    cornerLat: cs.lat,
+    boundsDerived: !corners,
+    periodic,
+    area,
+  };
+}
