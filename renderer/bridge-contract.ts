@@ -45,6 +45,8 @@ export interface PreloadApi {
   openDialog(options: OpenDialogOptions): Promise<string[] | null>;
   /** the recipe the shell was started with, if any */
   startRecipe(): Promise<string | null>;
+  /** files picked through the File menu */
+  onMenuOpen(cb: (paths: string[]) => void): () => void;
 }
 
 export const IPC = {
@@ -53,6 +55,8 @@ export const IPC = {
   progress: 'stillwater:progress',
   dialog: 'stillwater:open-dialog',
   startRecipe: 'stillwater:start-recipe',
+  /** main -> page: files picked through the File menu */
+  menuOpen: 'stillwater:menu-open',
 } as const;
 
 /** Browser-mode HTTP routes (all same-origin, all need the start token). */

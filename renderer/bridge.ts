@@ -188,6 +188,12 @@ export async function openFiles(options: OpenDialogOptions = {}): Promise<string
   return p ? p.openDialog(options) : null;
 }
 
+/** Files picked through the Electron File menu (never called in browser mode); returns the unsubscribe. */
+export function onMenuOpen(cb: (paths: string[]) => void): () => void {
+  const p = preload();
+  return p ? p.onMenuOpen(cb) : () => undefined;
+}
+
 /** The recipe the workbench was started with (npm start opens the demo recipe), or null. */
 export async function startRecipe(): Promise<string | null> {
   const p = preload();

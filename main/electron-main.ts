@@ -1,0 +1,63 @@
+/**
+ * Electron main process (dist/electron-main.cjs). Started by `stillwater start` with
+ * --stillwater-root=DIR (repeated) and --stillwater-recipe=FILE.
+ */
+import { BrowserWindow, app, ipcMain } from 'electron';
+import { join } from 'node:path';
+import { serviceTable } from '../app/service.js';
+import { IPC } from '../renderer/bridge-contract.js';
+import { Dispatcher } from './dispatch.js';
+import { registerIpc } from './ipc.js';
+import { PathGuard } from './path-guard.js';
+import { projectRoot } from './static-files.js';
+import { buildMenu, createWindow, hardenContents, hardenSession, registerAppScheme, serveAppScheme, showOpenDialog } from './window.js';
+import { workerRunner } from './workers.js';
+
+function argValues(name: string): string[] {
+  const prefix = `--${name}=`;
+  return process.argv.filter((a) => a.startsWith(prefix)).map((a) => a.slice(prefix.length));
+}
+
+const root = projectRoot();
+const distDir = join(root, 'dist');
+const roots = argValues('stillwater-root');
+const recipe = argValues('stillwater-recipe')[0] ?? null;
+
+if (!app.requestSingleInstanceLock()) app.quit();
+registerAppScheme();
+app.on('web-contents-created', (_e, contents) => hardenContents(contents));
+
+let win: BrowserWindow | null = null;
+
+void app.whenReady().then(() => {
+  hardenSession();
+  serveAppScheme(root);
+  const guard = new PathGuard(roots.length ? roots : [join(root, 'sample-data'), process.cwd()]);
+  if (recipe) guard.grant(recipe);
+  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: join(app.getPath('userData'), 'cache'), heavy: workerRunner(join(distDir, 'worker.mjs')) });
+  const openDialog = async (o: Parameters<typeof showOpenDialog>[1]): Promise<string[] | null> => {
+    const paths = await showOpenDialog(win, o);
+    // a file the person picked may be read, even outside the folders named at start
+    for (const p of paths ?? []) guard.grant(p);
+    return paths;
+  };
+  registerIpc(ipcMain, serviceTable, dispatcher, { openDialog, startRecipe: recipe });
+  dispatcher.events.on('progress', (e) => win?.webContents.send(IPC.progress, e));
+  buildMenu(() => {
+    void openDialog({ title: 'Open data or recipe', multiple: true }).then((paths) => {
+      if (paths) win?.webContents.send(IPC.menuOpen, paths);
+    });
+  });
+  win = createWindow(distDir);
+  win.on('closed', () => {
+    win = null;
+  });
+});
+
+app.on('second-instance', () => {
+  if (win) {
+    if (win.isMinimized()) win.restore();
+    win.focus();
+  }
+});
+app.on('window-all-closed', () => app.quit());
