@@ -1,0 +1,111 @@
+/**
+ * Recipe validation: schema first (with the exact path of the first problem), then the things a schema
+ * cannot see: files that must exist, variable keys that must match, derived names that must not clash.
+ * Relative paths resolve against the recipe's folder.
+ */
+import { existsSync, statSync } from 'node:fs';
+import { isAbsolute, resolve } from 'node:path';
+import { StillwaterError } from '../errors.js';
+import type { LayerSpec } from '../regions/layers.js';
+import { formatPath } from './paths.js';
+import { recipeSchema, type LayerEntry, type ParsedRecipe, type RegionEntry } from './schema.js';
+import type { Recipe, ResolvedRegion, SourceSpec, VariableSource } from './types.js';
+
+function recipeError(path: string, sentence: string): StillwaterError {
+  return new StillwaterError('E_RECIPE', `${path}: ${sentence}`, { path });
+}
+
+function issueSentence(issue: { code: string; message: string; keys?: string[] }): string {
+  if (issue.code === 'unrecognized_keys' && issue.keys) {
+    return issue.keys.length === 1 ? `unknown key '${issue.keys[0]}'` : `unknown keys ${issue.keys.map((k) => `'${k}'`).join(', ')}`;
+  }
+  if (issue.code === 'invalid_type' && /received undefined/.test(issue.message)) return 'is required';
+  return issue.message.replace(/^Invalid input: /, '').replace(/\.$/, '');
+}
+
+function existingFile(baseDir: string, file: string, path: string): string {
+  const abs = isAbsolute(file) ? file : resolve(baseDir, file);
+  if (!existsSync(abs)) throw recipeError(path, `no such file '${abs}'.`);
+  if (!statSync(abs).isFile()) throw recipeError(path, `'${abs}' is not a file.`);
+  return abs;
+}
+
+function resolveSource(src: ParsedRecipe['reference'] | ParsedRecipe['runs'][number], path: string, baseDir: string): SourceSpec {
+  const file = src.file ? existingFile(baseDir, src.file, `${path}.file`) : undefined;
+  const variables: Record<string, VariableSource> = {};
+  for (const [key, entry] of Object.entries(src.variables)) {
+    const vpath = `${path}.variables${formatPath([key]).startsWith('[') ? '' : '.'}${formatPath([key])}`;
+    const v = typeof entry === 'string' ? { name: entry } : entry;
+    let vfile: string;
+    if (v.file) vfile = existingFile(baseDir, v.file, `${vpath}.file`);
+    else if (file) vfile = file;
+    else throw recipeError(`${vpath}.file`, `no file given (and ${path} has no file of its own).`);
+    variables[key] = { file: vfile, name: v.name ?? key, units: v.units, time: v.time, path: vpath };
+  }
+  const snapshots = 'snapshots' in src && src.snapshots
+    ? src.snapshots.map((s, i) => ({ file: existingFile(baseDir, s.file, `${path}.snapshots[${i}].file`), year: s.year }))
+    : undefined;
+  return { label: src.label, file, variables, snapshots, path };
+}
+
+function resolveRegion(r: RegionEntry, i: number, baseDir: string): ResolvedRegion {
+  const path = `regions[${i}]`;
+  if (typeof r === 'string') return { kind: 'built-in', name: r };
+  if ('mask' in r) return { kind: 'mask', file: existingFile(baseDir, r.mask, `${path}.mask`), variable: r.variable, flags: r.flags, path };
+  return { kind: 'geojson', file: existingFile(baseDir, r.geojson, `${path}.geojson`), property: r.property ?? 'name', features: r.features, path };
+}
+
+export function layerFromEntry(l: LayerEntry): LayerSpec {
+  if (Array.isArray(l)) return { kind: 'interval', top: l[0], bottom: l[1] };
+  return { kind: l };
+}
+
+/** Validate parsed JSON as a recipe; `baseDir` is the folder relative paths are taken from. */
+export function validateRecipe(json: unknown, baseDir: string): Recipe {
+  const parsed = recipeSchema.safeParse(json);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    throw recipeError(formatPath(issue.path), `${issueSentence(issue as { code: string; message: string; keys?: string[] })}.`);
+  }
+  const p = parsed.data;
+  const reference = resolveSource(p.reference, 'reference', baseDir);
+  const runs = p.runs.map((r, i) => resolveSource(r, `runs[${i}]`, baseDir));
+  const refKeys = Object.keys(reference.variables);
+  if (refKeys.length === 0) throw recipeError('reference.variables', 'names no variable.');
+  const derivedKeys = Object.keys(p.options.derived);
+  for (const d of derivedKeys) {
+    if (refKeys.includes(d)) throw recipeError(`options.derived.${d}`, `clashes with the reference variable '${d}'.`);
+  }
+  runs.forEach((run) => {
+    for (const key of Object.keys(run.variables)) {
+      if (!refKeys.includes(key)) throw recipeError(run.variables[key].path, `the reference has no variable '${key}' to compare with.`);
+    }
+  });
+  const known = [...refKeys, ...derivedKeys];
+  for (const key of Object.keys(p.options.units)) if (!known.includes(key)) throw recipeError(`options.units.${key}`, `no such variable in the recipe.`);
+  p.options.logStats.forEach((key, i) => {
+    if (!known.includes(key)) throw recipeError(`options.logStats[${i}]`, `no such variable '${key}' in the recipe.`);
+  });
+  if (typeof p.options.density === 'object') {
+    for (const which of ['temperature', 'salinity'] as const) {
+      const key = p.options.density.fields[which];
+      if (!refKeys.includes(key)) throw recipeError(`options.density.fields.${which}`, `the reference has no variable '${key}'.`);
+    }
+  }
+  if (typeof p.options.commonGrid === 'object' && p.options.commonGrid.depthEdges) {
+    const e = p.options.commonGrid.depthEdges;
+    for (let k = 1; k < e.length; k++) {
+      if (!(e[k] > e[k - 1])) throw recipeError(`options.commonGrid.depthEdges[${k}]`, 'depth edges must increase downwards.');
+    }
+  }
+  return {
+    title: p.title,
+    baseDir,
+    reference,
+    runs,
+    regions: p.regions.map((r, i) => resolveRegion(r, i, baseDir)),
+    layers: p.layers.map(layerFromEntry),
+    options: p.options,
+    variables: known,
+  };
+}
