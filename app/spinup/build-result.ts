@@ -1,6 +1,7 @@
 import { analyseTrack, DEEP_SETTLING_YEARS } from './analyse-track.js';
 import { inventoryUnits } from './inventory-units.js';
 import { isDeepLayer } from './layer-fractions.js';
+import { layerLabel } from '../regions/layers.js';
 import type { SeriesSums } from './series.js';
 import { summarise } from './summary.js';
 import type { SkillPoint, SpinupResult, SpinupSettings, SpinupTrack } from './types.js';
@@ -32,7 +33,7 @@ export function buildResult(run: string, series: SeriesSums, settings: SpinupSet
           mean,
           inventory,
           units: tr.units,
-          deep: isDeepLayer(layer),
+          deep: isDeepLayer(layer, series.grid.vertical),
           thresholdPercentPerKyr: settings.thresholdPercentPerKyr,
           tailYears: settings.tailYears,
         });
@@ -40,7 +41,7 @@ export function buildResult(run: string, series: SeriesSums, settings: SpinupSet
           tracer: tr.name,
           variable: tr.variable,
           region,
-          layer: layer.name,
+          layer: layerLabel(layer),
           units: tr.units,
           inventoryUnits: tr.inventoryUnits,
           mean,
@@ -54,7 +55,7 @@ export function buildResult(run: string, series: SeriesSums, settings: SpinupSet
     });
   });
   const lastYear = years[years.length - 1];
-  if (lastYear < DEEP_SETTLING_YEARS && series.layers.some(isDeepLayer)) {
+  if (lastYear < DEEP_SETTLING_YEARS && series.layers.some((l) => isDeepLayer(l, series.grid.vertical))) {
     notes.push(
       `The run is only ${Math.round(lastYear)} model years long: a spin-up much shorter than a few thousand years has not settled in the deep ocean (England 1995; common practice); drift verdicts for deep layers may mislead.`,
     );
@@ -65,7 +66,7 @@ export function buildResult(run: string, series: SeriesSums, settings: SpinupSet
     snapshots: series.snapshots.map((s) => ({ file: s.file, year: s.year, ...(s.timeIndex !== undefined ? { timeIndex: s.timeIndex } : {}) })),
     tracers: tracers.map(({ factor: _f, ...t }) => t),
     regions: series.regions,
-    layers: series.layers,
+    layers: series.layers.map(layerLabel),
     settings,
     tracks,
     skill,

@@ -1,33 +1,35 @@
 import type { VerticalAxis } from '../grid/types.js';
-import type { LayerSpec } from './types.js';
+import { layerLevelMetres, type LayerSpec } from '../regions/layers.js';
 
 /**
- * For each layer, the fraction of each level's thickness that lies inside the layer (0..1), so that a
- * level straddling a layer edge contributes only the part of its volume inside. The bottom layer has no
- * fractions: it is collected column by column (deepest wet cell).
+ * For each layer, the fraction of each level's thickness that counts (0..1): a level straddling a layer
+ * edge contributes only the part of its volume inside (the regions helper's layerLevelMetres). The bottom
+ * layer has no fractions: it is collected column by column (deepest wet cell). A 2-D field is one level
+ * that every layer but the bottom takes whole.
  */
 export function layerFractions(layers: LayerSpec[], vertical: VerticalAxis | null): (Float64Array | null)[] {
   return layers.map((layer) => {
     if (layer.kind === 'bottom') return null;
     if (!vertical) return Float64Array.of(1);
-    const f = new Float64Array(vertical.nz);
-    for (let k = 0; k < vertical.nz; k++) {
-      const top = Math.max(layer.top, vertical.edges[k]);
-      const bottom = Math.min(layer.bottom, vertical.edges[k + 1]);
-      f[k] = bottom > top ? (bottom - top) / vertical.thickness[k] : 0;
-    }
-    return f;
+    const metres = layerLevelMetres(layer, vertical);
+    return metres.map((m, k) => m / vertical.thickness[k]);
   });
 }
-
-/** Deeper than any ocean (the deepest sounding is near 11 000 m): a layer to this depth holds the whole column. */
-export const FULL_DEPTH_M = 12_000;
-
-export const WHOLE_COLUMN: LayerSpec = { name: 'all depths', kind: 'depth', top: 0, bottom: FULL_DEPTH_M };
 
 /** Below this depth a layer is in the deep ocean (common practice). */
 export const DEEP_OCEAN_M = 1000;
 
-export function isDeepLayer(layer: LayerSpec): boolean {
-  return layer.kind === 'bottom' || layer.bottom > DEEP_OCEAN_M;
+/** Does the layer reach the deep ocean on this grid? The bottom layer does wherever the sea is deep. */
+export function isDeepLayer(layer: LayerSpec, vertical: VerticalAxis | null): boolean {
+  if (!vertical) return false;
+  const floor = vertical.edges[vertical.nz];
+  switch (layer.kind) {
+    case 'bottom':
+    case 'all':
+      return floor > DEEP_OCEAN_M;
+    case 'interval':
+      return layer.bottom > DEEP_OCEAN_M && floor > DEEP_OCEAN_M;
+    case 'surface':
+      return false;
+  }
 }

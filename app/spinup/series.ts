@@ -3,8 +3,11 @@ import type { FieldSource } from '../cf/field.js';
 import type { Grid, HorizontalGrid } from '../grid/types.js';
 import { gridDifference } from './grid-match.js';
 import { checkSnapshotList } from './snapshot-list.js';
-import { regionCells, snapshotSums } from './snapshot-sums.js';
-import type { LayerSpec, RegionMask, SnapshotSpec, SnapshotSums, TracerSpec } from './types.js';
+import { snapshotSums } from './snapshot-sums.js';
+import type { LayerSpec } from '../regions/layers.js';
+import type { Region } from '../regions/region.js';
+import { cellsWhere } from '../regions/region.js';
+import type { SnapshotSpec, SnapshotSums, TracerSpec } from './types.js';
 
 /** One opened snapshot file: fields are read lazily, level by level. */
 export interface SnapshotHandle {
@@ -21,7 +24,7 @@ export interface SeriesInput {
   listName: string;
   tracers: TracerSpec[];
   /** regions on the snapshots' grid; default: one region "global" with every cell */
-  regions?: (grid: HorizontalGrid) => RegionMask[];
+  regions?: (grid: HorizontalGrid) => Promise<Region[]>;
   layers: LayerSpec[];
   open: SnapshotOpener;
   progress?: (fraction: number, message: string) => void;
@@ -43,8 +46,8 @@ export interface SeriesSums {
   sums: SnapshotSums[][][][];
 }
 
-export function globalRegion(grid: HorizontalGrid): RegionMask[] {
-  return [{ name: 'global', mask: new Uint8Array(grid.nx * grid.ny).fill(1) }];
+export async function globalRegion(grid: HorizontalGrid): Promise<Region[]> {
+  return [{ name: 'global', source: 'built-in', cells: cellsWhere(grid.nx * grid.ny, () => true) }];
 }
 
 async function openField(h: SnapshotHandle, s: SnapshotSpec, tracer: TracerSpec, units: string | undefined): Promise<FieldSource> {
@@ -138,8 +141,7 @@ export async function seriesSums(input: SeriesInput): Promise<SeriesSums> {
   }
   if (!grid) throw new StillwaterError('E_INTERNAL', 'no grid after reading the snapshot headers');
 
-  const regionMasks = (input.regions ?? globalRegion)(grid.horizontal);
-  const cells = regionCells(regionMasks);
+  const regions = await (input.regions ?? globalRegion)(grid.horizontal);
   // pass 2: data, level by level
   const sums: SnapshotSums[][][][] = [];
   for (let i = 0; i < snapshots.length; i++) {
@@ -151,7 +153,7 @@ export async function seriesSums(input: SeriesInput): Promise<SeriesSums> {
       const perTracer: SnapshotSums[][][] = [];
       for (const info of infos) {
         const f = await openField(h, s, info.spec, info.spec.units);
-        perTracer.push(await snapshotSums(f, s.timeIndex ?? 0, cells, layers));
+        perTracer.push(await snapshotSums(f, s.timeIndex ?? 0, regions, layers));
       }
       sums.push(perTracer);
     } finally {
@@ -159,5 +161,5 @@ export async function seriesSums(input: SeriesInput): Promise<SeriesSums> {
     }
   }
   input.progress?.(1, `${snapshots.length} snapshots read`);
-  return { snapshots, tracers: infos, regions: regionMasks.map((r) => r.name), layers, grid, sums };
+  return { snapshots, tracers: infos, regions: regions.map((r) => r.name), layers, grid, sums };
 }

@@ -1,28 +1,13 @@
 import type { Grid } from '../grid/types.js';
+import type { LayerSpec } from '../regions/layers.js';
+import type { Region } from '../regions/region.js';
 import { layerFractions } from './layer-fractions.js';
-import type { LayerSpec, RegionMask, SnapshotSums } from './types.js';
+import type { SnapshotSums } from './types.js';
 
 /** The part of a FieldSource the sums need: a grid and one level at a time. */
 export interface LevelReader {
   grid: Grid;
   readLevel(t: number, k: number): Promise<Float32Array>;
-}
-
-/** Cell indices of each region, computed once per grid and reused for every snapshot and tracer. */
-export interface RegionCells {
-  name: string;
-  cells: Int32Array;
-}
-
-export function regionCells(regions: RegionMask[]): RegionCells[] {
-  return regions.map((r) => {
-    let n = 0;
-    for (let c = 0; c < r.mask.length; c++) if (r.mask[c]) n++;
-    const cells = new Int32Array(n);
-    n = 0;
-    for (let c = 0; c < r.mask.length; c++) if (r.mask[c]) cells[n++] = c;
-    return { name: r.name, cells };
-  });
 }
 
 /**
@@ -31,7 +16,7 @@ export function regionCells(regions: RegionMask[]): RegionCells[] {
  * Cell volume = cell area x level thickness (x the fraction of the level inside the layer); 2-D fields use
  * the cell area. Result is indexed [region][layer].
  */
-export async function snapshotSums(src: LevelReader, t: number, regions: RegionCells[], layers: LayerSpec[]): Promise<SnapshotSums[][]> {
+export async function snapshotSums(src: LevelReader, t: number, regions: Pick<Region, 'name' | 'cells'>[], layers: LayerSpec[]): Promise<SnapshotSums[][]> {
   const { horizontal, vertical } = src.grid;
   const area = horizontal.area;
   const nz = vertical ? vertical.nz : 1;

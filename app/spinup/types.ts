@@ -1,3 +1,5 @@
+import type { LayerSpec } from '../regions/layers.js';
+
 /**
  * Spin-up analysis: what it takes and what it returns. The output types are the contract with the
  * workbench views (renderer/views) and with spinup.json; extra fields are welcome, renames are not.
@@ -27,18 +29,12 @@ export interface TracerSpec {
   units?: string;
 }
 
-/** A horizontal region: which cells belong (1) or not (0), ny * nx on the snapshots' grid. */
-export interface RegionMask {
-  name: string;
-  mask: Uint8Array;
-}
-
 /**
- * A depth layer. Depth layers take the volume of each level that lies between `top` and `bottom` (metres,
- * positive down; a level straddling an edge counts with the fraction inside). The bottom layer takes the
- * deepest wet cell of every column.
+ * Layers are the regions helper's (app/regions/layers.ts): [top, bottom] intervals, "surface", "all" and
+ * "bottom" (the deepest wet cell of every column). A level straddling an interval's edge counts with the
+ * part of its volume inside. Regions are its cell lists (app/regions/region.ts) on the snapshots' grid.
  */
-export type LayerSpec = { name: string; kind: 'depth'; top: number; bottom: number } | { name: string; kind: 'bottom' };
+export type { LayerSpec };
 
 export interface SpinupSettings {
   /** settled when |drift| is below this, in per cent of the mean per 1000 years (default 0.1) */
@@ -183,7 +179,8 @@ export interface SpinupResult {
   snapshots: { file: string; year: number; timeIndex?: number }[];
   tracers: { name: string; variable: string; units: string; inventoryUnits: string; inventoryNote?: string }[];
   regions: string[];
-  layers: LayerSpec[];
+  /** layer labels as in tracks (layerLabel of app/regions/layers.ts) */
+  layers: string[];
   settings: SpinupSettings;
   tracks: SpinupTrack[];
   /** skill of every snapshot against the reference, when the recipe names a reference */

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { regionCells, snapshotSums } from '../../../app/spinup/snapshot-sums.js';
+import { snapshotSums } from '../../../app/spinup/snapshot-sums.js';
+import { cellsWhere } from '../../../app/regions/region.js';
 import { inventoryUnits } from '../../../app/spinup/inventory-units.js';
 import { EARTH_RADIUS_M } from '../../../app/grid/types.js';
 import type { LayerSpec } from '../../../app/spinup/types.js';
@@ -16,19 +17,18 @@ const nan = NaN;
 // level 0 (0–100 m): [1, 2 | 3, land]; level 1 (100–300 m): [4, 5 | land, land]
 const data = Float32Array.from([1, 2, 3, nan, 4, 5, nan, nan]);
 const grid = handGrid([0, 10, 20], [0, 10, 30], [0, 100, 300]);
+/** region cells from a 0/1 mask */
+const region = (name: string, mask: number[]) => ({ name, cells: cellsWhere(mask.length, (c) => mask[c] === 1) });
 const layers: LayerSpec[] = [
-  { name: 'all', kind: 'depth', top: 0, bottom: 12000 },
-  { name: '0-200 m', kind: 'depth', top: 0, bottom: 200 },
-  { name: 'bottom', kind: 'bottom' },
+  { kind: 'all' },
+  { kind: 'interval', top: 0, bottom: 200 },
+  { kind: 'bottom' },
 ];
 
 describe('volume-weighted sums and inventory, computed by hand on a small grid', () => {
   it('sums Σ c·V and V per layer; a level straddling a layer edge counts with the part inside', async () => {
     const f = handField('hand.nc', 'PO4', grid, data);
-    const [global, west] = await snapshotSums(f, 0, regionCells([
-      { name: 'global', mask: Uint8Array.from([1, 1, 1, 1]) },
-      { name: 'west', mask: Uint8Array.from([1, 0, 1, 0]) },
-    ]), layers);
+    const [global, west] = await snapshotSums(f, 0, [region('global', [1, 1, 1, 1]), region('west', [1, 0, 1, 0])], layers);
     const cvAll = (1 * A_south + 2 * A_south + 3 * A_north) * 100 + (4 * A_south + 5 * A_south) * 200;
     const vAll = (2 * A_south + A_north) * 100 + 2 * A_south * 200;
     expect(global[0].sumCV / cvAll - 1).toBeCloseTo(0, 12);
@@ -52,7 +52,7 @@ describe('volume-weighted sums and inventory, computed by hand on a small grid',
     expect(inv.factor).toBe(1e-3);
     expect(inv.note).toBeUndefined();
     const f = handField('hand.nc', 'PO4', grid, data);
-    const [[all]] = await snapshotSums(f, 0, regionCells([{ name: 'global', mask: Uint8Array.from([1, 1, 1, 1]) }]), layers.slice(0, 1));
+    const [[all]] = await snapshotSums(f, 0, [region('global', [1, 1, 1, 1])], layers.slice(0, 1));
     const molByHand = 1e-3 * ((1 * A_south + 2 * A_south + 3 * A_north) * 100 + (4 * A_south + 5 * A_south) * 200);
     expect((all.sumCV * inv.factor) / molByHand - 1).toBeCloseTo(0, 12);
   });

@@ -8,8 +8,8 @@ import { handField, handGrid, memoryOpener } from './hand-built.js';
 
 const grid = handGrid([0, 10, 20, 30], [-10, 0, 10], [0, 50, 150, 400]);
 const layers: LayerSpec[] = [
-  { name: 'all', kind: 'depth', top: 0, bottom: 12000 },
-  { name: 'upper', kind: 'depth', top: 0, bottom: 150 },
+  { kind: 'all' },
+  { kind: 'interval', top: 0, bottom: 150 },
 ];
 
 /** Every wet cell follows the same first-order approach c(t) = 2 + 1·e^(−t/τ), τ = 600 years; one land column. */
