@@ -61,18 +61,24 @@ describe('stations at the seafloor, on land and below the seafloor are each repo
   it('a station on land, one below the seafloor and one outside the grid: none is dropped', async () => {
     const s = await sampleStations(
       f,
-      { lon: [0.2, 1.5, 1.5, 10], lat: [0.2, 1.5, 1.5, 1], depth: [50, 250, 120, 50], seafloor: [0, 0, 0, 0] },
+      { lon: [1.5, 1.5, 10], lat: [1.5, 1.5, 1], depth: [250, 120, 50], seafloor: [0, 0, 0] },
       { method: 'nearest' },
     );
-    // at (0.2, 0.2) the only candidate column is column 0 (land); at (1.5, 1.5), 250 m, every candidate is wet
-    // except column 5 itself, so the value comes from a neighbour; a 5-layer-deep station is below every floor
-    expect(s.status).toEqual(['on_land', 'from_neighbour', 'ok', 'outside_grid']);
-    expect(s.model[2]).toBe(10 * 1 + 5);
-    expect(s.seafloorM[1]).toBe(200);
-    expect(Number.isNaN(s.model[0])).toBe(true);
+    // at (1.5, 1.5), 250 m, column 5 itself is dry but its neighbours are wet: the value comes from a neighbour
+    expect(s.status).toEqual(['from_neighbour', 'ok', 'outside_grid']);
+    expect(s.model[1]).toBe(10 * 1 + 5);
+    expect(s.seafloorM[0]).toBe(200);
     const deep = await sampleStations(f, { lon: [1.5], lat: [1.5], depth: [450], seafloor: [0] }, { method: 'nearest' });
     expect(deep.status).toEqual(['below_seafloor']);
     expect(deep.seafloorM[0]).toBe(200);
+    // a land block in the south-west corner: no candidate column of (0.2, 0.2) has water
+    const island = stepField([0, 0, 4, 4, 0, 0, 4, 4, 4, 4, 4, 4]);
+    for (const method of ['nearest', 'trilinear'] as const) {
+      const l = await sampleStations(island, { lon: [0.2], lat: [0.2], depth: [50], seafloor: [0] }, { method });
+      expect(l.status).toEqual(['on_land']);
+      expect(Number.isNaN(l.model[0])).toBe(true);
+      expect(l.seafloorM[0]).toBe(0);
+    }
   });
   it('trilinear holds the deepest wet value down to the bottom edge of its layer, then reports the seafloor', async () => {
     // at the centre of column 5 (the four bilinear weights are on column 5 alone)

@@ -1,0 +1,99 @@
+/**
+ * Files of a line: section.csv / section.json (every level at every sample) and
+ * column-means.csv / column-means.json (one value per sample). NaN is an empty CSV field or JSON null.
+ */
+import type { LineResult, SectionOf } from './line-report.js';
+import { csvNumber, csvText, jsonNumber } from './write-files.js';
+
+function columns(r: LineResult): { label: string; role: string; s: SectionOf }[] {
+  return [
+    { label: r.reference.label, role: 'reference', s: r.reference },
+    ...r.runs.map((s) => ({ label: s.label, role: 'run', s })),
+    ...r.differences.map((s) => ({ label: s.label, role: 'difference', s })),
+  ];
+}
+
+export function sectionCsv(r: LineResult): string {
+  const n = r.line.lon.length;
+  const nz = r.depth.centres.length;
+  const cols = columns(r);
+  const rows = [['distance_km', 'lon', 'lat', 'depth_m', 'seafloor_m', ...cols.map((c) => csvText(c.label))].join(',')];
+  for (let s = 0; s < n; s++) {
+    for (let k = 0; k < nz; k++) {
+      const i = k * n + s;
+      // rows below the seafloor of every field carry nothing: leave them out
+      if (!cols.some((c) => c.s.values[i] === c.s.values[i])) continue;
+      rows.push(
+        [
+          csvNumber(r.line.distanceKm[s], 9),
+          csvNumber(r.line.lon[s], 9),
+          csvNumber(r.line.lat[s], 9),
+          csvNumber(r.depth.centres[k]),
+          csvNumber(r.seafloorM[s]),
+          ...cols.map((c) => csvNumber(c.s.values[i])),
+        ].join(','),
+      );
+    }
+  }
+  return rows.join('\n') + '\n';
+}
+
+export function columnMeansCsv(r: LineResult): string {
+  const n = r.line.lon.length;
+  const cols = columns(r);
+  const rows = [['distance_km', 'lon', 'lat', 'seafloor_m', 'wet_thickness_m', ...cols.map((c) => csvText(c.label))].join(',')];
+  for (let s = 0; s < n; s++) {
+    rows.push(
+      [
+        csvNumber(r.line.distanceKm[s], 9),
+        csvNumber(r.line.lon[s], 9),
+        csvNumber(r.line.lat[s], 9),
+        csvNumber(r.seafloorM[s]),
+        csvNumber(r.rangeThicknessM[s]),
+        ...cols.map((c) => csvNumber(c.s.columnMean[s])),
+      ].join(','),
+    );
+  }
+  return rows.join('\n') + '\n';
+}
+
+function lineHeader(r: LineResult): Record<string, unknown> {
+  return {
+    variable: r.variable,
+    units: r.units,
+    kind: r.line.kind,
+    method: r.method,
+    spacing_km: r.line.spacingKm,
+    waypoints: r.line.waypoints.map((p, i) => ({ lon: p.lon, lat: p.lat, distance_km: jsonNumber(r.line.waypointKm[i], 9) })),
+    distance_km: Array.from(r.line.distanceKm, (v) => jsonNumber(v, 9)),
+    lon: Array.from(r.line.lon, (v) => jsonNumber(v, 9)),
+    lat: Array.from(r.line.lat, (v) => jsonNumber(v, 9)),
+    seafloor_m: Array.from(r.seafloorM, (v) => jsonNumber(v)),
+  };
+}
+
+/** section.json: values[level][sample] per field, depth axis downwards. */
+export function sectionJson(r: LineResult): Record<string, unknown> {
+  const n = r.line.lon.length;
+  const nz = r.depth.centres.length;
+  return {
+    ...lineHeader(r),
+    depth_m: Array.from(r.depth.centres),
+    depth_edges_m: Array.from(r.depth.edges),
+    fields: columns(r).map((c) => ({
+      label: c.label,
+      role: c.role,
+      values: Array.from({ length: nz }, (_, k) => Array.from(c.s.values.subarray(k * n, (k + 1) * n), (v) => jsonNumber(v))),
+    })),
+  };
+}
+
+/** column-means.json: one thickness-weighted mean per sample and field. */
+export function columnMeansJson(r: LineResult): Record<string, unknown> {
+  return {
+    ...lineHeader(r),
+    depth_range_m: [r.range.top, r.range.bottom],
+    wet_thickness_m: Array.from(r.rangeThicknessM, (v) => jsonNumber(v)),
+    fields: columns(r).map((c) => ({ label: c.label, role: c.role, values: Array.from(c.s.columnMean, (v) => jsonNumber(v)) })),
+  };
+}
