@@ -21,8 +21,8 @@ export const DEFAULT_FILL: Partial<Record<DType, number>> = {
   u2: 65535,
   i4: -2147483647,
   u4: 4294967295,
-  i8: -9223372036854775806,
-  u8: 18446744073709551614,
+  i8: Number(-9223372036854775806n), // not exact as a double; 64-bit fills are compared after conversion
+  u8: Number(18446744073709551614n),
   f4: Math.fround(9.969209968386869e36),
   f8: 9.969209968386869e36,
 };

@@ -34,34 +34,73 @@ export function nearLongitude(x: number, ref: number): number {
 }
 
 /**
- * Corners as averages of the four surrounding centres (on the unit sphere, so the longitude wrap and the
- * poles need no special case); outside the grid the centres are extrapolated linearly, except across the
- * seam of a grid that wraps in i.
+ * Corners as averages of the four surrounding centres, in longitude and latitude (longitudes unwrapped
+ * around the first of the four, so the 0/360 or ±180 seam needs no care); outside the grid the centres are
+ * extrapolated linearly, except across the seam of a grid that wraps in i. Latitudes are clipped to ±90.
+ * Where the four centres spread over more than 90° of longitude (next to a pole of the grid), longitude
+ * averages mean nothing: there the corner is the normalised mean of the centres' unit vectors.
  */
 export function deriveCorners(lon2d: ArrayLike<number>, lat2d: ArrayLike<number>, nx: number, ny: number, periodic: boolean): Corners {
   if (nx < 2 || ny < 2) throw new StillwaterError('E_GRID', 'Deriving cell corners needs a curvilinear grid of at least 2 × 2 cells.');
   const W = nx + 2;
-  const ext: Vec3[] = new Array((ny + 2) * W);
-  const at = (jj: number, ii: number): Vec3 => ext[jj * W + ii];
-  const lin = (a: Vec3, b: Vec3): Vec3 => [2 * a[0] - b[0], 2 * a[1] - b[1], 2 * a[2] - b[2]];
-  for (let j = 0; j < ny; j++) {
-    for (let i = 0; i < nx; i++) ext[(j + 1) * W + i + 1] = toUnitVector(lon2d[j * nx + i], lat2d[j * nx + i]);
-    ext[(j + 1) * W] = periodic ? at(j + 1, nx) : lin(at(j + 1, 1), at(j + 1, 2));
-    ext[(j + 1) * W + nx + 1] = periodic ? at(j + 1, 1) : lin(at(j + 1, nx), at(j + 1, nx - 1));
+  const H = ny + 2;
+  const eLon = new Float64Array(H * W);
+  const eLat = new Float64Array(H * W);
+  const set = (jj: number, ii: number, lo: number, la: number): void => {
+    eLon[jj * W + ii] = lo;
+    eLat[jj * W + ii] = la;
+  };
+  /** 2a - b in longitude (b unwrapped next to a) and latitude */
+  const extrapolate = (ja: number, ia: number, jb: number, ib: number, jj: number, ii: number): void => {
+    const la = eLon[ja * W + ia];
+    set(jj, ii, 2 * la - nearLongitude(eLon[jb * W + ib], la), 2 * eLat[ja * W + ia] - eLat[jb * W + ib]);
+  };
+  for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) set(j + 1, i + 1, lon2d[j * nx + i], lat2d[j * nx + i]);
+  for (let jj = 1; jj <= ny; jj++) {
+    if (periodic) {
+      set(jj, 0, eLon[jj * W + nx], eLat[jj * W + nx]);
+      set(jj, nx + 1, eLon[jj * W + 1], eLat[jj * W + 1]);
+    } else {
+      extrapolate(jj, 1, jj, 2, jj, 0);
+      extrapolate(jj, nx, jj, nx - 1, jj, nx + 1);
+    }
   }
   for (let ii = 0; ii < W; ii++) {
-    ext[ii] = lin(at(1, ii), at(2, ii));
-    ext[(ny + 1) * W + ii] = lin(at(ny, ii), at(ny - 1, ii));
+    extrapolate(1, ii, 2, ii, 0, ii);
+    extrapolate(ny, ii, ny - 1, ii, ny + 1, ii);
   }
   const CW = nx + 1;
   const cLon = new Float64Array((ny + 1) * CW);
   const cLat = new Float64Array((ny + 1) * CW);
   for (let jj = 0; jj <= ny; jj++) {
     for (let ii = 0; ii <= nx; ii++) {
-      const a = at(jj, ii), b = at(jj, ii + 1), c = at(jj + 1, ii), d = at(jj + 1, ii + 1);
-      const p = fromUnitVector([a[0] + b[0] + c[0] + d[0], a[1] + b[1] + c[1] + d[1], a[2] + b[2] + c[2] + d[2]]);
-      cLon[jj * CW + ii] = p.lon;
-      cLat[jj * CW + ii] = p.lat;
+      const idx = [jj * W + ii, jj * W + ii + 1, (jj + 1) * W + ii, (jj + 1) * W + ii + 1];
+      const ref = eLon[idx[0]];
+      let sumLon = 0;
+      let sumLat = 0;
+      let lo = Infinity;
+      let hi = -Infinity;
+      for (const q of idx) {
+        const x = nearLongitude(eLon[q], ref);
+        lo = Math.min(lo, x);
+        hi = Math.max(hi, x);
+        sumLon += x;
+        sumLat += eLat[q];
+      }
+      let lon = sumLon / 4;
+      let lat = sumLat / 4;
+      if (hi - lo > 90) {
+        const sum: Vec3 = [0, 0, 0];
+        for (const q of idx) {
+          const u = toUnitVector(eLon[q], Math.max(-90, Math.min(90, eLat[q])));
+          sum[0] += u[0];
+          sum[1] += u[1];
+          sum[2] += u[2];
+        }
+        ({ lon, lat } = fromUnitVector(sum));
+      }
+      cLon[jj * CW + ii] = lon;
+      cLat[jj * CW + ii] = Math.max(-90, Math.min(90, lat));
     }
   }
   const lon = new Float64Array(nx * ny * 4);
