@@ -8,5 +8,5 @@ export function formatPath(path: readonly PropertyKey[]): string {
       out += /^[A-Za-z_$][\w$]*$/.test(s) ? (out ? '.' : '') + s : `[${JSON.stringify(s)}]`;
     }
   }
-  return out || '(recipe)';
+  return out || 'recipe';
 }
