@@ -5,8 +5,9 @@
  */
 import type { ServiceEntry } from './services/types.js';
 import { filesServices } from './services/files.js';
+import { viewsServices } from './services/views.js';
 
-export const serviceTable: ServiceEntry[] = [...filesServices];
+export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices];
 
 export function findService(name: string): ServiceEntry | undefined {
   return serviceTable.find((e) => e.name === name);

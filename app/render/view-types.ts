@@ -1,0 +1,161 @@
+/**
+ * What the view services (app/services/views.ts) hand to the screen. Types only: the renderer imports
+ * these to know the shapes it draws. Arrays are typed arrays with NaN for missing values.
+ */
+
+/** One variable of the reference or of a run, as the sources panel lists it. */
+export interface SourceVariable {
+  /** the recipe's key, e.g. "PO4" */
+  key: string;
+  file: string;
+  /** name in the file */
+  name: string;
+  units: string;
+  longName?: string;
+}
+
+export interface SourceInfo {
+  label: string;
+  variables: SourceVariable[];
+  /** spin-up snapshots listed for a run */
+  snapshots?: { file: string; year: number }[];
+}
+
+/** A depth choice for maps: one level of the common grid, a layer of the recipe, or the bottom. */
+export interface LayerChoice {
+  /** "k:5", "layer:0-100", "bottom", "surface", "all" */
+  id: string;
+  label: string;
+  kind: 'level' | 'interval' | 'bottom' | 'surface' | 'all';
+  /** metres; null for bottom (chosen column by column) */
+  top: number | null;
+  bottom: number | null;
+  /** level index for kind 'level' */
+  k?: number;
+}
+
+/** The common lat-lon-depth grid every field is regridded onto. */
+export interface ViewGrid {
+  nx: number;
+  ny: number;
+  nz: number;
+  lonEdges: Float64Array;
+  latEdges: Float64Array;
+  /** metres, positive down */
+  depthEdges: Float64Array;
+  depthCentres: Float64Array;
+  /** cell area, m², ny * nx */
+  area: Float64Array;
+}
+
+/** A paired variable: present in the reference and in at least one run. */
+export interface PairedVariable {
+  key: string;
+  /** units of the comparison (the reference's, or the recipe's choice) */
+  units: string;
+  longName: string;
+  /** labels of the runs that have it */
+  runs: string[];
+}
+
+export interface SessionInfo {
+  /** handle for the other view services */
+  session: string;
+  recipePath: string;
+  title: string;
+  reference: SourceInfo;
+  runs: SourceInfo[];
+  variables: PairedVariable[];
+  regions: string[];
+  layers: LayerChoice[];
+  grid: ViewGrid;
+  /** true when the session differs from the recipe file (pairs added, runs added) */
+  modified: boolean;
+}
+
+/** One horizontal slice on the common grid: a level, a layer mean, or the bottom values. */
+export interface LevelData {
+  variable: string;
+  run: string;
+  layer: LayerChoice;
+  units: string;
+  model: Float32Array;
+  reference: Float32Array;
+  /** model minus reference */
+  difference: Float32Array;
+  /** for the bottom: level index used in each column (-1 where none) */
+  bottomLevel?: Int16Array;
+  /** metres of water that each column contributes to this slice (cell volume = area × this) */
+  thickness: Float32Array;
+}
+
+export type SectionKind = 'meridian' | 'parallel' | 'zonal';
+
+export interface SectionData {
+  variable: string;
+  run: string;
+  kind: SectionKind;
+  /** longitude of a meridian or latitude of a parallel that was asked for, and the grid line used */
+  at: number | null;
+  atGrid: number | null;
+  region: string | null;
+  units: string;
+  /** 'latitude' or 'longitude' */
+  axis: 'latitude' | 'longitude';
+  /** sample edges along the section (n + 1), degrees */
+  edges: Float64Array;
+  depthEdges: Float64Array;
+  /** level-major values: [k * n + s] */
+  model: Float32Array;
+  reference: Float32Array;
+  difference: Float32Array;
+  /** depth of the seafloor under each sample, m (NaN where the column is dry) */
+  seafloor: Float64Array;
+}
+
+export interface ProfileData {
+  variable: string;
+  region: string;
+  units: string;
+  depthCentres: Float64Array;
+  depthEdges: Float64Array;
+  /** area-weighted mean of each level over the region's wet cells */
+  reference: Float64Array;
+  runs: { label: string; values: Float64Array }[];
+}
+
+/** One skill row (DESIGN.md section 3), as the diagrams and the table use it. */
+export interface SkillRowView {
+  run: string;
+  variable: string;
+  region: string;
+  layer: string;
+  units: string;
+  n: number;
+  weight: number;
+  model_mean: number;
+  ref_mean: number;
+  bias: number;
+  rmse: number;
+  crmse: number;
+  corr: number;
+  model_std: number;
+  ref_std: number;
+  std_ratio: number;
+  [extra: string]: string | number | null;
+}
+
+export interface SkillData {
+  rows: SkillRowView[];
+  /** columns in display order */
+  columns: string[];
+}
+
+export type TableFormat = 'csv' | 'markdown' | 'latex' | 'json';
+
+export interface TableText {
+  format: TableFormat;
+  fileName: string;
+  mime: string;
+  text: string;
+}

@@ -1,0 +1,118 @@
+/**
+ * The views' way to the view services: every call is a tracked job (the status line shows it and can
+ * cancel it) and results that are asked for again are kept (a bounded cache, newest last).
+ */
+import type { LevelData, ProfileData, SectionData, SectionKind, SessionInfo, SkillData, TableFormat, TableText } from '../app/render/view-types.js';
+import { call, cancel, newJobId, type ProgressEvent } from './bridge.js';
+
+export interface Job {
+  id: string;
+  label: string;
+  fraction: number;
+  message: string;
+}
+
+const jobs = new Map<string, Job>();
+const jobListeners = new Set<() => void>();
+
+export function onJobs(cb: () => void): void {
+  jobListeners.add(cb);
+}
+
+export function runningJobs(): Job[] {
+  return [...jobs.values()];
+}
+
+function jobsChanged(): void {
+  for (const cb of jobListeners) cb();
+}
+
+/** Call a service as a job that the status line shows. */
+export async function tracked<T>(label: string, name: string, input: unknown): Promise<T> {
+  const id = newJobId();
+  const job: Job = { id, label, fraction: 0, message: '' };
+  jobs.set(id, job);
+  jobsChanged();
+  try {
+    return await call<T>(name, input, {
+      jobId: id,
+      onProgress: (e: ProgressEvent) => {
+        job.fraction = e.fraction;
+        job.message = e.message;
+        jobsChanged();
+      },
+    });
+  } finally {
+    jobs.delete(id);
+    jobsChanged();
+  }
+}
+
+export async function cancelAll(): Promise<void> {
+  await Promise.all([...jobs.keys()].map((id) => cancel(id)));
+}
+
+class Cache<T> {
+  private readonly map = new Map<string, Promise<T>>();
+  constructor(private readonly limit: number) {}
+  get(key: string, make: () => Promise<T>): Promise<T> {
+    const hit = this.map.get(key);
+    if (hit) {
+      this.map.delete(key);
+      this.map.set(key, hit);
+      return hit;
+    }
+    const p = make();
+    this.map.set(key, p);
+    // a failed or cancelled request is not kept
+    p.catch(() => this.map.delete(key));
+    while (this.map.size > this.limit) this.map.delete(this.map.keys().next().value as string);
+    return p;
+  }
+  clear(): void {
+    this.map.clear();
+  }
+}
+
+const levels = new Cache<LevelData>(40);
+const sections = new Cache<SectionData>(12);
+const profiles = new Cache<ProfileData>(12);
+const skills = new Cache<SkillData>(4);
+
+export function clearCaches(): void {
+  levels.clear();
+  sections.clear();
+  profiles.clear();
+  skills.clear();
+}
+
+export function openSession(recipePath: string): Promise<SessionInfo> {
+  clearCaches();
+  return tracked('Opening recipe', 'view.open', { recipe: recipePath });
+}
+
+export function getLevel(session: string, variable: string, run: string, layer: string): Promise<LevelData> {
+  return levels.get(JSON.stringify([session, variable, run, layer]), () =>
+    tracked(`Loading ${variable}, ${run}`, 'view.level', { session, variable, run, layer }),
+  );
+}
+
+export function getSection(session: string, variable: string, run: string, kind: SectionKind, at: number, region: string): Promise<SectionData> {
+  return sections.get(JSON.stringify([session, variable, run, kind, at, region]), () =>
+    tracked(`Section of ${variable}`, 'view.section', { session, variable, run, kind, at, region }),
+  );
+}
+
+export function getProfile(session: string, variable: string, region: string): Promise<ProfileData> {
+  return profiles.get(JSON.stringify([session, variable, region]), () =>
+    tracked(`Profile of ${variable}`, 'view.profile', { session, variable, region }),
+  );
+}
+
+export function getSkill(session: string): Promise<SkillData> {
+  return skills.get(session, () => tracked('Computing skill scores', 'view.skill', { session }));
+}
+
+export function getTable(session: string, format: TableFormat, rows: number[] | null): Promise<TableText> {
+  return tracked(`Writing ${format}`, 'view.table', { session, format, rows });
+}

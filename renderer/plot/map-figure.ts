@@ -1,0 +1,135 @@
+/**
+ * The frame of a map figure: title, the plot rectangle where the raster goes, coastlines, graticule,
+ * the globe's outline and a colour bar with units. The raster itself is a canvas (screen) or an
+ * embedded image (export) placed on `plot`.
+ */
+import type { ColourScale } from '../../app/render/colour-scales.js';
+import type { MapProjection } from '../../app/render/projections.js';
+import { s } from '../dom.js';
+import { colourBar, figureRoot, INK, title, type Rect } from './svg-parts.js';
+
+export interface MapFigureSpec {
+  width: number;
+  /** upper bound of the figure's height (the map shrinks to fit) */
+  maxHeight?: number;
+  projection: MapProjection;
+  title: string;
+  subtitle: string;
+  scale: ColourScale;
+  min: number;
+  max: number;
+  units: string;
+  caption: string;
+  coast: Float64Array[];
+}
+
+export interface MapFigure {
+  svg: SVGSVGElement;
+  plot: Rect;
+  /** group above the raster where markers (probe, stations) go */
+  overlay: SVGGElement;
+  /** figure units of projected coordinates */
+  toFigure(x: number, y: number): [number, number];
+}
+
+const TOP = 50;
+const BAR_SPACE = 104;
+
+export function mapFigure(spec: MapFigureSpec): MapFigure {
+  const e = spec.projection.extent;
+  const aspect = (e.ymax - e.ymin) / (e.xmax - e.xmin);
+  let pw = spec.width - 16 - BAR_SPACE;
+  let ph = pw * aspect;
+  if (spec.maxHeight && TOP + ph + 16 > spec.maxHeight) {
+    ph = Math.max(120, spec.maxHeight - TOP - 16);
+    pw = ph / aspect;
+  }
+  pw = Math.round(pw);
+  ph = Math.round(ph);
+  const height = TOP + ph + 16;
+  const plot: Rect = { x: 12, y: TOP, w: pw, h: ph };
+  const svg = figureRoot(spec.width, height, `${spec.title}. ${spec.subtitle}`);
+  title(svg, 12, 18, spec.title, spec.subtitle);
+
+  const toFigure = (x: number, y: number): [number, number] => [
+    plot.x + ((x - e.xmin) / (e.xmax - e.xmin)) * plot.w,
+    plot.y + ((e.ymax - y) / (e.ymax - e.ymin)) * plot.h,
+  ];
+
+  // the raster sits under everything below (placeholder group, filled by the caller)
+  svg.append(s('g', { class: 'raster' }));
+
+  const clipId = `clip-${Math.random().toString(36).slice(2, 9)}`;
+  svg.append(s('defs', {}, s('clipPath', { id: clipId }, s('rect', { x: plot.x, y: plot.y, width: plot.w, height: plot.h }))));
+  const graticule = s('g', { 'clip-path': `url(#${clipId})`, fill: 'none', stroke: '#ffffff', 'stroke-opacity': 0.55, 'stroke-width': 0.6 });
+  graticule.append(s('path', { d: graticulePath(spec.projection, toFigure) }));
+  svg.append(graticule);
+
+  const coast = s('g', { 'clip-path': `url(#${clipId})`, fill: 'none', stroke: '#2b2f33', 'stroke-width': 0.6, 'stroke-linejoin': 'round', class: 'coastline' });
+  let d = '';
+  for (const line of spec.coast) {
+    for (let i = 0; i < line.length; i += 2) {
+      const [fx, fy] = toFigure(line[i], line[i + 1]);
+      d += `${i === 0 ? 'M' : 'L'}${fx.toFixed(1)},${fy.toFixed(1)}`;
+    }
+  }
+  coast.append(s('path', { d }));
+  svg.append(coast);
+
+  svg.append(s('path', { d: outlinePath(spec.projection, toFigure), fill: 'none', stroke: INK, 'stroke-width': 0.9 }));
+  const overlay = s('g', { class: 'overlay' });
+  svg.append(overlay);
+
+  const barH = Math.min(ph * 0.8, 300);
+  colourBar(svg, { x: plot.x + plot.w + 18, y: plot.y + (ph - barH) / 2, w: 14, h: barH }, spec.scale, spec.min, spec.max, spec.units, spec.caption);
+  return { svg, plot, overlay, toFigure };
+}
+
+function graticulePath(p: MapProjection, toFigure: (x: number, y: number) => [number, number]): string {
+  const lines: [number, number][][] = [];
+  for (let lon = -180; lon <= 180; lon += 30) {
+    const pts: [number, number][] = [];
+    for (let lat = -89.9; lat <= 89.9; lat += 1) pts.push([lon === 180 ? 179.999 : lon === -180 ? -179.999 : lon, lat]);
+    lines.push(pts);
+  }
+  const lim = p.info.latitudeLimit;
+  const parallels = lim === null ? [-60, -30, 0, 30, 60] : [50, 60, 70, 80].map((l) => (lim > 0 ? l : -l));
+  for (const lat of parallels) {
+    const pts: [number, number][] = [];
+    for (let lon = -180; lon <= 180; lon += 1) pts.push([Math.max(-179.999, Math.min(179.999, lon)), lat]);
+    lines.push(pts);
+  }
+  return pathOf(p, lines, toFigure);
+}
+
+function outlinePath(p: MapProjection, toFigure: (x: number, y: number) => [number, number]): string {
+  if (p.info.latitudeLimit !== null) {
+    const pts: [number, number][] = [];
+    for (let lon = -180; lon <= 180; lon += 2) pts.push([lon, p.info.latitudeLimit]);
+    return pathOf(p, [pts], toFigure) + 'Z';
+  }
+  const pts: [number, number][] = [];
+  for (let lat = -89.999; lat <= 89.999; lat += 1) pts.push([179.9999, lat]);
+  pts.push([179.9999, 89.9999]);
+  for (let lat = 89.999; lat >= -89.999; lat -= 1) pts.push([-179.9999, lat]);
+  pts.push([-179.9999, -89.9999]);
+  return pathOf(p, [pts], toFigure) + 'Z';
+}
+
+function pathOf(p: MapProjection, lines: [number, number][][], toFigure: (x: number, y: number) => [number, number]): string {
+  let d = '';
+  for (const line of lines) {
+    let pen = false;
+    for (const [lon, lat] of line) {
+      const q = p.forward(lon, lat);
+      if (!q) {
+        pen = false;
+        continue;
+      }
+      const [fx, fy] = toFigure(q[0], q[1]);
+      d += `${pen ? 'L' : 'M'}${fx.toFixed(1)},${fy.toFixed(1)}`;
+      pen = true;
+    }
+  }
+  return d;
+}

@@ -1,0 +1,293 @@
+/**
+ * Map and Difference views: one level (or layer, or the bottom) of the chosen variable on the chosen
+ * projection. The pixel-to-cell lookup is built once per projection, grid and canvas size; a change of
+ * depth, variable or range only recolours.
+ */
+import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
+import { buildPixelLookup, canvasHeightFor, pixelToProjected } from '../../app/render/pixel-lookup.js';
+import { makeProjection, type MapProjection, type ProjectionId } from '../../app/render/projections.js';
+import { packRgba, recolour } from '../../app/render/recolour.js';
+import type { LevelData, ViewGrid } from '../../app/render/view-types.js';
+import { getLevel } from '../data.js';
+import { h, s } from '../dom.js';
+import { coastlines } from '../plot/coast.js';
+import { mapFigure, type MapFigure } from '../plot/map-figure.js';
+import { choose, currentVariable, setProbe, state, type AppState } from '../state.js';
+import { EXPORT_WIDTH, errorText, note, type ViewFactory, type ViewHandle } from './view.js';
+
+const MISSING = packRgba(200, 200, 196);
+const BACKGROUND = packRgba(255, 255, 255, 0);
+
+const lookups = new Map<string, Int32Array>();
+const projections = new Map<ProjectionId, MapProjection>();
+
+export function projectionOf(id: ProjectionId): MapProjection {
+  let p = projections.get(id);
+  if (!p) {
+    p = makeProjection(id);
+    projections.set(id, p);
+  }
+  return p;
+}
+
+/** The lookup for one projection × grid × canvas size, built once and kept (a few of them). */
+export function lookupFor(proj: MapProjection, grid: ViewGrid, w: number, h: number): Int32Array {
+  const key = `${proj.info.id}|${grid.nx}x${grid.ny}|${grid.lonEdges[0]}|${grid.latEdges[0]}|${w}x${h}`;
+  let lut = lookups.get(key);
+  if (!lut) {
+    lut = buildPixelLookup(proj, grid.lonEdges, grid.latEdges, w, h);
+    lookups.set(key, lut);
+    while (lookups.size > 8) lookups.delete(lookups.keys().next().value as string);
+  }
+  return lut;
+}
+
+let firstDrawMarked = false;
+
+export interface MapChoice {
+  values: Float32Array;
+  min: number;
+  max: number;
+  diverging: boolean;
+  caption: string;
+  title: string;
+  subtitle: string;
+  units: string;
+}
+
+/** What the view shows for a level: which array, which range, which words. */
+export function mapChoice(st: AppState, data: LevelData, difference: boolean): MapChoice | null {
+  const session = st.session!;
+  const v = currentVariable();
+  const name = v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : data.variable;
+  const where = `${data.layer.label}; ${projectionOf(st.sel.projection).info.label}`;
+  if (difference) {
+    const r = st.sel.diffRange ?? symmetricRange([data.difference]);
+    if (!r) return null;
+    return {
+      values: data.difference,
+      min: r[0],
+      max: r[1],
+      diverging: true,
+      caption: `${data.variable}, ${data.run} − ${session.reference.label}`,
+      title: `${name}: ${data.run} minus ${session.reference.label}`,
+      subtitle: where,
+      units: data.units,
+    };
+  }
+  const r = st.sel.fieldRange ?? quantileRange([data.model, data.reference]);
+  if (!r) return null;
+  const showModel = st.sel.mapField === 'model';
+  return {
+    values: showModel ? data.model : data.reference,
+    min: r[0],
+    max: r[1],
+    diverging: false,
+    caption: data.variable,
+    title: `${name}: ${showModel ? data.run : session.reference.label}`,
+    subtitle: where,
+    units: data.units,
+  };
+}
+
+/** Colour one level into a canvas through the lookup. */
+export function paint(canvas: HTMLCanvasElement, lut: Int32Array, choice: MapChoice): void {
+  const ctx = canvas.getContext('2d');
+  if (!ctx) return;
+  const img = ctx.createImageData(canvas.width, canvas.height);
+  const px = new Uint32Array(img.data.buffer);
+  recolour(choice.values, lut, px, {
+    palette: (choice.diverging ? DIVERGING : SEQUENTIAL).packed,
+    min: choice.min,
+    max: choice.max,
+    missing: MISSING,
+    background: BACKGROUND,
+  });
+  ctx.putImageData(img, 0, 0);
+}
+
+export function mapView(difference: boolean): ViewFactory {
+  return (el: HTMLElement): ViewHandle => {
+    el.classList.add('map-view');
+    const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Map options' });
+    const stage = h('div', { class: 'figure-stage' });
+    el.append(toolbar, stage);
+
+    let data: LevelData | null = null;
+    let fig: MapFigure | null = null;
+    let figKey = '';
+    let canvas: HTMLCanvasElement | null = null;
+    let probeMark: SVGGElement | null = null;
+    let token = 0;
+
+    // toolbar: which field (Map view only), colour range
+    const fieldButtons: HTMLButtonElement[] = [];
+    if (!difference) {
+      const group = h('div', { class: 'segmented', role: 'group', 'aria-label': 'Field shown' });
+      for (const [value, label] of [
+        ['model', 'Run'],
+        ['reference', 'Reference'],
+      ] as const) {
+        const b = h('button', { type: 'button', 'data-field': value, 'aria-pressed': String(state.sel.mapField === value) }, label);
+        b.addEventListener('click', () => choose({ mapField: value }));
+        fieldButtons.push(b);
+        group.append(b);
+      }
+      toolbar.append(group);
+    }
+    const minIn = h('input', { type: 'number', step: 'any', 'aria-label': 'Colour range minimum', class: 'range-input' });
+    const maxIn = h('input', { type: 'number', step: 'any', 'aria-label': 'Colour range maximum', class: 'range-input' });
+    const applyRange = (): void => {
+      const a = Number(minIn.value);
+      const b = Number(maxIn.value);
+      if (minIn.value === '' || maxIn.value === '' || !(b > a)) return;
+      choose(difference ? { diffRange: [a, b] } : { fieldRange: [a, b] });
+    };
+    minIn.addEventListener('change', applyRange);
+    maxIn.addEventListener('change', applyRange);
+    const auto = h('button', { type: 'button', title: 'Range from the 2nd to the 98th percentile of this level' }, 'Auto range');
+    auto.addEventListener('click', () => choose(difference ? { diffRange: null } : { fieldRange: null }));
+    toolbar.append(h('span', { class: 'toolbar-label' }, 'Colour range'), minIn, h('span', { class: 'toolbar-sep' }, 'to'), maxIn, auto);
+    const hint = h('span', { class: 'toolbar-hint' }, 'Move over the map to probe; click to pin.');
+    toolbar.append(hint);
+
+    const drawProbe = (): void => {
+      if (!fig || !probeMark) return;
+      probeMark.replaceChildren();
+      const p = state.probe;
+      if (!p) return;
+      const q = projectionOf(state.sel.projection).forward(p.lon, p.lat);
+      if (!q) return;
+      const [x, y] = fig.toFigure(q[0], q[1]);
+      const col = p.pinned ? '#c0392b' : '#111111';
+      probeMark.append(
+        s('circle', { cx: x, cy: y, r: 6, fill: 'none', stroke: '#ffffff', 'stroke-width': 3 }),
+        s('circle', { cx: x, cy: y, r: 6, fill: 'none', stroke: col, 'stroke-width': 1.5 }),
+        s('line', { x1: x - 10, x2: x - 6, y1: y, y2: y, stroke: col, 'stroke-width': 1.5 }),
+        s('line', { x1: x + 6, x2: x + 10, y1: y, y2: y, stroke: col, 'stroke-width': 1.5 }),
+      );
+    };
+
+    const onPointer = (ev: MouseEvent, click: boolean): void => {
+      if (!canvas || !fig) return;
+      if (!click && state.probe?.pinned) return;
+      const r = canvas.getBoundingClientRect();
+      const proj = projectionOf(state.sel.projection);
+      const [x, y] = pixelToProjected(proj, r.width, r.height, ev.clientX - r.left - 0.5, ev.clientY - r.top - 0.5);
+      const ll = proj.inverse(x, y);
+      if (!ll) return;
+      const pinned = click ? !state.probe?.pinned : false;
+      setProbe({ lon: ll[0], lat: ll[1], pinned });
+    };
+
+    const draw = async (st: AppState, changed: Set<string>): Promise<void> => {
+      const session = st.session;
+      if (!session || !st.sel.variable || !st.sel.run) {
+        note(stage, 'Open a recipe to see its fields.');
+        return;
+      }
+      for (const b of fieldButtons) b.setAttribute('aria-pressed', String(b.dataset.field === st.sel.mapField));
+      const my = ++token;
+      const needData = !data || changed.has('session') || changed.has('variable') || changed.has('run') || changed.has('layer') || data.variable !== st.sel.variable || data.run !== st.sel.run || data.layer.id !== st.sel.layer;
+      if (needData) {
+        if (!fig) note(stage, 'Loading the field…', 'busy');
+        try {
+          const d = await getLevel(session.session, st.sel.variable, st.sel.run, st.sel.layer);
+          if (my !== token) return;
+          data = d;
+        } catch (e) {
+          if (my !== token) return;
+          fig = null;
+          figKey = '';
+          note(stage, errorText(e), 'error');
+          return;
+        }
+      }
+      if (!data) return;
+      const choice = mapChoice(st, data, difference);
+      if (!choice) {
+        fig = null;
+        figKey = '';
+        note(stage, `There are no values of ${data.variable} on ${data.layer.label}.`);
+        return;
+      }
+      minIn.value = String(Number(choice.min.toPrecision(4)));
+      maxIn.value = String(Number(choice.max.toPrecision(4)));
+
+      const proj = projectionOf(st.sel.projection);
+      const width = Math.max(360, Math.floor(stage.clientWidth || el.clientWidth || 900));
+      const maxHeight = Math.max(260, Math.floor(stage.clientHeight || 600));
+      const coast = await coastlines(proj.info.id).catch(() => [] as Float64Array[]);
+      if (my !== token) return;
+      const key = JSON.stringify([proj.info.id, width, maxHeight, choice.min, choice.max, choice.units, choice.title, choice.subtitle, choice.caption, coast.length]);
+      if (key !== figKey) {
+        fig = mapFigure({ width, maxHeight, projection: proj, title: choice.title, subtitle: choice.subtitle, scale: choice.diverging ? DIVERGING : SEQUENTIAL, min: choice.min, max: choice.max, units: choice.units, caption: choice.caption, coast });
+        figKey = key;
+        const dpr = Math.min(2, window.devicePixelRatio || 1);
+        const cw = Math.round(fig.plot.w * dpr);
+        const ch = canvasHeightFor(proj, cw);
+        if (!canvas || canvas.width !== cw || canvas.height !== ch) {
+          canvas = h('canvas', { class: 'map-canvas', width: cw, height: ch, 'aria-label': 'Map raster; move the pointer to probe values' });
+          canvas.addEventListener('mousemove', (ev) => onPointer(ev, false));
+          canvas.addEventListener('click', (ev) => onPointer(ev, true));
+        }
+        canvas.style.left = `${fig.plot.x}px`;
+        canvas.style.top = `${fig.plot.y}px`;
+        canvas.style.width = `${fig.plot.w}px`;
+        canvas.style.height = `${fig.plot.h}px`;
+        canvas.dataset.projection = proj.info.id;
+        probeMark = s('g', { class: 'probe-mark', 'pointer-events': 'none' });
+        fig.overlay.append(probeMark);
+        // the SVG lies above the canvas but lets the pointer through to it
+        fig.svg.style.pointerEvents = 'none';
+        const wrap = h('div', { class: 'figure-wrap', style: `width:${width}px;height:${fig.svg.getAttribute('height')}px` }, canvas, fig.svg);
+        stage.replaceChildren(wrap);
+      }
+      if (!canvas) return;
+      const lut = lookupFor(proj, session.grid, canvas.width, canvas.height);
+      performance.mark('map-recolour-start');
+      paint(canvas, lut, choice);
+      performance.mark('map-recolour-end');
+      performance.measure('map-recolour', 'map-recolour-start', 'map-recolour-end');
+      if (!firstDrawMarked) {
+        firstDrawMarked = true;
+        performance.mark('map-first-draw');
+      }
+      stage.dataset.drawn = `${data.variable}|${data.run}|${data.layer.id}|${st.sel.projection}|${difference ? 'diff' : st.sel.mapField}`;
+      drawProbe();
+    };
+
+    return {
+      update(st, changed) {
+        if (changed.size === 1 && changed.has('probe')) {
+          drawProbe();
+          return;
+        }
+        void draw(st, changed);
+      },
+      async figure() {
+        if (!data || !state.session) return null;
+        const choice = mapChoice(state, data, difference);
+        if (!choice) return null;
+        const proj = projectionOf(state.sel.projection);
+        const coast = await coastlines(proj.info.id).catch(() => [] as Float64Array[]);
+        const f = mapFigure({ width: EXPORT_WIDTH, projection: proj, title: choice.title, subtitle: choice.subtitle, scale: choice.diverging ? DIVERGING : SEQUENTIAL, min: choice.min, max: choice.max, units: choice.units, caption: choice.caption, coast });
+        // the raster at print resolution: 300 dpi over the plot's width (1 unit = 0.25 mm)
+        const cw = Math.round((f.plot.w * 0.25 * 300) / 25.4);
+        const ch = canvasHeightFor(proj, cw);
+        const c = h('canvas', { width: cw, height: ch });
+        paint(c, buildPixelLookup(proj, state.session.grid.lonEdges, state.session.grid.latEdges, cw, ch), choice);
+        const raster = f.svg.querySelector('g.raster');
+        raster?.append(s('image', { x: f.plot.x, y: f.plot.y, width: f.plot.w, height: f.plot.h, preserveAspectRatio: 'none', href: c.toDataURL('image/png') }));
+        return f.svg;
+      },
+      fileBase() {
+        const sel = state.sel;
+        return `stillwater-${difference ? 'difference' : sel.mapField === 'model' ? 'map' : 'reference'}-${sel.variable}-${difference || sel.mapField === 'model' ? sel.run : 'ref'}-${sel.layer}-${sel.projection}`.replace(/[^A-Za-z0-9._-]+/g, '_');
+      },
+      dispose() {
+        token++;
+      },
+    };
+  };
+}
