@@ -1,0 +1,67 @@
+import { EARTH_RADIUS_M, type HorizontalGrid } from '../grid/types.js';
+import { ascendingEdges, cellRange } from './axis-order.js';
+import { TripletBuilder, type SparseWeights } from './csr.js';
+import { PolyBuffer, bbox, clipSlab, polygonArea } from './polygon-clip.js';
+import { cellToFrame } from './sphere-polygon.js';
+
+const RAD = Math.PI / 180;
+
+/**
+ * First-order conservative weights from a grid of quadrilaterals (curvilinear, corners given) onto
+ * a lat-lon grid. Each source cell is drawn once into the cylindrical equal-area frame
+ * (sphere-polygon.ts), cut into the target's latitude bands, then into its longitude columns; the
+ * target rows and columns a cell can touch come from its bounding box by binary search, so the cost
+ * is proportional to the number of overlaps.
+ */
+export function conservativeCurvilinear(source: HorizontalGrid, target: HorizontalGrid, radius = EARTH_RADIUS_M): SparseWeights {
+  const ta = target.axes!;
+  const tLon = ascendingEdges(ta.lonEdges);
+  const tLat = ascendingEdges(ta.latEdges);
+  const ySin = new Float64Array(tLat.edges.length);
+  for (let j = 0; j < ySin.length; j++) ySin[j] = Math.sin(tLat.edges[j] * RAD);
+  const x0 = tLon.edges[0], x1 = tLon.edges[tLon.edges.length - 1];
+  const tnx = target.nx;
+  const nSrc = source.nx * source.ny;
+  const b = new TripletBuilder(nSrc * 8);
+  const poly = new PolyBuffer(64), strip = new PolyBuffer(64), piece = new PolyBuffer(64);
+  const cLon = new Float64Array(4), cLat = new Float64Array(4);
+  const scale = RAD * radius * radius;
+  for (let s = 0; s < nSrc; s++) {
+    for (let c = 0; c < 4; c++) {
+      cLon[c] = source.cornerLon[4 * s + c];
+      cLat[c] = source.cornerLat[4 * s + c];
+    }
+    if (!cellToFrame(cLon, cLat, poly)) continue;
+    const [px0, px1, py0, py1] = bbox(poly);
+    const [r0, r1] = cellRange(ySin, py0, py1);
+    if (r0 >= r1) continue;
+    const kmin = Math.ceil((x0 - px1) / 360), kmax = Math.floor((x1 - px0) / 360);
+    for (let r = r0; r < r1; r++) {
+      clipSlab(poly, strip, 1, ySin[r], ySin[r + 1]);
+      if (strip.n < 3) continue;
+      const row0 = tLat.index[r] * tnx;
+      const [sx0, sx1] = bbox(strip);
+      for (let k = kmin; k <= kmax; k++) {
+        const [c0, c1] = cellRange(tLon.edges, sx0 + 360 * k, sx1 + 360 * k);
+        for (let col = c0; col < c1; col++) {
+          clipSlab(strip, piece, 0, tLon.edges[col] - 360 * k, tLon.edges[col + 1] - 360 * k);
+          const a = Math.abs(polygonArea(piece)) * scale;
+          if (a > 0) b.push(row0 + tLon.index[col], s, a);
+        }
+      }
+    }
+  }
+  return b.toCsr('conservative', target.nx * target.ny, nSrc);
+}
+
+/** Area of each source quadrilateral (great-circle edges) as the frame computes it, m². */
+export function frameCellAreas(grid: HorizontalGrid, radius = EARTH_RADIUS_M): Float64Array {
+  const n = grid.nx * grid.ny;
+  const out = new Float64Array(n);
+  const poly = new PolyBuffer(64);
+  for (let s = 0; s < n; s++) {
+    const ok = cellToFrame(grid.cornerLon.subarray(4 * s, 4 * s + 4), grid.cornerLat.subarray(4 * s, 4 * s + 4), poly);
+    out[s] = ok ? Math.abs(polygonArea(poly)) * RAD * radius * radius : NaN;
+  }
+  return out;
+}

@@ -1,0 +1,98 @@
+import { EARTH_RADIUS_M, type HorizontalGrid } from '../grid/types.js';
+import { ascendingEdges, cellRange } from './axis-order.js';
+import { TripletBuilder, type SparseWeights } from './csr.js';
+import { lonOverlap } from './overlap1d.js';
+
+const RAD = Math.PI / 180;
+
+interface AxisOverlap {
+  /** per target cell (original index): source cells (original index) and overlap measure */
+  start: Int32Array;
+  src: Int32Array;
+  len: Float64Array;
+}
+
+/**
+ * Exact first-order conservative weights between two lat-lon grids (Jones 1999): the overlap of two
+ * cells is R² × (longitude overlap in radians, periodic) × (overlap in sin latitude).
+ */
+export function conservativeRectilinear(source: HorizontalGrid, target: HorizontalGrid, radius = EARTH_RADIUS_M): SparseWeights {
+  const sa = source.axes!, ta = target.axes!;
+  const lon = lonOverlaps(sa.lonEdges, ta.lonEdges);
+  const lat = latOverlaps(sa.latEdges, ta.latEdges);
+  const snx = source.nx, tnx = target.nx, tny = target.ny;
+  const b = new TripletBuilder(tnx * tny * 4);
+  const r2 = radius * radius;
+  for (let j = 0; j < tny; j++) {
+    for (let i = 0; i < tnx; i++) {
+      const row = j * tnx + i;
+      for (let p = lat.start[j]; p < lat.start[j + 1]; p++) {
+        const base = lat.src[p] * snx;
+        const ds = lat.len[p] * r2;
+        for (let q = lon.start[i]; q < lon.start[i + 1]; q++) b.push(row, base + lon.src[q], ds * lon.len[q]);
+      }
+    }
+  }
+  return b.toCsr('conservative', tnx * tny, snx * source.ny);
+}
+
+function lonOverlaps(srcEdges: Float64Array, tgtEdges: Float64Array): AxisOverlap {
+  const s = ascendingEdges(srcEdges), t = ascendingEdges(tgtEdges);
+  const nt = tgtEdges.length - 1;
+  const lists: { src: number; len: number }[][] = Array.from({ length: nt }, () => []);
+  const ns = s.edges.length - 1;
+  const seen = new Int32Array(ns).fill(-1);
+  for (let c = 0; c < nt; c++) {
+    const a = t.edges[c], bb = t.edges[c + 1];
+    const out = lists[t.index[c]];
+    for (let k = -2; k <= 2; k++) {
+      const [c0, c1] = cellRange(s.edges, a + 360 * k, bb + 360 * k);
+      for (let sc = c0; sc < c1; sc++) {
+        if (seen[sc] === c) continue;
+        seen[sc] = c;
+        const len = lonOverlap(s.edges[sc], s.edges[sc + 1], a, bb) * RAD;
+        if (len > 0) out.push({ src: s.index[sc], len });
+      }
+    }
+    out.sort((x, y) => x.src - y.src);
+  }
+  return pack(lists);
+}
+
+function latOverlaps(srcEdges: Float64Array, tgtEdges: Float64Array): AxisOverlap {
+  const s = ascendingEdges(srcEdges), t = ascendingEdges(tgtEdges);
+  const nt = tgtEdges.length - 1;
+  const lists: { src: number; len: number }[][] = Array.from({ length: nt }, () => []);
+  for (let c = 0; c < nt; c++) {
+    const a = t.edges[c], bb = t.edges[c + 1];
+    const [c0, c1] = cellRange(s.edges, a, bb);
+    const out = lists[t.index[c]];
+    for (let sc = c0; sc < c1; sc++) {
+      const lo = Math.max(a, s.edges[sc]), hi = Math.min(bb, s.edges[sc + 1]);
+      if (!(hi > lo)) continue;
+      // overlap in sin(latitude); the difference form keeps precision for thin overlaps
+      const len = sinDiff(lo, hi);
+      if (len > 0) out.push({ src: s.index[sc], len });
+    }
+    out.sort((x, y) => x.src - y.src);
+  }
+  return pack(lists);
+}
+
+/** sin(b) − sin(a) = 2 cos((a+b)/2) sin((b−a)/2), accurate when a and b are close. */
+export function sinDiff(aDeg: number, bDeg: number): number {
+  return 2 * Math.cos(0.5 * (aDeg + bDeg) * RAD) * Math.sin(0.5 * (bDeg - aDeg) * RAD);
+}
+
+function pack(lists: { src: number; len: number }[][]): AxisOverlap {
+  const start = new Int32Array(lists.length + 1);
+  for (let c = 0; c < lists.length; c++) start[c + 1] = start[c] + lists[c].length;
+  const src = new Int32Array(start[lists.length]);
+  const len = new Float64Array(start[lists.length]);
+  let p = 0;
+  for (const l of lists) for (const e of l) {
+    src[p] = e.src;
+    len[p++] = e.len;
+  }
+  return { start, src, len };
+}

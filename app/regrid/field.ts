@@ -1,0 +1,178 @@
+import type { FieldSource } from '../cf/field.js';
+import { StillwaterError } from '../errors.js';
+import type { Grid, HorizontalGrid } from '../grid/types.js';
+import { applyFirstValid, applySums, rowSums, type RemapMethod, type SparseWeights } from './csr.js';
+import { identityWeights, layerOverlapWeights, linearDepthWeights, type VerticalWeights } from './vertical-weights.js';
+import { defaultCacheDir } from './weight-cache.js';
+import { remapWeights } from './weights.js';
+
+export interface RegridOptions {
+  method?: RemapMethod;
+  /** minimum covered fraction of a target cell (0..1); below it the target is NaN. Default 0.5 */
+  coverage?: number;
+  /** false keeps Σw·v / (target area × thickness) instead of Σw·v / Σ valid w. Default true */
+  normalise?: boolean;
+  /** folder of the weight cache; null keeps weights in memory only. Default: the user's cache folder */
+  cacheDir?: string | null;
+  /** 'overlap' (thickness-weighted, default) or 'linear' interpolation between level centres */
+  vertical?: 'overlap' | 'linear';
+}
+
+export interface RegriddedField extends FieldSource {
+  method: RemapMethod;
+  verticalMethod: 'overlap' | 'linear' | 'none';
+  weights: SparseWeights;
+  weightOrigin: 'memory' | 'disk' | 'built';
+  /** covered fraction (0..1) of each target cell in the most recently read level k */
+  coverage(k: number): Float32Array;
+  readLevelWithCoverage(t: number, k: number): Promise<{ values: Float32Array; coverage: Float32Array }>;
+  /** source values read so far, and how many of them were valid */
+  stats: { sourceValues: number; sourceValid: number };
+}
+
+/**
+ * A field on another grid, computed lazily level by level: per target level, only the overlapping
+ * source levels are read, combined with the vertical weights into Σh·v and Σh (valid) per source
+ * column, then remapped with the horizontal sparse weights (separable). Missing source values take
+ * no part; the covered fraction of each target cell is kept and below `coverage` the target is NaN.
+ */
+export async function regridField(src: FieldSource, target: Grid, opts: RegridOptions = {}): Promise<RegriddedField> {
+  const method = opts.method ?? 'conservative';
+  const threshold = opts.coverage ?? 0.5;
+  if (!(threshold >= 0 && threshold <= 1)) throw new StillwaterError('E_INPUT', `The coverage threshold must lie between 0 and 1, got ${threshold}.`);
+  const normalise = opts.normalise ?? true;
+  const where = `${src.file}, variable '${src.variable}'`;
+  const subject = { file: src.file, variable: src.variable };
+  const sh = src.grid.horizontal, th = target.horizontal;
+  if (method === 'conservative') {
+    checkBounds(th, 'The target grid has no usable cell bounds');
+    checkBounds(sh, `${where}: the source grid has no usable cell bounds`);
+  }
+  const cacheDir = opts.cacheDir === undefined ? defaultCacheDir() : opts.cacheDir;
+  const { weights, origin } = remapWeights(sh, th, method, { cacheDir });
+  if (weights.col.length === 0) throw new StillwaterError('E_GRID', `${where}: its grid and the target grid do not overlap.`, subject);
+
+  const sv = src.grid.vertical, tv = target.vertical;
+  let vw: VerticalWeights;
+  let verticalMethod: RegriddedField['verticalMethod'] = 'none';
+  let outVertical = sv;
+  if (sv && tv) {
+    verticalMethod = opts.vertical ?? 'overlap';
+    vw = verticalMethod === 'linear' ? linearDepthWeights(sv, tv) : layerOverlapWeights(sv, tv);
+    if (vw.src.length === 0) throw new StillwaterError('E_GRID', `${where}: its depth range and the target depth range do not overlap.`, subject);
+    outVertical = tv;
+  } else {
+    vw = identityWeights(sv ? sv.nz : 1);
+  }
+
+  const nSrc = sh.nx * sh.ny, nTgt = th.nx * th.ny;
+  const rowRef = method === 'conservative' ? th.area : rowSums(weights);
+  const n = new Float64Array(nSrc), d = new Float64Array(nSrc);
+  const num = new Float64Array(nTgt), den = new Float64Array(nTgt);
+  const stats = { sourceValues: 0, sourceValid: 0 };
+  const levels = new LevelCache(src, 4, stats);
+  const lastCoverage = new Map<number, Float32Array>();
+
+  async function readLevelWithCoverage(t: number, k: number): Promise<{ values: Float32Array; coverage: Float32Array }> {
+    if (!(k >= 0 && k < vw.nz)) throw new StillwaterError('E_INPUT', `${where}: level ${k} is outside the target's ${vw.nz} levels.`, subject);
+    n.fill(0);
+    d.fill(0);
+    for (let p = vw.start[k]; p < vw.start[k + 1]; p++) {
+      const level = await levels.get(t, vw.src[p]);
+      const h = vw.h[p];
+      for (let s = 0; s < nSrc; s++) {
+        const v = level[s];
+        if (v === v) {
+          n[s] += h * v;
+          d[s] += h;
+        }
+      }
+    }
+    if (method === 'nearest') applyFirstValid(weights, n, d, num, den);
+    else applySums(weights, n, d, num, den);
+    const values = new Float32Array(nTgt);
+    const coverage = new Float32Array(nTgt);
+    const ref = vw.ref[k];
+    for (let r = 0; r < nTgt; r++) {
+      const full = rowRef[r] * ref;
+      const b = den[r];
+      const c = full > 0 ? Math.min(1, b / full) : 0;
+      coverage[r] = c;
+      if (b > 0 && c >= threshold - 1e-12) values[r] = normalise || method === 'nearest' ? num[r] / b : num[r] / full;
+      else values[r] = NaN;
+    }
+    lastCoverage.delete(k);
+    lastCoverage.set(k, coverage);
+    if (lastCoverage.size > 4) lastCoverage.delete(lastCoverage.keys().next().value as number);
+    return { values, coverage };
+  }
+
+  return {
+    file: src.file,
+    variable: src.variable,
+    units: src.units,
+    standardName: src.standardName,
+    longName: src.longName,
+    grid: { horizontal: th, vertical: outVertical },
+    nt: src.nt,
+    time: src.time,
+    method,
+    verticalMethod,
+    weights,
+    weightOrigin: origin,
+    stats,
+    async readLevel(t: number, k: number): Promise<Float32Array> {
+      return (await readLevelWithCoverage(t, k)).values;
+    },
+    readLevelWithCoverage,
+    coverage(k: number): Float32Array {
+      const c = lastCoverage.get(k);
+      if (!c) throw new StillwaterError('E_INTERNAL', `coverage of level ${k} is asked for before that level was read.`);
+      return c;
+    },
+  };
+}
+
+function checkBounds(g: HorizontalGrid, sentence: string): void {
+  const n = g.nx * g.ny;
+  let bad = 0;
+  for (let c = 0; c < n; c++) {
+    if (!(g.area[c] > 0)) bad++;
+    else {
+      for (let q = 4 * c; q < 4 * c + 4; q++) {
+        if (!Number.isFinite(g.cornerLon[q]) || !Number.isFinite(g.cornerLat[q])) {
+          bad++;
+          break;
+        }
+      }
+    }
+  }
+  if (bad === n || n === 0) throw new StillwaterError('E_GRID', `${sentence} (no cell has finite corners and a positive area).`);
+}
+
+/** The few most recent source levels, so neighbouring target levels do not read a source level twice. */
+class LevelCache {
+  private readonly map = new Map<string, Float32Array>();
+  constructor(
+    private readonly src: FieldSource,
+    private readonly size: number,
+    private readonly stats: { sourceValues: number; sourceValid: number },
+  ) {}
+  async get(t: number, k: number): Promise<Float32Array> {
+    const key = `${t}:${k}`;
+    const hit = this.map.get(key);
+    if (hit) {
+      this.map.delete(key);
+      this.map.set(key, hit);
+      return hit;
+    }
+    const level = await this.src.readLevel(t, k);
+    let valid = 0;
+    for (let i = 0; i < level.length; i++) if (level[i] === level[i]) valid++;
+    this.stats.sourceValues += level.length;
+    this.stats.sourceValid += valid;
+    this.map.set(key, level);
+    if (this.map.size > this.size) this.map.delete(this.map.keys().next().value as string);
+    return level;
+  }
+}
