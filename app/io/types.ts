@@ -40,6 +40,8 @@ export interface RawVariable {
   shape: number[];
   dtype: DType;
   attrs: Attributes;
+  /** What a person should know about how this variable was read (e.g. dimensions without names). */
+  note?: string;
 }
 
 export interface RawDataset {
@@ -48,6 +50,8 @@ export interface RawDataset {
   readonly dimensions: RawDimension[];
   readonly attrs: Attributes;
   readonly variables: RawVariable[];
+  /** What a person should know about what was (not) read, e.g. groups other than the root group. */
+  readonly notes?: string[];
   /**
    * Read a hyperslab in the variable's own dtype, C order (last dimension fastest).
    * start/count default to the whole variable. char variables come back as Uint8Array.

@@ -87,6 +87,22 @@ describe('openDataset on bad input', () => {
     expect(err.message).toMatch(/damaged/);
   });
 
+  it('a NetCDF-4 file cut in half: E_FORMAT', async () => {
+    const whole = readFileSync(fixture('python_nc4.nc'));
+    const err = await failure(write('cut-nc4.nc', whole.subarray(0, whole.length >> 1)));
+    expect(err.code).toBe('E_FORMAT');
+  });
+
+  it('the HDF5 signature followed by random bytes: E_FORMAT, damaged', async () => {
+    const bytes = new Uint8Array(2048);
+    let x = 777;
+    for (let i = 0; i < bytes.length; i++) bytes[i] = (x = (x * 1103515245 + 12345) >>> 0) >>> 24;
+    bytes.set([0x89, 0x48, 0x44, 0x46, 0x0d, 0x0a, 0x1a, 0x0a]);
+    const err = await failure(write('fake.h5', bytes));
+    expect(err.code).toBe('E_FORMAT');
+    expect(err.message).toMatch(/damaged/);
+  });
+
   it('inputs are never modified', async () => {
     const before = readFileSync(fixture('classic_cdf1.nc'));
     const ds = await openDataset(fixture('classic_cdf1.nc'));
