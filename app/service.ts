@@ -6,8 +6,9 @@
 import type { ServiceEntry } from './services/types.js';
 import { filesServices } from './services/files.js';
 import { viewsServices } from './services/views.js';
+import { linesServices } from './services/lines.js';
 
-export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices];
+export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...linesServices];
 
 export function findService(name: string): ServiceEntry | undefined {
   return serviceTable.find((e) => e.name === name);

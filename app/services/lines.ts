@@ -1,0 +1,192 @@
+/**
+ * Lines and stations for the workbench: a transect through waypoints (clicked on the map or typed),
+ * a meridian or parallel section, with the column means along it; stations read from a CSV; stations
+ * compared with the reference and the runs. Every file goes through ctx.resolvePath.
+ */
+import { z } from 'zod';
+import { StillwaterError } from '../errors.js';
+import { runLine, type LineSpec } from '../lines/run-line.js';
+import { parseWaypoints } from '../lines/waypoints.js';
+import { readStations, runPoints, stationProblems } from '../points/run-points.js';
+import { validateRecipe } from '../recipe/index.js';
+import type { Recipe } from '../recipe/types.js';
+import type { SkillNumbers } from '../stats/weighted.js';
+import { entry, type ServiceContext, type ServiceEntry } from './types.js';
+
+const recipeJson = { recipe: z.unknown(), baseDir: z.string().min(1) };
+const lonLat = z.object({ lon: z.number().finite(), lat: z.number().finite() });
+
+const lineInput = z.object({
+  ...recipeJson,
+  variable: z.string().min(1),
+  /** waypoints as a list, or typed as "lon,lat;lon,lat" */
+  line: z.union([
+    z.object({ kind: z.literal('waypoints'), points: z.union([z.array(lonLat), z.string().min(1)]) }),
+    z.object({ kind: z.literal('meridian'), lon: z.number().finite(), lat0: z.number().finite().optional(), lat1: z.number().finite().optional() }),
+    z.object({ kind: z.literal('parallel'), lat: z.number().finite(), lon0: z.number().finite().optional(), lon1: z.number().finite().optional() }),
+  ]),
+  spacingKm: z.number().positive().finite().optional(),
+  depthRange: z.tuple([z.number().finite(), z.number().finite()]).optional(),
+  method: z.enum(['bilinear', 'nearest']).optional(),
+});
+
+const pointsInput = z.object({
+  ...recipeJson,
+  variable: z.string().min(1),
+  stations: z.string().min(1),
+  method: z.enum(['trilinear', 'nearest']).optional(),
+});
+
+/** Every file the recipe names for this variable must lie in the folders the workbench may read. */
+function guardedRecipe(input: { recipe: unknown; baseDir: string }, variable: string, ctx: ServiceContext): Recipe {
+  const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir));
+  const sources = [{ s: recipe.reference, path: 'reference' }, ...recipe.runs.map((s, i) => ({ s, path: `runs[${i}]` }))];
+  for (const { s, path } of sources) {
+    const v = s.variables[variable];
+    if (!v) continue;
+    try {
+      ctx.resolvePath(v.file);
+    } catch (e) {
+      if (e instanceof StillwaterError) throw new StillwaterError(e.code, `${path}.variables.${variable}.file: ${e.message}`, { ...e.subject, path });
+      throw e;
+    }
+  }
+  return recipe;
+}
+
+export interface LineFieldView {
+  label: string;
+  role: 'reference' | 'run' | 'difference';
+  /** level-major [k * n + s] */
+  values: Float32Array;
+  columnMean: Float64Array;
+}
+
+export interface LineData {
+  variable: string;
+  units: string;
+  kind: string;
+  lon: Float64Array;
+  lat: Float64Array;
+  distanceKm: Float64Array;
+  waypoints: { lon: number; lat: number; distanceKm: number }[];
+  depthCentres: Float64Array;
+  depthEdges: Float64Array;
+  seafloorM: Float64Array;
+  depthRange: [number, number];
+  fields: LineFieldView[];
+  skill: ({ label: string } & SkillNumbers)[];
+  notes: string[];
+}
+
+export interface StationsData {
+  file: string;
+  units: string | null;
+  id: string[];
+  lon: Float64Array;
+  lat: Float64Array;
+  depth: Float64Array;
+  seafloor: Uint8Array;
+  value: Float64Array;
+}
+
+export interface PointsData {
+  variable: string;
+  units: string;
+  method: string;
+  spansDecades: boolean;
+  stations: StationsData;
+  sources: { label: string; role: string; model: Float64Array; status: string[]; skill: SkillNumbers; log10: SkillNumbers; counts: Record<string, number> }[];
+  /** one sentence per station some source could not sample */
+  problems: string[];
+  notes: string[];
+}
+
+export const linesServices: ServiceEntry[] = [
+  entry({
+    name: 'line.sample',
+    summary: 'The reference, every run and their differences along a line (waypoints, meridian or parallel), with the seafloor and column means.',
+    input: lineInput,
+    heavy: true,
+    async run(input, ctx): Promise<LineData> {
+      const recipe = guardedRecipe(input, input.variable, ctx);
+      const spec: LineSpec =
+        input.line.kind === 'waypoints'
+          ? { kind: 'waypoints', points: typeof input.line.points === 'string' ? parseWaypoints(input.line.points, 'waypoints') : input.line.points }
+          : input.line;
+      const r = await runLine(recipe, {
+        variable: input.variable,
+        line: spec,
+        spacingKm: input.spacingKm,
+        depthRange: input.depthRange ? { top: input.depthRange[0], bottom: input.depthRange[1] } : undefined,
+        method: input.method,
+        cacheDir: ctx.cacheDir,
+        progress: (f, m) => ctx.progress(f, m),
+      });
+      return {
+        variable: r.variable,
+        units: r.units,
+        kind: r.line.kind,
+        lon: r.line.lon,
+        lat: r.line.lat,
+        distanceKm: r.line.distanceKm,
+        waypoints: r.line.waypoints.map((p, i) => ({ lon: p.lon, lat: p.lat, distanceKm: r.line.waypointKm[i] })),
+        depthCentres: r.depth.centres,
+        depthEdges: r.depth.edges,
+        seafloorM: r.seafloorM,
+        depthRange: [r.range.top, r.range.bottom],
+        fields: [
+          { ...r.reference, role: 'reference' as const },
+          ...r.runs.map((s) => ({ ...s, role: 'run' as const })),
+          ...r.differences.map((s) => ({ ...s, role: 'difference' as const })),
+        ],
+        skill: r.skill,
+        notes: r.notes,
+      };
+    },
+  }),
+  entry({
+    name: 'points.stations',
+    summary: 'Station observations read from a CSV file (positions, depths, values, units), for drawing on the map.',
+    input: z.object({ file: z.string().min(1) }),
+    async run(input, ctx): Promise<StationsData> {
+      const st = await readStations(ctx.resolvePath(input.file));
+      return { file: st.file, units: st.units ?? null, id: st.id, lon: st.lon, lat: st.lat, depth: st.depth, seafloor: st.seafloor, value: st.value };
+    },
+  }),
+  entry({
+    name: 'points.compare',
+    summary: 'The reference and every run sampled at station observations: values, per-station status and statistics (also of log10 values).',
+    input: pointsInput,
+    heavy: true,
+    async run(input, ctx): Promise<PointsData> {
+      const recipe = guardedRecipe(input, input.variable, ctx);
+      const r = await runPoints(recipe, {
+        variable: input.variable,
+        stationsFile: ctx.resolvePath(input.stations),
+        method: input.method,
+        cacheDir: ctx.cacheDir,
+        progress: (f, m) => ctx.progress(f, m),
+      });
+      const st = r.stations;
+      return {
+        variable: r.variable,
+        units: r.units,
+        method: r.method,
+        spansDecades: r.spansDecades,
+        stations: { file: st.file, units: st.units ?? null, id: st.id, lon: st.lon, lat: st.lat, depth: st.depth, seafloor: st.seafloor, value: st.value },
+        sources: r.sources.map((s) => ({
+          label: s.label,
+          role: s.role,
+          model: s.samples.model,
+          status: s.samples.status,
+          skill: s.skill.stats,
+          log10: s.skill.log10,
+          counts: s.skill.counts,
+        })),
+        problems: stationProblems(r),
+        notes: r.notes,
+      };
+    },
+  }),
+];
