@@ -6,6 +6,8 @@ import { readdir, stat } from 'node:fs/promises';
 import { basename, dirname, extname, join } from 'node:path';
 import { z } from 'zod';
 import { StillwaterError } from '../errors.js';
+import { openDataset } from '../io/open.js';
+import { attrString, type AttrValue, type DType } from '../io/types.js';
 import { entry, type ServiceEntry } from './types.js';
 
 /** What kind of thing a file is, by its name; the readers still check the bytes. */
@@ -40,6 +42,28 @@ export interface FolderListing {
   /** the folder above, when it is still allowed; null at a root */
   parent: string | null;
   entries: FolderEntry[];
+}
+
+/** What a file holds, as its header says: for the sources panel and the folder browser. */
+export interface FileDescription {
+  path: string;
+  format: string;
+  size: number;
+  title: string;
+  dimensions: { name: string; size: number; unlimited: boolean }[];
+  variables: {
+    name: string;
+    dims: string[];
+    shape: number[];
+    dtype: DType;
+    units: string;
+    longName: string;
+    standardName: string;
+    /** a coordinate variable (named like its only dimension) or a bounds variable */
+    coordinate: boolean;
+  }[];
+  /** global attributes, long texts cut to 500 characters */
+  attributes: Record<string, AttrValue>;
 }
 
 const listInput = z.object({
@@ -78,6 +102,43 @@ export const filesServices: ServiceEntry[] = [
         if (e) out.push(e);
       }
       return out;
+    },
+  }),
+  entry({
+    name: 'files.describe',
+    summary: "A data file's format, dimensions, variables (with units and names) and global attributes, from its header.",
+    input: z.object({ path: z.string().min(1) }),
+    async run(input, ctx): Promise<FileDescription> {
+      const path = ctx.resolvePath(input.path);
+      const size = (await stat(path).catch(() => {
+        throw new StillwaterError('E_FILE', `${input.path}: no such file.`, { file: input.path });
+      })).size;
+      const ds = await openDataset(path);
+      try {
+        const bounds = new Set(ds.variables.map((v) => attrString(v.attrs, 'bounds')).filter((b): b is string => !!b));
+        const attributes: Record<string, AttrValue> = {};
+        for (const [k, v] of Object.entries(ds.attrs)) attributes[k] = typeof v === 'string' && v.length > 500 ? v.slice(0, 500) + '…' : v;
+        return {
+          path,
+          format: ds.format,
+          size,
+          title: attrString(ds.attrs, 'title') ?? '',
+          dimensions: ds.dimensions.map((d) => ({ name: d.name, size: d.size, unlimited: d.unlimited })),
+          variables: ds.variables.map((v) => ({
+            name: v.name,
+            dims: v.dims,
+            shape: v.shape,
+            dtype: v.dtype,
+            units: attrString(v.attrs, 'units') ?? '',
+            longName: attrString(v.attrs, 'long_name') ?? '',
+            standardName: attrString(v.attrs, 'standard_name') ?? '',
+            coordinate: (v.dims.length === 1 && v.dims[0] === v.name) || bounds.has(v.name),
+          })),
+          attributes,
+        };
+      } finally {
+        await ds.close();
+      }
     },
   }),
   entry({
