@@ -1,0 +1,127 @@
+/**
+ * Kept fields as CF NetCDF (classic 64-bit offset, via app/io/netcdf-writer.ts): for each run × variable the
+ * model on the common grid and the difference model − reference. Files go to a staging folder first and are
+ * moved into place only when the whole comparison has succeeded.
+ */
+import { mkdir, readdir, rename, rm } from 'node:fs/promises';
+import { join } from 'node:path';
+import type { FieldSinkFactory, FieldSinkInfo, LevelSink } from '../compare/field-sink.js';
+import { createNetcdf, type WriteHeader } from '../io/netcdf-writer.js';
+
+const FILL = 9.969209968386869e36; // the NetCDF default fill value for float
+
+export function slug(s: string): string {
+  return s.replace(/[^A-Za-z0-9._-]+/g, '_').replace(/^_+|_+$/g, '') || 'x';
+}
+
+export function fieldsFileName(run: string, variable: string): string {
+  return `fields_${slug(run)}_${slug(variable)}.nc`;
+}
+
+function header(info: FieldSinkInfo): WriteHeader {
+  const h = info.grid.horizontal;
+  const v = info.grid.vertical;
+  const rect = h.kind === 'rectilinear' && h.axes;
+  const yx = rect ? ['lat', 'lon'] : ['y', 'x'];
+  const dims = [
+    ...(v ? [{ name: 'depth', size: v.nz }] : []),
+    { name: yx[0], size: h.ny },
+    { name: yx[1], size: h.nx },
+    { name: 'nv', size: 2 },
+  ];
+  const dataDims = [...(v ? ['depth'] : []), ...yx];
+  const coords = dataDims.length === 3 ? 'depth lat lon' : 'lat lon';
+  const variables: WriteHeader['variables'] = [];
+  if (rect) {
+    variables.push(
+      { name: 'lon', dims: ['lon'], dtype: 'f8', attrs: { standard_name: 'longitude', units: 'degrees_east', axis: 'X', bounds: 'lon_bnds' } },
+      { name: 'lon_bnds', dims: ['lon', 'nv'], dtype: 'f8' },
+      { name: 'lat', dims: ['lat'], dtype: 'f8', attrs: { standard_name: 'latitude', units: 'degrees_north', axis: 'Y', bounds: 'lat_bnds' } },
+      { name: 'lat_bnds', dims: ['lat', 'nv'], dtype: 'f8' },
+    );
+  } else {
+    variables.push(
+      { name: 'lon', dims: ['y', 'x'], dtype: 'f8', attrs: { standard_name: 'longitude', units: 'degrees_east' } },
+      { name: 'lat', dims: ['y', 'x'], dtype: 'f8', attrs: { standard_name: 'latitude', units: 'degrees_north' } },
+    );
+  }
+  if (v) {
+    variables.push(
+      { name: 'depth', dims: ['depth'], dtype: 'f8', attrs: { standard_name: 'depth', units: 'm', positive: 'down', axis: 'Z', bounds: 'depth_bnds' } },
+      { name: 'depth_bnds', dims: ['depth', 'nv'], dtype: 'f8' },
+    );
+  }
+  const name = slug(info.variable);
+  variables.push(
+    { name, dims: dataDims, dtype: 'f4', attrs: { long_name: `${info.variable} of ${info.run} on the common grid`, units: info.units, _FillValue: [FILL], coordinates: rect ? '' : coords } },
+    { name: `${name}_minus_reference`, dims: dataDims, dtype: 'f4', attrs: { long_name: `${info.variable}: ${info.run} minus the reference`, units: info.units, _FillValue: [FILL], coordinates: rect ? '' : coords } },
+  );
+  for (const x of variables) if (x.attrs && x.attrs.coordinates === '') delete x.attrs.coordinates;
+  return { dimensions: dims, attrs: { Conventions: 'CF-1.10', title: `${info.variable}: ${info.run} on the common grid`, source: 'stillwater compare' }, variables };
+}
+
+function bounds(edges: Float64Array): Float64Array {
+  const out = new Float64Array((edges.length - 1) * 2);
+  for (let i = 0; i + 1 < edges.length; i++) {
+    out[2 * i] = edges[i];
+    out[2 * i + 1] = edges[i + 1];
+  }
+  return out;
+}
+
+function filled(a: Float32Array): Float32Array {
+  const out = new Float32Array(a.length);
+  for (let i = 0; i < a.length; i++) out[i] = a[i] - a[i] === 0 ? a[i] : FILL;
+  return out;
+}
+
+/** A staging folder inside `outDir`, a sink factory writing into it, and the final move (or the clean-up). */
+export async function netcdfFieldSinks(outDir: string): Promise<{ factory: FieldSinkFactory; commit(): Promise<string[]>; discard(): Promise<void> }> {
+  const staging = join(outDir, `.stillwater-fields-${process.pid}-${Date.now()}`);
+  await mkdir(staging, { recursive: true });
+  const factory: FieldSinkFactory = async (info) => {
+    const file = join(staging, fieldsFileName(info.run, info.variable));
+    const w = await createNetcdf(file, header(info));
+    const h = info.grid.horizontal;
+    const v = info.grid.vertical;
+    try {
+      if (h.kind === 'rectilinear' && h.axes) {
+        await w.write('lon', h.axes.lon);
+        await w.write('lon_bnds', bounds(h.axes.lonEdges));
+        await w.write('lat', h.axes.lat);
+        await w.write('lat_bnds', bounds(h.axes.latEdges));
+      } else {
+        await w.write('lon', h.lon);
+        await w.write('lat', h.lat);
+      }
+      if (v) {
+        await w.write('depth', v.centres);
+        await w.write('depth_bnds', bounds(v.edges));
+      }
+    } catch (e) {
+      await w.abort();
+      throw e;
+    }
+    const name = slug(info.variable);
+    const sink: LevelSink = {
+      async write(k, model, difference) {
+        const start = v ? [k, 0, 0] : [0, 0];
+        await w.write(name, filled(model), start);
+        await w.write(`${name}_minus_reference`, filled(difference), start);
+      },
+      close: () => w.close(),
+      abort: () => w.abort(),
+    };
+    return sink;
+  };
+  return {
+    factory,
+    async commit() {
+      const names = (await readdir(staging)).filter((f) => f.endsWith('.nc'));
+      for (const f of names) await rename(join(staging, f), join(outDir, f));
+      await rm(staging, { recursive: true, force: true });
+      return names.map((f) => join(outDir, f));
+    },
+    discard: () => rm(staging, { recursive: true, force: true }),
+  };
+}

@@ -1,0 +1,42 @@
+/** skill.md: a readable table per variable, the run costs, and the notes. */
+import type { ComparisonResult } from '../compare/run.js';
+import { fmtCount, fmtNumber, fmtPercent } from './format.js';
+import type { Provenance } from './types.js';
+
+const HEAD = ['run', 'region', 'layer', 'n', 'model mean', 'ref mean', 'bias', 'RMSE', "E'", 'r', 'σm/σr', 'Taylor S', 'NSE', 'compared'];
+
+function esc(s: string): string {
+  return s.replace(/\|/g, '\\|');
+}
+
+export function skillMarkdown(result: ComparisonResult, prov: Provenance, title = 'Skill'): string {
+  const out: string[] = [`# ${esc(title)}`, ''];
+  out.push(`Compared on ${prov.date} by ${prov.tool} ${prov.version}. Bias = model − reference; RMSE and centred RMS difference E' in the variable's units; r weighted Pearson correlation; Taylor S from Taylor (2001) eq. 4 with R0 = 1; NSE after Nash & Sutcliffe (1970); weights are cell volumes (cell areas for the bottom layer and 2-D fields). "—" marks a value that is undefined.`, '');
+  for (const v of result.variables) {
+    const rows = result.rows.filter((r) => r.variable === v.variable);
+    out.push(`## ${esc(v.variable)} (${esc(v.units)})`, '');
+    for (const c of v.conversions) out.push(`- ${esc(c.source)}: ${esc(c.note)}`);
+    if (v.regridded.length) out.push(`- regridded to the common grid (${v.grid.nx} × ${v.grid.ny} × ${v.grid.nz}): ${v.regridded.map(esc).join(', ')}`);
+    if (v.conversions.length || v.regridded.length) out.push('');
+    out.push(`| ${HEAD.join(' | ')} |`, `|${HEAD.map((_, i) => (i < 3 ? ' --- ' : ' ---: ')).join('|')}|`);
+    for (const r of rows) {
+      const cells = [
+        esc(r.run), esc(r.region), esc(r.layer), fmtCount(r.n), fmtNumber(r.model_mean), fmtNumber(r.ref_mean), fmtNumber(r.bias),
+        fmtNumber(r.rmse), fmtNumber(r.crmse), fmtNumber(r.corr, 3), fmtNumber(r.std_ratio, 3), fmtNumber(r.taylor_skill, 3), fmtNumber(r.nse, 3),
+        fmtPercent(r.compared_fraction),
+      ];
+      out.push(`| ${cells.join(' | ')} |`);
+    }
+    const notes = rows.filter((r) => r.note);
+    if (notes.length) {
+      out.push('');
+      for (const r of notes) out.push(`- ${esc(r.run)}, ${esc(r.region)}, ${esc(r.layer)}: ${esc(r.note!)}`);
+    }
+    out.push('');
+  }
+  out.push('## Multi-tracer cost', '', 'Σ over variables of the global, full-depth RMSE divided by the reference\'s global mean (smaller is better).', '');
+  out.push('| run | cost | terms |', '| --- | ---: | --- |');
+  for (const c of result.costs) out.push(`| ${esc(c.run)} | ${fmtNumber(c.cost)} | ${c.terms.map((t) => `${esc(t.variable)} ${fmtNumber(t.term, 3)}`).join(', ')} |`);
+  out.push('');
+  return out.join('\n');
+}
