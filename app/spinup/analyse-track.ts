@@ -9,6 +9,8 @@ import type { DriftRate, FirstOrderFit, TrackVerdict } from './types.js';
 export const DEEP_SETTLING_YEARS = 3000;
 /** A first-order fit has three parameters: it needs one more point than that to say anything. */
 export const MIN_FIT_POINTS = 4;
+/** The fit uses the later half of the snapshots (see fitStart). */
+export const FIT_TAIL_FRACTION = 0.5;
 
 export interface TrackInput {
   years: ArrayLike<number>;
@@ -49,18 +51,23 @@ export function driftRate(input: TrackInput): DriftRate {
   };
 }
 
-/** Fit on the window, with the derived quantities a person asks about. */
-export function describeFit(t: number[], x: number[], lastYear: number, thresholdPerYear: number): FirstOrderFit | null {
+/**
+ * Fit on the window, with the derived quantities a person asks about. The time to settle uses the measured
+ * tail drift and the fitted τ: a first-order drift decays as e^(−t/τ), so from the rate r at the middle of
+ * the tail it falls below the threshold after τ·ln(|r| / threshold). Built on the measured rate, it agrees
+ * with the verdict by construction.
+ */
+export function describeFit(t: number[], x: number[], drift: DriftRate, thresholdPerKyr: number): FirstOrderFit | null {
   const raw = fitFirstOrder(t, x);
   if (!raw) return null;
+  const lastYear = drift.toYear;
   const xLast = firstOrderValue(raw, lastYear);
   const remaining = raw.xInf - xLast;
-  const amplitude = Math.abs(raw.x0 - raw.xInf);
   let yearsToSettle: number | null = null;
   if (raw.constrained) {
-    // fitted drift |dx/dt| = |x0 − x∞|/τ · e^(−(t − t0)/τ) falls below the threshold at this time
-    const settleAt = amplitude > 0 && thresholdPerYear > 0 ? raw.t0 + raw.tau * Math.log(amplitude / (thresholdPerYear * raw.tau)) : -Infinity;
-    yearsToSettle = Math.max(0, settleAt - lastYear);
+    const rate = Math.abs(drift.perKyr);
+    const middle = 0.5 * (drift.fromYear + drift.toYear);
+    yearsToSettle = rate <= thresholdPerKyr ? 0 : Math.max(0, middle + raw.tau * Math.log(rate / thresholdPerKyr) - lastYear);
   }
   return {
     t0: raw.t0,
@@ -77,6 +84,18 @@ export function describeFit(t: number[], x: number[], lastYear: number, threshol
     constrained: raw.constrained,
     extrapolated: raw.tau > t[t.length - 1] - t[0],
   };
+}
+
+/**
+ * Where the fit starts: after the last turning point, and within what follows, the later half of the
+ * snapshots (at least MIN_FIT_POINTS). Early snapshots carry fast upper-ocean adjustments; the slowest
+ * adjustment, which decides how long the run still needs, dominates the later half.
+ */
+export function fitStart(n: number, lastTurn: number | null): number {
+  const from = lastTurn ?? 0;
+  const available = n - from;
+  const take = Math.max(MIN_FIT_POINTS, Math.ceil(available * FIT_TAIL_FRACTION));
+  return available <= take ? from : n - take;
 }
 
 export function analyseTrack(input: TrackInput): TrackAnalysis {
@@ -97,25 +116,29 @@ export function analyseTrack(input: TrackInput): TrackAnalysis {
   const drift = driftRate(input);
   const turns = turningPoints(x);
   const turningYears = turns.map((i) => t[i]);
-  const fitStart = turns.length ? turns[turns.length - 1] : 0;
-  const tw = t.slice(fitStart);
-  const xw = x.slice(fitStart);
+  const lastTurn = turns.length ? turns[turns.length - 1] : null;
+  const start = fitStart(n, lastTurn);
+  const tw = t.slice(start);
+  const xw = x.slice(start);
   // the threshold is relative to the same mean as the drift rate: the tail's
-  const thresholdPerYear = ((input.thresholdPercentPerKyr / 100) * Math.abs(drift.windowMean)) / 1000;
+  const thresholdPerKyr = (input.thresholdPercentPerKyr / 100) * Math.abs(drift.windowMean);
   const range = Math.max(...x) - Math.min(...x);
   let fit: FirstOrderFit | null = null;
   let fitNote: string;
   if (range === 0) {
     fitNote = 'no fit: the track does not change';
   } else if (tw.length < MIN_FIT_POINTS) {
-    fitNote = turns.length
-      ? `no fit: only ${tw.length} snapshots follow the last turning point (model year ${yrs(t[fitStart])}); a first-order fit needs ${MIN_FIT_POINTS}`
+    fitNote = lastTurn !== null
+      ? `no fit: only ${tw.length} snapshots follow the last turning point (model year ${yrs(t[lastTurn])}); a first-order fit needs ${MIN_FIT_POINTS}`
       : `no fit: ${tw.length} snapshots; a first-order fit needs ${MIN_FIT_POINTS}`;
   } else {
-    fit = describeFit(tw, xw, lastYear, thresholdPerYear);
-    fitNote = turns.length
-      ? `fit on the ${tw.length} snapshots after the last turning point (model year ${yrs(t[fitStart])}), because the track overshoots and turns back`
-      : `fit on all ${tw.length} snapshots`;
+    fit = describeFit(tw, xw, drift, thresholdPerKyr);
+    const span = `model years ${yrs(tw[0])}–${yrs(lastYear)}`;
+    fitNote = lastTurn !== null
+      ? `fit on the ${tw.length} snapshots of ${span}, after the last turning point (model year ${yrs(t[lastTurn])}), because the track overshoots and turns back`
+      : tw.length === n
+        ? `fit on all ${n} snapshots (${span})`
+        : `fit on the later ${tw.length} of ${n} snapshots (${span}), where the slowest adjustment dominates`;
   }
   const deepCaution = input.deep && lastYear < DEEP_SETTLING_YEARS;
   return { drift, fit, fitNote, turningYears, monotonic: turns.length === 0, verdict: verdictFor(input, drift, fit, turningYears, deepCaution, lastYear) };

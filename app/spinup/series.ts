@@ -115,8 +115,15 @@ export async function seriesSums(input: SeriesInput): Promise<SeriesSums> {
     const h = await open(s.file);
     try {
       for (let j = 0; j < tracers.length; j++) {
-        const f = await openField(h, s, tracers[j], infos[j]?.spec.units ?? tracers[j].units);
-        if (!infos[j]) infos[j] = { spec: { ...tracers[j], units: tracers[j].units ?? f.units.text }, field: { units: f.units, grid: f.grid } };
+        const f = await openField(h, s, tracers[j], tracers[j].units);
+        if (!infos[j]) infos[j] = { spec: tracers[j], field: { units: f.units, grid: f.grid } };
+        else if (f.units.canonical !== infos[j].field.units.canonical || f.units.factor !== infos[j].field.units.factor) {
+          throw new StillwaterError('E_UNITS', `${s.file}: variable '${tracers[j].variable}' of the snapshot at model year ${s.year} is in '${f.units.text}' but in '${infos[j].field.units.text}' in ${firstFile}; all snapshots of a run must use the same units.`, {
+            file: s.file,
+            variable: tracers[j].variable,
+            path: s.origin,
+          });
+        }
         if (!grid) {
           grid = f.grid;
           firstFile = s.file;

@@ -1,3 +1,4 @@
+import type { SkillRow } from '../compare/rows.js';
 import type { LayerSpec } from '../regions/layers.js';
 
 /**
@@ -154,22 +155,11 @@ export interface SpinupTrack {
   verdict: TrackVerdict;
 }
 
-/** The compare statistics of one snapshot against the reference. */
-export interface SkillPoint {
-  year: number;
-  tracer: string;
-  region: string;
-  layer: string;
-  units: string;
-  n: number;
-  bias: number;
-  rmse: number;
-  crmse: number;
-  corr: number;
-  std_ratio: number;
-  model_mean: number;
-  ref_mean: number;
-}
+/**
+ * The compare statistics of one snapshot against the reference: a skill row of the compare helper
+ * (app/compare/rows.ts; null where undefined) with the snapshot's model year. `run` is the spun-up run's label.
+ */
+export type SkillPoint = SkillRow & { year: number };
 
 /** What 'spinup.run' returns and spinup.json holds. */
 export interface SpinupResult {

@@ -39,19 +39,20 @@ describe('drift rate and verdict', () => {
     expect(late.verdict.status).toBe('settled');
   });
 
-  it('predicts when the drift falls below the threshold from the fit (noise-free first-order series)', () => {
-    const t = years(16, 100);
+  it('predicts when the drift falls below the threshold: analytic time for a first-order series', () => {
+    // dense snapshots: the tail slope is the derivative to (h/τ)²/6 ≈ 0.2 %
+    const t = years(31, 50);
     const x = firstOrderSeries(t, 1, 2, 800);
     const a = analyseTrack({ ...base, years: t, mean: x, inventory: x });
     expect(a.verdict.status).toBe('drifting');
     const f = a.fit!;
-    // fitted drift (x∞ − x)/τ equals the threshold (0.1 % of the tail's mean per 1000 years) at the predicted year
-    const meanAll = a.drift!.windowMean;
-    expect(meanAll).toBeCloseTo((x[13] + x[14] + x[15]) / 3, 12);
-    const tSettle = 1500 + f.yearsToSettle!;
-    const rate = ((2 - firstOrderSeries([tSettle], 1, 2, 800)[0]) / 800) * 1000;
-    expect(rate / ((0.1 / 100) * meanAll) - 1).toBeCloseTo(0, 5);
-    expect(f.yearsTo90).toBeCloseTo(800 * Math.LN10 - 1500, 4);
+    expect(f.tau / 800 - 1).toBeCloseTo(0, 6);
+    // |dx/dt| = (1/800)·e^(−t/800) per year equals the threshold (0.1 % of the tail mean per 1000 years) at t*
+    const thresholdPerYear = (0.001 * a.drift!.windowMean) / 1000;
+    const tStar = 800 * Math.log(1 / 800 / thresholdPerYear);
+    expect(Math.abs(f.yearsToSettle! - (tStar - 1500))).toBeLessThan(5);
+    // t90 = τ·ln 10 from x0 at t0
+    expect(f.yearsTo90).toBeCloseTo(f.t0 + 800 * Math.LN10 - 1500, 3);
     expect(a.verdict.sentence).toMatch(/Still drifting/);
   });
 

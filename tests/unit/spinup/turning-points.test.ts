@@ -26,7 +26,8 @@ describe('non-monotonic trajectories', () => {
     const a = analyseTrack({ years: t, mean: x, inventory: x, units: 'mmol m-3', deep: false, thresholdPercentPerKyr: 0.1 });
     expect(a.monotonic).toBe(false);
     expect(a.turningYears).toEqual([t[turns[0]]]);
-    expect(a.fit?.t0).toBe(t[turns[0]]);
+    // the fit starts at or after the turning point: what came before it is not part of the last approach
+    expect(a.fit!.t0).toBeGreaterThanOrEqual(t[turns[0]]);
     expect(a.fitNote).toMatch(/after the last turning point/);
     expect(a.verdict.sentence).toMatch(/not monotonic/);
   });

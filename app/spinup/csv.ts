@@ -1,0 +1,41 @@
+import type { SkillPoint, SpinupResult, SpinupTrack } from './types.js';
+
+/** A CSV field: numbers as they are (empty for NaN/null), text quoted when it needs to be (RFC 4180). */
+export function csvField(v: unknown): string {
+  if (v === null || v === undefined) return '';
+  if (typeof v === 'number') return Number.isFinite(v) ? String(v) : '';
+  const s = String(v);
+  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+const yearKey = (y: number): string => String(Math.round(y * 1000) / 1000);
+
+/**
+ * spinup.csv: one row per tracer x region x layer with its drift, fit and verdict, then its series as
+ * columns mean_y<year> and inventory_y<year>: one rectangular table a spreadsheet opens as it is.
+ */
+export function tracksCsv(r: SpinupResult): string {
+  const head = [
+    'run', 'tracer', 'variable', 'region', 'layer', 'units', 'inventory_units', 'volume_m3', 'status', 'deep_caution',
+    'drift_per_kyr', 'drift_percent_per_kyr', 'inventory_drift_per_kyr', 'tail_from_year', 'tail_to_year', 'tail_snapshots',
+    'monotonic', 'turning_years', 'fit_t0', 'fit_x0', 'fit_x_inf', 'fit_tau_years', 'fit_t90_years', 'fit_years_to_90',
+    'fit_years_to_settle', 'fit_remaining_change', 'fit_remaining_percent', 'fit_rmse', 'fit_snapshots', 'fit_constrained', 'fit_note', 'verdict',
+    ...r.years.map((y) => `mean_y${yearKey(y)}`),
+    ...r.years.map((y) => `inventory_y${yearKey(y)}`),
+  ];
+  const row = (t: SpinupTrack): unknown[] => [
+    r.run, t.tracer, t.variable, t.region, t.layer, t.units, t.inventoryUnits, t.volume, t.verdict.status, t.verdict.deepCaution,
+    t.drift?.perKyr, t.drift?.percentPerKyr, t.drift?.inventoryPerKyr, t.drift?.fromYear, t.drift?.toYear, t.drift?.n,
+    t.monotonic, t.turningYears.join(' '), t.fit?.t0, t.fit?.x0, t.fit?.xInf, t.fit?.tau, t.fit?.t90, t.fit?.yearsTo90,
+    t.fit?.yearsToSettle, t.fit?.remainingChange, t.fit?.remainingPercent, t.fit?.rmse, t.fit?.n, t.fit?.constrained, t.fitNote, t.verdict.sentence,
+    ...t.mean,
+    ...t.inventory,
+  ];
+  return [head, ...r.tracks.map(row)].map((cols) => cols.map(csvField).join(',')).join('\n') + '\n';
+}
+
+/** spinup-skill.csv: the skill rows of every snapshot, model year first. */
+export function skillCsv(points: SkillPoint[]): string {
+  const head = ['year', 'run', 'variable', 'region', 'layer', 'units', 'n', 'weight', 'model_mean', 'ref_mean', 'bias', 'rmse', 'crmse', 'corr', 'model_std', 'ref_std', 'std_ratio'] as const;
+  return [head.join(','), ...points.map((p) => head.map((k) => csvField(p[k])).join(','))].join('\n') + '\n';
+}
