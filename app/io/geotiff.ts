@@ -1,8 +1,156 @@
-import { fileError } from '../errors.js';
+/**
+ * GeoTIFF reader on top of the `geotiff` package, reading lazily through our ByteSource (only the
+ * tiles or strips of a requested window are fetched). The bands become one variable `raster` with
+ * dims (band?, y, x) — (band?, lat, lon) for a geographic CRS — and 1-D coordinate variables computed
+ * from the georeferencing tags. GDAL_NODATA becomes _FillValue; no masking or scaling happens here.
+ */
+import { GeoTIFF, type GeoTIFFImage } from 'geotiff';
+import { fileError, StillwaterError } from '../errors.js';
 import type { ByteSource } from './byte-source.js';
-import type { RawDataset } from './types.js';
+import { allocArray } from './dtype.js';
+import { geoTransformFromTags, pixelCentres } from './geotiff-transform.js';
+import { checkSlab, copySlab } from './slab.js';
+import type { Attributes, DType, RawArray, RawDataset, RawDimension, RawVariable } from './types.js';
 
-// Placeholder until the GeoTIFF reader lands.
-export async function openGeoTiff(_source: ByteSource, path: string): Promise<RawDataset> {
-  throw fileError('E_FORMAT', path, 'GeoTIFF files cannot be read yet.');
+export const RASTER_VARIABLE = 'raster';
+
+/** The `geotiff` package's source interface, served from a ByteSource. */
+class ByteSourceAdapter {
+  constructor(private readonly source: ByteSource) {}
+  get fileSize(): number {
+    return this.source.size;
+  }
+  async fetch(slices: { offset: number; length: number }[]): Promise<ArrayBuffer[]> {
+    return Promise.all(slices.map(async (s) => (await this.fetchSlice(s)).data));
+  }
+  async fetchSlice(slice: { offset: number; length: number }): Promise<{ offset: number; length: number; data: ArrayBuffer }> {
+    const length = Math.max(0, Math.min(slice.length, this.source.size - slice.offset));
+    const bytes = await this.source.read(slice.offset, length);
+    const data = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
+    return { offset: slice.offset, length, data };
+  }
+  async close(): Promise<void> {}
+}
+
+function dtypeOf(format: number, bits: number): DType | undefined {
+  // SampleFormat: 1 unsigned integer, 2 signed integer, 3 IEEE float (TIFF 6.0 / Adobe supplement)
+  const table: Record<string, DType> = {
+    '1:8': 'u1', '1:16': 'u2', '1:32': 'u4', '2:8': 'i1', '2:16': 'i2', '2:32': 'i4', '3:32': 'f4', '3:64': 'f8',
+  };
+  return table[`${format}:${bits}`];
+}
+
+interface MemVar extends RawVariable {
+  data?: RawArray;
+}
+
+export async function openGeoTiff(source: ByteSource, path: string): Promise<RawDataset> {
+  let tiff: GeoTIFF;
+  let image: GeoTIFFImage;
+  try {
+    tiff = await GeoTIFF.fromSource(new ByteSourceAdapter(source) as unknown as Parameters<typeof GeoTIFF.fromSource>[0]);
+    image = await tiff.getImage(0);
+  } catch (e) {
+    if (e instanceof StillwaterError) throw e;
+    throw fileError('E_FORMAT', path, `the TIFF file is damaged or truncated (${(e as Error).message}).`);
+  }
+  const width = image.getWidth();
+  const height = image.getHeight();
+  const bands = image.getSamplesPerPixel();
+  const dtype = dtypeOf(image.getSampleFormat(0), image.getBitsPerSample(0));
+  if (!dtype) throw fileError('E_FORMAT', path, `its samples (format ${image.getSampleFormat(0)}, ${image.getBitsPerSample(0)} bits) are not a type we read.`);
+  for (let b = 1; b < bands; b++) {
+    if (dtypeOf(image.getSampleFormat(b), image.getBitsPerSample(b)) !== dtype) {
+      throw fileError('E_FORMAT', path, 'its bands have different sample types, which we do not read.');
+    }
+  }
+
+  const fd = image.fileDirectory as unknown as { getValue(name: string): ArrayLike<number> | undefined };
+  const transform = geoTransformFromTags(fd.getValue('ModelTiepoint'), fd.getValue('ModelPixelScale'), fd.getValue('ModelTransformation'));
+  if (transform === 'rotated') throw fileError('E_FORMAT', path, 'its grid is rotated (ModelTransformation with rotation terms), which we do not read.');
+  if (!transform) throw fileError('E_COORDS', path, 'it has no georeferencing (no ModelTiepoint/ModelPixelScale or ModelTransformation).');
+
+  const keys = (image.getGeoKeys() ?? {}) as Record<string, number | undefined>;
+  const projected = keys.ProjectedCSTypeGeoKey;
+  const geographicCode = keys.GeographicTypeGeoKey;
+  const geographic = keys.GTModelTypeGeoKey === 2 || (keys.GTModelTypeGeoKey === undefined && projected === undefined && geographicCode !== undefined);
+  const epsg = geographic ? geographicCode : projected;
+  const pixelIsPoint = keys.GTRasterTypeGeoKey === 2;
+
+  const [xName, yName] = geographic ? ['lon', 'lat'] : ['x', 'y'];
+  const xAttrs: Attributes = geographic
+    ? { units: 'degrees_east', standard_name: 'longitude', axis: 'X' }
+    : { units: keys.ProjLinearUnitsGeoKey === 9001 || keys.ProjLinearUnitsGeoKey === undefined ? 'm' : `EPSG:${keys.ProjLinearUnitsGeoKey}`, standard_name: 'projection_x_coordinate', axis: 'X' };
+  const yAttrs: Attributes = geographic
+    ? { units: 'degrees_north', standard_name: 'latitude', axis: 'Y' }
+    : { ...xAttrs, standard_name: 'projection_y_coordinate', axis: 'Y' };
+
+  const rasterAttrs: Attributes = {};
+  const nodata = image.getGDALNoData();
+  if (nodata !== null && nodata !== undefined && Number.isFinite(Number(nodata))) rasterAttrs._FillValue = [Number(nodata)];
+  if (epsg !== undefined) rasterAttrs.crs = `EPSG:${epsg}`;
+
+  const dims: RawDimension[] = [];
+  const variables: MemVar[] = [];
+  if (bands > 1) {
+    dims.push({ name: 'band', size: bands, unlimited: false });
+    variables.push({ name: 'band', dims: ['band'], shape: [bands], dtype: 'i4', attrs: { long_name: 'band number' }, data: Int32Array.from({ length: bands }, (_, i) => i + 1) });
+  }
+  dims.push({ name: yName, size: height, unlimited: false }, { name: xName, size: width, unlimited: false });
+  variables.push(
+    { name: yName, dims: [yName], shape: [height], dtype: 'f8', attrs: yAttrs, data: pixelCentres(transform.y, height, pixelIsPoint) },
+    { name: xName, dims: [xName], shape: [width], dtype: 'f8', attrs: xAttrs, data: pixelCentres(transform.x, width, pixelIsPoint) },
+  );
+  const raster: MemVar = {
+    name: RASTER_VARIABLE,
+    dims: bands > 1 ? ['band', yName, xName] : [yName, xName],
+    shape: bands > 1 ? [bands, height, width] : [height, width],
+    dtype,
+    attrs: rasterAttrs,
+  };
+  variables.unshift(raster);
+  return new GeoTiffDataset(path, source, tiff, image, dims, variables);
+}
+
+class GeoTiffDataset implements RawDataset {
+  readonly format = 'geotiff' as const;
+  readonly attrs: Attributes = {};
+  readonly variables: RawVariable[];
+
+  constructor(
+    readonly path: string,
+    private readonly source: ByteSource,
+    private readonly tiff: GeoTIFF,
+    private readonly image: GeoTIFFImage,
+    readonly dimensions: RawDimension[],
+    private readonly vars: MemVar[],
+  ) {
+    this.variables = vars.map(({ name, dims, shape, dtype, attrs }) => ({ name, dims, shape, dtype, attrs }));
+  }
+
+  async read(name: string, start?: number[], count?: number[]): Promise<RawArray> {
+    const v = this.vars.find((x) => x.name === name);
+    if (!v) throw fileError('E_VARIABLE', this.path, `there is no variable '${name}'.`, name);
+    const { s, c } = checkSlab(this.path, v, start, count);
+    if (v.data) return copySlab(v.data, v.shape, s, c);
+    const banded = v.shape.length === 3;
+    const [b0, nb] = banded ? [s[0], c[0]] : [0, 1];
+    const [y0, ny, x0, nx] = banded ? [s[1], c[1], s[2], c[2]] : [s[0], c[0], s[1], c[1]];
+    const out = allocArray(v.dtype, nb * ny * nx);
+    if (out.length === 0) return out;
+    let planes: ArrayLike<number>[];
+    try {
+      const samples = Array.from({ length: nb }, (_, i) => b0 + i);
+      planes = (await this.image.readRasters({ window: [x0, y0, x0 + nx, y0 + ny], samples, interleave: false })) as unknown as ArrayLike<number>[];
+    } catch (e) {
+      throw fileError('E_FORMAT', this.path, `its raster cannot be read (${(e as Error).message}).`, name);
+    }
+    for (let b = 0; b < nb; b++) (out as Float64Array).set(planes[b], b * ny * nx);
+    return out;
+  }
+
+  async close(): Promise<void> {
+    await this.tiff.close();
+    await this.source.close();
+  }
 }

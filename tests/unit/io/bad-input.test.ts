@@ -103,6 +103,22 @@ describe('openDataset on bad input', () => {
     expect(err.message).toMatch(/damaged/);
   });
 
+  it('a GeoTIFF cut short: E_FORMAT', async () => {
+    const whole = readFileSync(fixture('grid.tif'));
+    const path = write('cut.tif', whole.subarray(0, 200));
+    let err: unknown;
+    try {
+      const ds = await openDataset(path);
+      await ds.read('raster');
+      await ds.close();
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(StillwaterError);
+    expect((err as StillwaterError).code).toBe('E_FORMAT');
+    expect((err as StillwaterError).message).toContain(path);
+  });
+
   it('inputs are never modified', async () => {
     const before = readFileSync(fixture('classic_cdf1.nc'));
     const ds = await openDataset(fixture('classic_cdf1.nc'));
