@@ -7,8 +7,9 @@ import type { ServiceEntry } from './services/types.js';
 import { filesServices } from './services/files.js';
 import { viewsServices } from './services/views.js';
 import { linesServices } from './services/lines.js';
+import { compareServices } from './services/compare.js';
 
-export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...linesServices];
+export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...linesServices, ...compareServices];
 
 export function findService(name: string): ServiceEntry | undefined {
   return serviceTable.find((e) => e.name === name);

@@ -1,0 +1,91 @@
+/**
+ * Recipes and comparisons for the workbench: load, check and save a recipe (the saved state of a session),
+ * run a comparison (heavy: in a worker), and the built-in regions with their boundary outlines.
+ * Thin over app/recipe, app/compare and app/regions; every file a recipe names passes ctx.resolvePath.
+ */
+import { dirname } from 'node:path';
+import { z } from 'zod';
+import { runComparison, type ComparisonResult } from '../compare/run.js';
+import { isStillwaterError } from '../errors.js';
+import { loadRecipe } from '../recipe/load.js';
+import { recipeToJson } from '../recipe/to-json.js';
+import type { Recipe } from '../recipe/types.js';
+import { validateRecipe } from '../recipe/validate.js';
+import { ARCTIC_LIMIT, ATLANTIC_OUTLINE, BUILT_IN_REGIONS, HUDSON_BOX, INDIAN_OUTLINE, SOUTHERN_LIMIT } from '../regions/basins.js';
+import { writeFilesAtomically } from '../report/atomic.js';
+import { entry, type ServiceContext, type ServiceEntry } from './types.js';
+
+/** Every file a recipe reads must lie in the folders the person allowed. */
+function guard(recipe: Recipe, ctx: ServiceContext): Recipe {
+  const files = [
+    ...[recipe.reference, ...recipe.runs].flatMap((s) => [...Object.values(s.variables).map((v) => v.file), ...(s.snapshots ?? []).map((x) => x.file)]),
+    ...recipe.regions.flatMap((r) => (r.kind === 'built-in' ? [] : [r.file])),
+  ];
+  for (const f of files) ctx.resolvePath(f);
+  return recipe;
+}
+
+const recipeInput = z.object({
+  /** the recipe as JSON (an object) */
+  recipe: z.unknown(),
+  /** folder that relative paths in the recipe are taken from */
+  baseDir: z.string(),
+});
+
+export const compareServices: ServiceEntry[] = [
+  entry({
+    name: 'recipe.load',
+    summary: 'Read and check a recipe file; returns it with absolute paths and defaults filled in.',
+    input: z.object({ path: z.string() }),
+    async run(input, ctx) {
+      const recipe = guard(await loadRecipe(ctx.resolvePath(input.path)), ctx);
+      return { recipe: recipeToJson(recipe), baseDir: recipe.baseDir, variables: recipe.variables };
+    },
+  }),
+  entry({
+    name: 'recipe.validate',
+    summary: 'Check a recipe without running it: ok, or the one sentence with the path of the first problem.',
+    input: recipeInput,
+    async run(input, ctx) {
+      try {
+        const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir)), ctx);
+        return { ok: true as const, variables: recipe.variables };
+      } catch (e) {
+        if (isStillwaterError(e) && e.isBadInput) return { ok: false as const, message: e.message, path: e.subject.path ?? null };
+        throw e;
+      }
+    },
+  }),
+  entry({
+    name: 'recipe.save',
+    summary: 'Save a recipe (the state of a session) to a file, with paths relative to its folder.',
+    input: z.object({ path: z.string(), recipe: z.unknown(), baseDir: z.string() }),
+    async run(input, ctx) {
+      const path = ctx.resolvePath(input.path);
+      const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir)), ctx);
+      await writeFilesAtomically([{ path, text: JSON.stringify(recipeToJson(recipe, dirname(path)), null, 2) + '\n' }]);
+      return { path };
+    },
+  }),
+  entry({
+    name: 'compare.run',
+    summary: 'Run the comparison of a recipe: skill rows per run × variable × region × layer, and run costs.',
+    input: recipeInput,
+    heavy: true,
+    async run(input, ctx): Promise<ComparisonResult> {
+      const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir)), ctx);
+      return runComparison(recipe, { cacheDir: ctx.cacheDir, signal: ctx.signal, onProgress: (f, m) => ctx.progress(f, m) });
+    },
+  }),
+  entry({
+    name: 'regions.list',
+    summary: 'The built-in regions and the lines that bound them (for drawing on a map).',
+    input: z.object({}),
+    async run() {
+      return {
+        regions: [...BUILT_IN_REGIONS],
+        lines: { southernLimit: SOUTHERN_LIMIT, arcticLimit: ARCTIC_LIMIT, hudsonBox: [...HUDSON_BOX], atlantic: ATLANTIC_OUTLINE, indian: INDIAN_OUTLINE },
+      };
+    },
+  }),
+];
