@@ -106,7 +106,7 @@ export function auxiliaryNames(ds: RawDataset): Set<string> {
   const names = new Set<string>();
   for (const v of ds.variables) {
     if (v.dims.length === 1 && v.dims[0] === v.name) names.add(v.name);
-    for (const key of ['coordinates', 'bounds', 'climatology', 'cell_measures']) {
+    for (const key of ['coordinates', 'bounds', 'climatology', 'cell_measures', 'grid_mapping']) {
       const a = attrString(v.attrs, key);
       if (!a) continue;
       for (const part of a.split(/\s+/)) {
