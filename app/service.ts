@@ -8,8 +8,9 @@ import { filesServices } from './services/files.js';
 import { viewsServices } from './services/views.js';
 import { linesServices } from './services/lines.js';
 import { compareServices } from './services/compare.js';
+import { cfServices } from './services/cf.js';
 
-export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...linesServices, ...compareServices];
+export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...linesServices, ...compareServices, ...cfServices];
 
 export function findService(name: string): ServiceEntry | undefined {
   return serviceTable.find((e) => e.name === name);
