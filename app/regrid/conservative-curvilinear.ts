@@ -1,14 +1,14 @@
 import { EARTH_RADIUS_M, type HorizontalGrid } from '../grid/types.js';
 import { ascendingEdges, cellRange } from './axis-order.js';
 import { TripletBuilder, type SparseWeights } from './csr.js';
-import { PolyBuffer, bbox, clipSlab, polygonArea } from './polygon-clip.js';
+import { ArcTable, PolyBuffer, bbox, clipSlab, polygonArea } from './polygon-clip.js';
 import { cellToFrame } from './sphere-polygon.js';
 
 const RAD = Math.PI / 180;
 
 /**
- * First-order conservative weights from a grid of quadrilaterals (curvilinear, corners given) onto
- * a lat-lon grid. Each source cell is drawn once into the cylindrical equal-area frame
+ * First-order conservative weights from a grid of quadrilaterals (curvilinear, corners given, edges
+ * great-circle arcs) onto a lat-lon grid. Each source cell is drawn once into the cylindrical equal-area frame
  * (sphere-polygon.ts), cut into the target's latitude bands, then into its longitude columns; the
  * target rows and columns a cell can touch come from its bounding box by binary search, so the cost
  * is proportional to the number of overlaps.
@@ -24,6 +24,7 @@ export function conservativeCurvilinear(source: HorizontalGrid, target: Horizont
   const nSrc = source.nx * source.ny;
   const b = new TripletBuilder(nSrc * 8);
   const poly = new PolyBuffer(64), strip = new PolyBuffer(64), piece = new PolyBuffer(64);
+  const arcs = new ArcTable();
   const cLon = new Float64Array(4), cLat = new Float64Array(4);
   const scale = RAD * radius * radius;
   for (let s = 0; s < nSrc; s++) {
@@ -31,21 +32,21 @@ export function conservativeCurvilinear(source: HorizontalGrid, target: Horizont
       cLon[c] = source.cornerLon[4 * s + c];
       cLat[c] = source.cornerLat[4 * s + c];
     }
-    if (!cellToFrame(cLon, cLat, poly)) continue;
+    if (!cellToFrame(cLon, cLat, poly, arcs)) continue;
     const [px0, px1, py0, py1] = bbox(poly);
     const [r0, r1] = cellRange(ySin, py0, py1);
     if (r0 >= r1) continue;
     const kmin = Math.ceil((x0 - px1) / 360), kmax = Math.floor((x1 - px0) / 360);
     for (let r = r0; r < r1; r++) {
-      clipSlab(poly, strip, 1, ySin[r], ySin[r + 1]);
+      clipSlab(poly, strip, 1, ySin[r], ySin[r + 1], arcs);
       if (strip.n < 3) continue;
       const row0 = tLat.index[r] * tnx;
       const [sx0, sx1] = bbox(strip);
       for (let k = kmin; k <= kmax; k++) {
         const [c0, c1] = cellRange(tLon.edges, sx0 + 360 * k, sx1 + 360 * k);
         for (let col = c0; col < c1; col++) {
-          clipSlab(strip, piece, 0, tLon.edges[col] - 360 * k, tLon.edges[col + 1] - 360 * k);
-          const a = Math.abs(polygonArea(piece)) * scale;
+          clipSlab(strip, piece, 0, tLon.edges[col] - 360 * k, tLon.edges[col + 1] - 360 * k, arcs);
+          const a = Math.abs(polygonArea(piece, arcs)) * scale;
           if (a > 0) b.push(row0 + tLon.index[col], s, a);
         }
       }
@@ -59,9 +60,10 @@ export function frameCellAreas(grid: HorizontalGrid, radius = EARTH_RADIUS_M): F
   const n = grid.nx * grid.ny;
   const out = new Float64Array(n);
   const poly = new PolyBuffer(64);
+  const arcs = new ArcTable();
   for (let s = 0; s < n; s++) {
-    const ok = cellToFrame(grid.cornerLon.subarray(4 * s, 4 * s + 4), grid.cornerLat.subarray(4 * s, 4 * s + 4), poly);
-    out[s] = ok ? Math.abs(polygonArea(poly)) * RAD * radius * radius : NaN;
+    const ok = cellToFrame(grid.cornerLon.subarray(4 * s, 4 * s + 4), grid.cornerLat.subarray(4 * s, 4 * s + 4), poly, arcs);
+    out[s] = ok ? Math.abs(polygonArea(poly, arcs)) * RAD * radius * radius : NaN;
   }
   return out;
 }

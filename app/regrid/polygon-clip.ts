@@ -1,85 +1,196 @@
 /**
- * Polygons in a plane frame as flat coordinate buffers (x0, y0, x1, y1, ...), clipped against
- * axis-parallel lines (Sutherland–Hodgman). Against a convex window the clipped area is exact even
- * for concave subjects (degenerate bridges have zero area).
+ * Polygons of the cylindrical equal-area frame (x = longitude in degrees, y = sin latitude) whose
+ * edges are either straight in the frame (meridians, parallels, cuts along a target cell's sides) or
+ * great-circle arcs, which are curves y(x) with a closed form. Polygons are clipped against lines
+ * x = const and y = const (Sutherland–Hodgman: against a convex window the clipped area is exact,
+ * also for concave subjects) and their area is integrated exactly along the arcs.
+ *
+ * A great circle with unit normal n = (nx, ny, nz), nz ≠ 0, is in the frame
+ *   y(λ) = S·c·cos u / sqrt(1 − c² sin² u),   u = λ − λ0,  c = |(nx, ny)|, λ0 = atan2(ny, nx), S = −sign(nz)
+ * and ∫ y dλ = S·asin(c·sin u) (λ in radians), so each arc contributes exactly to the area.
  */
+const RAD = Math.PI / 180;
+const DEG = 180 / Math.PI;
+
+/** The great circles of one polygon, referenced from its edges by index. */
+export class ArcTable {
+  c: Float64Array = new Float64Array(16);
+  l0: Float64Array = new Float64Array(16);
+  s: Float64Array = new Float64Array(16);
+  n = 0;
+  clear(): void {
+    this.n = 0;
+  }
+  /** Add the great circle through two unit vectors; returns its index, or -1 for a meridian (straight). */
+  add(ax: number, ay: number, az: number, bx: number, by: number, bz: number): number {
+    let nx = ay * bz - az * by, ny = az * bx - ax * bz, nz = ax * by - ay * bx;
+    const len = Math.hypot(nx, ny, nz);
+    if (len === 0) return -1;
+    nx /= len;
+    ny /= len;
+    nz /= len;
+    if (Math.abs(nz) < 1e-15) return -1;
+    if (this.n === this.c.length) {
+      this.c = grow(this.c);
+      this.l0 = grow(this.l0);
+      this.s = grow(this.s);
+    }
+    const k = this.n++;
+    this.c[k] = Math.min(1, Math.hypot(nx, ny));
+    this.l0[k] = Math.atan2(ny, nx);
+    this.s[k] = nz > 0 ? -1 : 1;
+    return k;
+  }
+  /** y = sin(latitude) of arc k at longitude x (degrees). */
+  y(k: number, xDeg: number): number {
+    const u = xDeg * RAD - this.l0[k];
+    const c = this.c[k];
+    const su = Math.sin(u);
+    return (this.s[k] * c * Math.cos(u)) / Math.sqrt(1 - c * c * su * su);
+  }
+  /** ∫ y dx along arc k from x1 to x2 (degrees), in degree units. */
+  integral(k: number, x1: number, x2: number): number {
+    const c = this.c[k], l0 = this.l0[k];
+    return this.s[k] * (Math.asin(c * Math.sin(x2 * RAD - l0)) - Math.asin(c * Math.sin(x1 * RAD - l0))) * DEG;
+  }
+  /** Longitudes (degrees) in (x1, x2) where arc k reaches its highest or lowest latitude. */
+  extremaBetween(k: number, x1: number, x2: number, out: number[]): void {
+    out.length = 0;
+    const lo = Math.min(x1, x2) * RAD, hi = Math.max(x1, x2) * RAD, l0 = this.l0[k];
+    for (let m = Math.ceil((lo - l0) / Math.PI); l0 + m * Math.PI < hi; m++) {
+      const x = (l0 + m * Math.PI) * DEG;
+      if (x > Math.min(x1, x2) + 1e-12 && x < Math.max(x1, x2) - 1e-12) out.push(x);
+    }
+    if (x1 > x2) out.reverse();
+  }
+  /** Longitude in [x1, x2] where arc k (monotone in y there) reaches y = target. */
+  xAtY(k: number, x1: number, y1: number, x2: number, y2: number, target: number): number {
+    if (target === y1) return x1;
+    if (target === y2) return x2;
+    // closed form: sin²u = (c² − y²) / (c² (1 − y²)); the piece lies within one half-period
+    // (mπ, (m+1)π) of u, where the two roots are mπ + a and mπ + π − a; the sign of y picks one
+    const c = this.c[k], l0 = this.l0[k];
+    const q2 = (c * c - target * target) / (c * c * (1 - target * target));
+    const a = Math.asin(Math.sqrt(Math.min(1, Math.max(0, q2))));
+    const m = Math.floor((0.5 * (x1 + x2) * RAD - l0) / Math.PI);
+    let u = m * Math.PI + a;
+    if (this.s[k] * Math.cos(u) * target < 0) u = m * Math.PI + Math.PI - a;
+    const x = (u + l0) * DEG;
+    const lo = Math.min(x1, x2), hi = Math.max(x1, x2);
+    if (x >= lo && x <= hi && Math.abs(this.y(k, x) - target) <= 1e-12) return x;
+    return this.bisect(k, x1, y1, x2, target);
+  }
+  /** Bisection on a monotone piece, where the closed form is ill-conditioned. */
+  private bisect(k: number, x1: number, y1: number, x2: number, target: number): number {
+    let a = x1, b = x2, ya = y1 - target;
+    for (let it = 0; it < 64; it++) {
+      const m = 0.5 * (a + b);
+      if (m === a || m === b) break;
+      const ym = this.y(k, m) - target;
+      if (ym === 0) return m;
+      if (ym > 0 === ya > 0) {
+        a = m;
+        ya = ym;
+      } else b = m;
+    }
+    return 0.5 * (a + b);
+  }
+}
+
+function grow(a: Float64Array): Float64Array {
+  const b = new Float64Array(a.length * 2);
+  b.set(a);
+  return b;
+}
+
+/** Vertices (x, y) and, per vertex, the edge that ends there: an arc index or -1 for straight. */
 export class PolyBuffer {
   xy: Float64Array;
+  edge: Int32Array;
   n = 0;
   constructor(capacity = 64) {
     this.xy = new Float64Array(capacity * 2);
+    this.edge = new Int32Array(capacity);
   }
   clear(): void {
     this.n = 0;
   }
-  push(x: number, y: number): void {
-    if (2 * this.n + 2 > this.xy.length) {
+  /** Add a vertex reached by a straight edge (arc = -1) or along arc `arc`. */
+  push(x: number, y: number, arc = -1): void {
+    if (this.n === this.edge.length) {
       const b = new Float64Array(this.xy.length * 2);
       b.set(this.xy);
       this.xy = b;
+      const e = new Int32Array(this.edge.length * 2);
+      e.set(this.edge);
+      this.edge = e;
     }
     this.xy[2 * this.n] = x;
     this.xy[2 * this.n + 1] = y;
+    this.edge[this.n] = arc;
     this.n++;
   }
 }
 
-/**
- * Keep the part of `src` where coordinate `axis` (0 = x, 1 = y) lies in [lo, hi]; result into `dst`.
- */
-export function clipSlab(src: PolyBuffer, dst: PolyBuffer, axis: 0 | 1, lo: number, hi: number): void {
-  // two half-planes: c >= lo, then c <= hi, through a scratch buffer
-  clipHalf(src, scratch, axis, lo, 1);
-  clipHalf(scratch, dst, axis, hi, -1);
-}
-
 const scratch = new PolyBuffer(256);
 
-/** Keep side*(c − bound) >= 0. */
-function clipHalf(src: PolyBuffer, dst: PolyBuffer, axis: 0 | 1, bound: number, side: 1 | -1): void {
+/** Keep the part of `src` where coordinate `axis` (0 = x, 1 = y) lies in [lo, hi]; result into `dst`. */
+export function clipSlab(src: PolyBuffer, dst: PolyBuffer, axis: 0 | 1, lo: number, hi: number, arcs: ArcTable): void {
+  clipHalf(src, scratch, axis, lo, 1, arcs);
+  clipHalf(scratch, dst, axis, hi, -1, arcs);
+}
+
+/** Keep side·(coordinate − bound) >= 0. */
+function clipHalf(src: PolyBuffer, dst: PolyBuffer, axis: 0 | 1, bound: number, side: 1 | -1, arcs: ArcTable): void {
   dst.clear();
   const n = src.n;
   if (n === 0) return;
   const a = src.xy;
   let px = a[2 * (n - 1)], py = a[2 * (n - 1) + 1];
-  let pc = axis === 0 ? px : py;
-  let pin = side * (pc - bound) >= 0;
+  let pin = side * ((axis === 0 ? px : py) - bound) >= 0;
   for (let i = 0; i < n; i++) {
     const cx = a[2 * i], cy = a[2 * i + 1];
-    const cc = axis === 0 ? cx : cy;
-    const cin = side * (cc - bound) >= 0;
+    const arc = src.edge[i];
+    const cin = side * ((axis === 0 ? cx : cy) - bound) >= 0;
     if (cin !== pin) {
-      // crossing point on the bound
-      const t = (bound - pc) / (cc - pc);
-      const po = axis === 0 ? py : px, co = axis === 0 ? cy : cx;
-      const other = po + t * (co - po);
-      if (axis === 0) dst.push(bound, other);
-      else dst.push(other, bound);
+      let ix: number, iy: number;
+      if (axis === 0) {
+        ix = bound;
+        iy = arc >= 0 ? arcs.y(arc, bound) : py + ((bound - px) / (cx - px)) * (cy - py);
+      } else {
+        iy = bound;
+        ix = arc >= 0 ? arcs.xAtY(arc, px, py, cx, cy, bound) : px + ((bound - py) / (cy - py)) * (cx - px);
+      }
+      // leaving: the cut keeps the arc up to the crossing; entering: the crossing is reached along the clip line
+      dst.push(ix, iy, pin ? arc : -1);
     }
-    if (cin) dst.push(cx, cy);
+    if (cin) dst.push(cx, cy, arc);
     px = cx;
     py = cy;
-    pc = cc;
     pin = cin;
   }
 }
 
-/** Signed area (shoelace), positive counter-clockwise. */
-export function polygonArea(p: PolyBuffer): number {
+/** Signed area in the frame (degrees × sin-latitude units), positive counter-clockwise: −∮ y dx. */
+export function polygonArea(p: PolyBuffer, arcs: ArcTable | null = null): number {
   const a = p.xy, n = p.n;
   if (n < 3) return 0;
   let s = 0;
-  let px = a[2 * (n - 1)], py = a[2 * (n - 1) + 1];
+  // measured from the first vertex's y: the same area with less cancellation for thin polygons
+  const y0 = a[1];
+  let px = a[2 * (n - 1)], py = a[2 * (n - 1) + 1] - y0;
   for (let i = 0; i < n; i++) {
-    const x = a[2 * i], y = a[2 * i + 1];
-    s += (px - x) * (py + y);
+    const x = a[2 * i], y = a[2 * i + 1] - y0;
+    const arc = p.edge[i];
+    if (arc >= 0 && arcs && x !== px) s -= arcs.integral(arc, px, x) - y0 * (x - px);
+    else s -= 0.5 * (py + y) * (x - px);
     px = x;
     py = y;
   }
-  return 0.5 * s;
+  return s;
 }
 
-/** Bounding box [xmin, xmax, ymin, ymax]. */
+/** Bounding box [xmin, xmax, ymin, ymax] of the vertices (arcs are split at their extremes, so this holds). */
 export function bbox(p: PolyBuffer): [number, number, number, number] {
   let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
   for (let i = 0; i < p.n; i++) {

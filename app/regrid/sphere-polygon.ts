@@ -1,23 +1,24 @@
-import { PolyBuffer, polygonArea } from './polygon-clip.js';
+import { ArcTable, PolyBuffer, polygonArea } from './polygon-clip.js';
 
 const RAD = Math.PI / 180;
 const DEG = 180 / Math.PI;
 const POLE_EPS = 1e-12;
+const extrema: number[] = [];
 
 /**
  * A quadrilateral cell of the sphere, its edges taken as great-circle arcs between the corners,
  * drawn into the cylindrical equal-area frame x = longitude (degrees, unwrapped so the outline is
  * continuous), y = sin(latitude). Lat-lon rectangles are exact rectangles in this frame and areas
- * scale by R²·π/180, so overlaps with lat-lon target cells reduce to plane clipping. Great-circle
- * arcs are curves in this frame: each is cut into enough chords that the area between arc and
- * chords stays below `relTol` times the squared edge length (with the default 1e-6, the area of a
- * 2° cell is within about 1e-7 of its spherical area).
+ * scale by R²·π/180, so overlaps with lat-lon target cells reduce to plane clipping; the arcs keep
+ * their exact shape (polygon-clip.ts), so areas are exact up to round-off. Each arc is split where it
+ * reaches its highest or lowest latitude, so every edge is monotone in x and in y.
  *
  * A corner at a pole becomes a segment along y = ±1; a cell around a pole (longitudes winding
- * through 360°) is closed along y = ±1.
+ * through 360°) is closed along y = ±1. Returns false for a cell with missing corners.
  */
-export function cellToFrame(lonDeg: ArrayLike<number>, latDeg: ArrayLike<number>, out: PolyBuffer, relTol = 1e-6): boolean {
+export function cellToFrame(lonDeg: ArrayLike<number>, latDeg: ArrayLike<number>, out: PolyBuffer, arcs: ArcTable): boolean {
   out.clear();
+  arcs.clear();
   const m = lonDeg.length;
   const px = new Float64Array(m), py = new Float64Array(m), pz = new Float64Array(m);
   const pole = new Int8Array(m);
@@ -29,6 +30,7 @@ export function cellToFrame(lonDeg: ArrayLike<number>, latDeg: ArrayLike<number>
     py[c] = cl * Math.sin(lo * RAD);
     pz[c] = Math.sin(la * RAD);
     pole[c] = la >= 90 - POLE_EPS ? 1 : la <= -90 + POLE_EPS ? -1 : 0;
+    if (pole[c] !== 0) pz[c] = pole[c];
   }
   const first = pole.indexOf(0);
   if (first < 0) return false;
@@ -40,7 +42,7 @@ export function cellToFrame(lonDeg: ArrayLike<number>, latDeg: ArrayLike<number>
   while (steps < m) {
     let nxt = (c + 1) % m;
     if (pole[nxt] !== 0) {
-      // a run of pole corners: along y = ±1 from this corner's longitude to the next corner's
+      // a run of pole corners: meridian to the pole, along y = ±1, meridian back down
       const y = pole[nxt];
       while (pole[nxt] !== 0 && steps < m) {
         nxt = (nxt + 1) % m;
@@ -52,62 +54,34 @@ export function cellToFrame(lonDeg: ArrayLike<number>, latDeg: ArrayLike<number>
       out.push(nl, pz[nxt]);
       cur = nl;
     } else {
-      cur = arcToFrame(px, py, pz, c, nxt, cur, relTol, out);
+      const lonB = unwrap(Math.atan2(py[nxt], px[nxt]) * DEG, cur);
+      const arc = lonB === cur ? -1 : arcs.add(px[c], py[c], pz[c], px[nxt], py[nxt], pz[nxt]);
+      if (arc >= 0) {
+        arcs.extremaBetween(arc, cur, lonB, extrema);
+        for (const x of extrema) out.push(x, arcs.y(arc, x), arc);
+      }
+      out.push(lonB, pz[nxt], arc);
+      cur = lonB;
     }
     steps++;
     c = nxt;
   }
   // the last point pushed repeats the first corner; its unwrapped longitude tells whether the
   // outline winds around a pole
+  const closingArc = out.edge[out.n - 1];
   out.n--;
   const wind = cur - startLon;
   if (Math.abs(wind) > 180) {
     const y = wind > 0 ? 1 : -1;
-    out.push(cur, pz[first]);
+    out.push(cur, pz[first], closingArc);
     out.push(cur, y);
     out.push(startLon, y);
+    // the first vertex is reached straight down from the pole line
+    out.edge[0] = -1;
+  } else {
+    out.edge[0] = closingArc;
   }
   return out.n >= 3;
-}
-
-/** Push the arc from corner a (already in `out`) to corner b; returns b's unwrapped longitude. */
-function arcToFrame(px: Float64Array, py: Float64Array, pz: Float64Array, a: number, b: number, lonA: number, relTol: number, out: PolyBuffer): number {
-  const ax = px[a], ay = py[a], az = pz[a], bx = px[b], by = py[b], bz = pz[b];
-  // the tolerance depends on the edge alone (its squared length), so that the two cells sharing an
-  // edge cut it into the same chords and the cells still tile the frame exactly
-  const tol = Math.max(relTol * ((ax - bx) ** 2 + (ay - by) ** 2 + (az - bz) ** 2), 1e-20);
-  const lonB = unwrap(Math.atan2(by, bx) * DEG, lonA);
-  const dl = (lonB - lonA) * RAD;
-  let pieces = 1;
-  if (Math.abs(dl) > 1e-12) {
-    // deviation of the arc's midpoint from the chord, in y at the midpoint's longitude
-    let mx = ax + bx, my = ay + by, mz = az + bz;
-    const mn = Math.hypot(mx, my, mz);
-    mx /= mn;
-    my /= mn;
-    mz /= mn;
-    const lonM = unwrap(Math.atan2(my, mx) * DEG, lonA);
-    const f = (lonM - lonA) / (lonB - lonA);
-    const dev = Math.abs(mz - (az + f * (bz - az)));
-    const err = (2 / 3) * Math.abs(dl) * dev;
-    if (err > tol) pieces = Math.min(512, Math.ceil(Math.sqrt(err / tol)));
-  }
-  let prev = lonA;
-  if (pieces > 1) {
-    const omega = Math.acos(Math.max(-1, Math.min(1, ax * bx + ay * by + az * bz)));
-    const so = Math.sin(omega);
-    for (let q = 1; q < pieces; q++) {
-      const t = q / pieces;
-      const wa = Math.sin((1 - t) * omega) / so, wb = Math.sin(t * omega) / so;
-      const x = wa * ax + wb * bx, y = wa * ay + wb * by, z = wa * az + wb * bz;
-      const lon = unwrap(Math.atan2(y, x) * DEG, prev);
-      out.push(lon, z);
-      prev = lon;
-    }
-  }
-  const lb = unwrap(lonB, prev);
-  out.push(lb, bz);
-  return lb;
 }
 
 /** The longitude equal to `lon` modulo 360 that lies nearest to `ref`. */
@@ -116,6 +90,6 @@ export function unwrap(lon: number, ref: number): number {
 }
 
 /** Area of a frame polygon in m² on a sphere of the given radius. */
-export function frameArea(p: PolyBuffer, radius: number): number {
-  return polygonArea(p) * RAD * radius * radius;
+export function frameArea(p: PolyBuffer, arcs: ArcTable, radius: number): number {
+  return polygonArea(p, arcs) * RAD * radius * radius;
 }

@@ -1,0 +1,84 @@
+import type { FieldSource } from '../../../app/cf/field.js';
+import type { ParsedUnits } from '../../../app/cf/units.js';
+import type { Grid, HorizontalGrid } from '../../../app/grid/types.js';
+import { EARTH_RADIUS_M } from '../../../app/grid/types.js';
+import { frameCellAreas } from '../../../app/regrid/conservative-curvilinear.js';
+
+export const MMOL_M3: ParsedUnits = { text: 'mmol m-3', kind: 'amount_per_volume', canonical: 'mmol m-3', factor: 1e-3, offset: 0 };
+
+/** A field held in memory: levels[t * nz + k] is one level. */
+export function memoryField(grid: Grid, levels: Float32Array[], nt = 1): FieldSource {
+  const nz = grid.vertical ? grid.vertical.nz : 1;
+  return {
+    file: 'memory.nc',
+    variable: 'tracer',
+    units: MMOL_M3,
+    grid,
+    nt,
+    time: null,
+    async readLevel(t: number, k: number) {
+      return levels[t * nz + k].slice();
+    },
+  };
+}
+
+/** A field computed from a function of lon, lat, depth, on demand. */
+export function functionField(grid: Grid, f: (lon: number, lat: number, z: number, cell: number) => number): FieldSource & { reads: number } {
+  const h = grid.horizontal;
+  const obj = {
+    file: 'analytic.nc',
+    variable: 'tracer',
+    units: MMOL_M3,
+    grid,
+    nt: 1,
+    time: null,
+    reads: 0,
+    async readLevel(_t: number, k: number) {
+      obj.reads++;
+      const z = grid.vertical ? grid.vertical.centres[k] : 0;
+      const out = new Float32Array(h.nx * h.ny);
+      for (let c = 0; c < out.length; c++) out[c] = f(h.lon[c], h.lat[c], z, c);
+      return out;
+    },
+  };
+  return obj;
+}
+
+/**
+ * A curvilinear test grid built by hand: a lat-lon grid of nx × ny cells whose corners are moved by a
+ * smooth distortion (sheared in longitude, stretched in latitude), so cells are general quadrilaterals.
+ * Cell areas are those of the quadrilaterals with great-circle edges.
+ */
+export function distortedGrid(nx: number, ny: number, lat0: number, lat1: number, amp = 1, lon0 = -180): HorizontalGrid {
+  const dlon = 360 / nx;
+  const cornerAt = (i: number, j: number): [number, number] => {
+    const u = lon0 + i * dlon;
+    const v = lat0 + ((lat1 - lat0) * j) / ny;
+    // keep the outer rows on their parallels so the grid covers exactly [lat0, lat1]
+    const inner = j > 0 && j < ny ? 1 : 0;
+    const lon = u + amp * 0.6 * dlon * Math.sin((v * Math.PI) / 45) * inner;
+    const lat = v + inner * amp * 0.3 * ((lat1 - lat0) / ny) * Math.sin((u * Math.PI) / 60);
+    return [lon, lat];
+  };
+  const n = nx * ny;
+  const cornerLon = new Float64Array(4 * n), cornerLat = new Float64Array(4 * n);
+  const lon = new Float64Array(n), lat = new Float64Array(n);
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const c = j * nx + i;
+      const pts = [cornerAt(i, j), cornerAt(i + 1, j), cornerAt(i + 1, j + 1), cornerAt(i, j + 1)];
+      let sx = 0, sy = 0;
+      pts.forEach(([x, y], q) => {
+        cornerLon[4 * c + q] = x;
+        cornerLat[4 * c + q] = y;
+        sx += x;
+        sy += y;
+      });
+      lon[c] = sx / 4;
+      lat[c] = sy / 4;
+    }
+  }
+  const g: HorizontalGrid = { kind: 'curvilinear', nx, ny, lon, lat, cornerLon, cornerLat, boundsDerived: false, periodic: true, area: new Float64Array(n) };
+  g.area = frameCellAreas(g, EARTH_RADIUS_M);
+  return g;
+}
