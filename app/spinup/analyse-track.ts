@@ -67,7 +67,12 @@ export function describeFit(t: number[], x: number[], drift: DriftRate, threshol
   if (raw.constrained) {
     const rate = Math.abs(drift.perKyr);
     const middle = 0.5 * (drift.fromYear + drift.toYear);
-    yearsToSettle = rate <= thresholdPerKyr ? 0 : Math.max(0, middle + raw.tau * Math.log(rate / thresholdPerKyr) - lastYear);
+    if (rate <= thresholdPerKyr) yearsToSettle = 0;
+    else {
+      const settleAt = middle + raw.tau * Math.log(rate / thresholdPerKyr);
+      // a drift that the fitted τ says should be gone by now: a slower adjustment is at work, no estimate
+      yearsToSettle = settleAt > lastYear ? settleAt - lastYear : null;
+    }
   }
   return {
     t0: raw.t0,
@@ -172,9 +177,14 @@ function verdictFor(
     if (!fit.constrained) {
       parts.push('The fit cannot yet tell where it will settle: the tail still looks like a straight line.');
     } else {
-      const toSettle = fit.yearsToSettle !== null && fit.yearsToSettle > 0 ? `; about ${yrs(fit.yearsToSettle)} more model years until the drift falls below the threshold` : '';
+      const toSettle =
+        fit.yearsToSettle === null
+          ? '; the drift measured now is larger than this τ allows, so a slower adjustment is at work and the time to settle cannot be estimated'
+          : fit.yearsToSettle > 0
+            ? `; about ${yrs(fit.yearsToSettle)} more model years until the drift falls below the threshold`
+            : '';
       parts.push(
-        `First-order fit: heading for ${fmt(fit.xInf)} ${input.units} with τ = ${yrs(fit.tau)} years (90 % of the change takes ${yrs(fit.t90)} years; ${fit.yearsTo90 > 0 ? `${yrs(fit.yearsTo90)} more model years to get there` : 'already past that'})${toSettle}.`,
+        `First-order fit from model year ${yrs(fit.t0)}: heading for ${fmt(fit.xInf)} ${input.units} with τ = ${yrs(fit.tau)} years (90 % of the change takes ${yrs(fit.t90)} years; ${fit.yearsTo90 > 0 ? `${yrs(fit.yearsTo90)} more model years to get there` : 'already past that'})${toSettle}.`,
       );
     }
   }

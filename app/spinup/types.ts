@@ -104,7 +104,11 @@ export interface FirstOrderFit {
   remainingPercent: number | null;
   /** model years after the last snapshot until 90 % of the change from x0 to x∞ is covered (0 when past) */
   yearsTo90: number;
-  /** model years after the last snapshot until the fitted drift falls below the threshold (0 when already) */
+  /**
+   * model years after the last snapshot until the drift falls below the threshold: the measured tail rate
+   * decaying as e^(−t/τ). 0 when already below; null when the fit is unconstrained or its τ cannot explain
+   * the drift still measured (a slower adjustment at work).
+   */
   yearsToSettle: number | null;
   /** root mean square of the residuals, field units */
   rmse: number;

@@ -1,0 +1,113 @@
+/**
+ * The spin-up for the workbench: follow a run through its snapshots (heavy: in a worker), the one-line
+ * verdict for the banner on the scores view, and reading a spinup.json written by the command line.
+ * Thin over app/spinup; every file a recipe names passes ctx.resolvePath. Output types: app/spinup/types.ts.
+ */
+import { readFile } from 'node:fs/promises';
+import { z } from 'zod';
+import { StillwaterError } from '../errors.js';
+import type { Recipe } from '../recipe/types.js';
+import { validateRecipe } from '../recipe/validate.js';
+import { spinupFromRecipe } from '../spinup/run-spinup.js';
+import type { SpinupResult, SpinupSummary } from '../spinup/types.js';
+import { entry, type ServiceContext, type ServiceEntry } from './types.js';
+
+const spinupInput = z.object({
+  /** the recipe as JSON (an object), with runs[].snapshots: [{file, year}] */
+  recipe: z.unknown(),
+  /** folder that relative paths in the recipe are taken from */
+  baseDir: z.string(),
+  /** label of the run to follow (default: the first run that lists snapshots) */
+  run: z.string().optional(),
+  /** recipe variable keys to follow (default: the run's variables that the first snapshot holds) */
+  variables: z.array(z.string()).optional(),
+  /** settled below this drift, per cent of the mean per 1000 years (default 0.1) */
+  threshold: z.number().positive().optional(),
+  /** drift measured over the last N model years (default: last 10 % of the series, at least 3 snapshots) */
+  tailYears: z.number().positive().optional(),
+  /** score every snapshot against the reference (default true) */
+  skill: z.boolean().optional(),
+});
+
+type SpinupInput = z.infer<typeof spinupInput>;
+
+function guardedRecipe(input: SpinupInput, ctx: ServiceContext): Recipe {
+  const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir));
+  for (const s of [recipe.reference, ...recipe.runs]) {
+    for (const v of Object.values(s.variables)) ctx.resolvePath(v.file);
+    for (const x of s.snapshots ?? []) ctx.resolvePath(x.file);
+  }
+  for (const r of recipe.regions) if (r.kind !== 'built-in') ctx.resolvePath(r.file);
+  return recipe;
+}
+
+/** Results of this process, so that the banner asks again for free (keyed by the whole input). */
+const recent = new Map<string, SpinupResult>();
+const RECENT_MAX = 8;
+
+async function follow(input: SpinupInput, ctx: ServiceContext, skill: boolean): Promise<SpinupResult> {
+  const key = JSON.stringify({ ...input, skill });
+  const hit = recent.get(key) ?? (!skill ? recent.get(JSON.stringify({ ...input, skill: true })) : undefined);
+  if (hit) return hit;
+  const recipe = guardedRecipe(input, ctx);
+  const result = await spinupFromRecipe(recipe, {
+    run: input.run,
+    variables: input.variables,
+    settings: {
+      ...(input.threshold !== undefined ? { thresholdPercentPerKyr: input.threshold } : {}),
+      ...(input.tailYears !== undefined ? { tailYears: input.tailYears } : {}),
+    },
+    skill,
+    cacheDir: ctx.cacheDir,
+    signal: ctx.signal,
+    progress: (f, m) => ctx.progress(f, m),
+  });
+  recent.set(key, result);
+  if (recent.size > RECENT_MAX) recent.delete(recent.keys().next().value!);
+  return result;
+}
+
+export const spinupServices: ServiceEntry[] = [
+  entry({
+    name: 'spinup.run',
+    summary: 'Follow a run through its spin-up snapshots: series, drift rates, first-order fits, verdicts, skill over spin-up time.',
+    input: spinupInput,
+    heavy: true,
+    async run(input, ctx): Promise<SpinupResult> {
+      return follow(input, ctx, input.skill !== false);
+    },
+  }),
+  entry({
+    name: 'spinup.verdict',
+    summary: 'Has the run settled? One summary for the banner on the scores view; null when the run lists no snapshots.',
+    input: spinupInput.omit({ variables: true, skill: true }),
+    heavy: true,
+    async run(input, ctx): Promise<SpinupSummary | null> {
+      const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir));
+      const run = input.run !== undefined ? recipe.runs.find((r) => r.label === input.run) : recipe.runs.find((r) => r.snapshots?.length);
+      if (!run?.snapshots?.length) return null;
+      return (await follow({ ...input, run: run.label }, ctx, false)).summary;
+    },
+  }),
+  entry({
+    name: 'spinup.open',
+    summary: 'Read a spinup.json written by `stillwater spinup`.',
+    input: z.object({ path: z.string() }),
+    async run(input, ctx): Promise<SpinupResult> {
+      const path = ctx.resolvePath(input.path);
+      let json: unknown;
+      try {
+        json = JSON.parse(await readFile(path, 'utf8'));
+      } catch (e) {
+        throw new StillwaterError('E_FILE', `${path}: cannot read it as spin-up results (${(e as Error).message}).`, { file: path });
+      }
+      const r = json as Partial<SpinupResult>;
+      if (!r || !Array.isArray(r.tracks) || !Array.isArray(r.years) || !r.summary) {
+        throw new StillwaterError('E_FORMAT', `${path}: this is not a spinup.json (no tracks, years and summary).`, { file: path });
+      }
+      // JSON has no NaN: missing values come back as null; restore NaN for the typed contract
+      for (const t of r.tracks) for (const k of ['mean', 'inventory', 'meanDeviation', 'inventoryDeviation'] as const) t[k] = t[k].map((v) => (v === null ? NaN : v));
+      return r as SpinupResult;
+    },
+  }),
+];
