@@ -7,7 +7,7 @@
  * A point outside a regional grid gets an empty row (NaN when applied).
  */
 import type { HorizontalGrid } from '../grid/types.js';
-import { TripletBuilder, type SparseWeights } from '../regrid/csr.js';
+import type { SparseWeights } from '../regrid/csr.js';
 import { PointLocator, newStencil } from '../regrid/locate.js';
 
 export type PointMethod = 'bilinear' | 'nearest';
@@ -15,19 +15,35 @@ export type PointMethod = 'bilinear' | 'nearest';
 export function pointWeights(grid: HorizontalGrid, lon: ArrayLike<number>, lat: ArrayLike<number>, method: PointMethod = 'bilinear'): SparseWeights {
   const loc = new PointLocator(grid);
   const n = lon.length;
-  const b = new TripletBuilder(n * (method === 'bilinear' ? 4 : 9) + 4);
+  const per = method === 'bilinear' ? 4 : 9;
+  // rows come in order, so the compressed rows are filled directly
+  const rowPtr = new Int32Array(n + 1);
+  const col = new Int32Array(n * per);
+  const w = new Float64Array(n * per);
+  let q = 0;
   if (method === 'bilinear') {
     const st = newStencil();
     for (let p = 0; p < n; p++) {
-      if (!loc.bilinear(lon[p], lat[p], st)) continue;
-      for (let k = 0; k < st.n; k++) if (st.w[k] > 0) b.push(p, st.idx[k], st.w[k]);
+      if (loc.bilinear(lon[p], lat[p], st)) {
+        for (let k = 0; k < st.n; k++) {
+          if (st.w[k] > 0) {
+            col[q] = st.idx[k];
+            w[q++] = st.w[k];
+          }
+        }
+      }
+      rowPtr[p + 1] = q;
     }
   } else {
     const cand = new Int32Array(9);
     for (let p = 0; p < n; p++) {
       const m = loc.nearest(lon[p], lat[p], cand);
-      for (let k = 0; k < m; k++) b.push(p, cand[k], 1);
+      for (let k = 0; k < m; k++) {
+        col[q] = cand[k];
+        w[q++] = 1;
+      }
+      rowPtr[p + 1] = q;
     }
   }
-  return b.toCsr(method, n, grid.nx * grid.ny);
+  return { method, nRows: n, nCols: grid.nx * grid.ny, rowPtr, col: col.slice(0, q), w: w.slice(0, q) };
 }

@@ -34,8 +34,9 @@ export interface StationSamples {
   model: Float64Array;
   status: StationStatus[];
   /**
-   * model seafloor of the station's own column (bottom edge of its deepest wet layer), m; 0 on land;
-   * NaN off the grid, or where the column goes deeper than the levels that were read
+   * model seafloor of the station's own column (bottom edge of its deepest wet layer), m, where it
+   * matters: seafloor stations, and stations whose own column is dry at their depth (0 on land);
+   * NaN elsewhere (the column reaches the station) and off the grid
    */
   seafloorM: Float64Array;
   /** depth the model value stands for: the station depth, or the bottom cell centre for seafloor stations */
@@ -134,25 +135,42 @@ export async function sampleStations(field: FieldSource, st: StationPositions, o
   }
   const lastLevel = anySeafloor ? nz - 1 : deepest;
 
-  // per weight entry (station × column): values at kLo and kHi, and the deepest wet level seen
+  // stations by the level they need, so that each level touches only its own stations
+  const byLo = bucket(kLo, nz);
+  const byHi = bucket(kHi, nz);
+  const floorRows: number[] = [];
+  for (let r = 0; r < n; r++) if (st.seafloor[r]) floorRows.push(r);
+
+  // per weight entry (station × column): values at kLo and kHi, wet at the surface, deepest wet level
   const lo = new Float32Array(nnz).fill(NaN);
   const hi = new Float32Array(nnz).fill(NaN);
+  const surfaceWet = new Uint8Array(nnz);
   const bottomK = new Int16Array(nnz).fill(-1);
   const bottomV = new Float32Array(nnz).fill(NaN);
-  for (let k = 0; k <= lastLevel; k++) {
-    const level = await field.readLevel(t, k);
-    for (let r = 0; r < n; r++) {
-      const takeLo = kLo[r] === k;
-      const takeHi = kHi[r] === k;
+  const track = (level: Float32Array, k: number, rows: ArrayLike<number>): void => {
+    for (let q = 0; q < rows.length; q++) {
+      const r = rows[q];
       for (let p = rowPtr[r], e = rowPtr[r + 1]; p < e; p++) {
         const v = level[col[p]];
-        if (v !== v) continue;
-        bottomK[p] = k;
-        bottomV[p] = v;
-        if (takeLo) lo[p] = v;
-        if (takeHi) hi[p] = v;
+        if (v === v) {
+          bottomK[p] = k;
+          bottomV[p] = v;
+        }
       }
     }
+  };
+  for (let k = 0; k <= lastLevel; k++) {
+    const level = await field.readLevel(t, k);
+    if (k === 0) for (let p = 0; p < nnz; p++) surfaceWet[p] = level[col[p]] === level[col[p]] ? 1 : 0;
+    for (let q = byLo.start[k]; q < byLo.start[k + 1]; q++) {
+      const r = byLo.rows[q];
+      for (let p = rowPtr[r], e = rowPtr[r + 1]; p < e; p++) lo[p] = level[col[p]];
+    }
+    for (let q = byHi.start[k]; q < byHi.start[k + 1]; q++) {
+      const r = byHi.rows[q];
+      for (let p = rowPtr[r], e = rowPtr[r + 1]; p < e; p++) hi[p] = level[col[p]];
+    }
+    track(level, k, floorRows);
     opts.progress?.((k + 1) / (lastLevel + 1));
   }
 
@@ -160,6 +178,7 @@ export async function sampleStations(field: FieldSource, st: StationPositions, o
   const seafloorM = new Float64Array(n).fill(NaN);
   const modelDepthM = new Float64Array(n).fill(NaN);
   const status: StationStatus[] = new Array<StationStatus>(n);
+  const own = new Int32Array(n).fill(-1);
   for (let r = 0; r < n; r++) {
     const b = rowPtr[r], e = rowPtr[r + 1];
     if (b === e) {
@@ -167,13 +186,11 @@ export async function sampleStations(field: FieldSource, st: StationPositions, o
       continue;
     }
     // the station's own column: the nearest candidate, or the largest bilinear weight
-    let own = b;
-    if (method !== 'nearest') for (let p = b + 1; p < e; p++) if (w[p] > w[own]) own = p;
+    let o = b;
+    if (method !== 'nearest') for (let p = b + 1; p < e; p++) if (w[p] > w[o]) o = p;
+    own[r] = o;
     let anyWet = false;
-    for (let p = b; p < e; p++) if (bottomK[p] >= 0) anyWet = true;
-    // a column still wet at the last level read may go deeper: its floor is not known
-    const ownFloor = bottomK[own] >= 0 ? edges[bottomK[own] + 1] : 0;
-    seafloorM[r] = bottomK[own] === lastLevel && lastLevel < nz - 1 ? NaN : ownFloor;
+    for (let p = b; p < e; p++) if (surfaceWet[p]) anyWet = true;
     let num = 0, den = 0, zNum = 0;
     let ownHasValue = false;
     for (let p = b; p < e; p++) {
@@ -190,7 +207,7 @@ export async function sampleStations(field: FieldSource, st: StationPositions, o
         zc = st.depth[r];
       }
       if (v !== v) continue;
-      if (p === own) ownHasValue = true;
+      if (p === o) ownHasValue = true;
       if (method === 'nearest') {
         num = v;
         zNum = zc;
@@ -208,6 +225,34 @@ export async function sampleStations(field: FieldSource, st: StationPositions, o
     } else {
       status[r] = anyWet ? 'below_seafloor' : 'on_land';
     }
+    if (!surfaceWet[o]) seafloorM[r] = 0;
   }
+
+  // the seafloor of the own column where it explains a status, or where the station is at the seafloor:
+  // a second pass over the levels above, only for the stations whose own column is dry at their depth
+  const explain: number[] = [];
+  let explainTo = -1;
+  for (let r = 0; r < n; r++) {
+    if (own[r] < 0 || !surfaceWet[own[r]]) continue;
+    if (st.seafloor[r]) {
+      seafloorM[r] = bottomK[own[r]] >= 0 ? edges[bottomK[own[r]] + 1] : 0;
+    } else if (status[r] === 'from_neighbour' || status[r] === 'below_seafloor') {
+      explain.push(r);
+      explainTo = Math.max(explainTo, Math.min(kLo[r], nz - 1));
+    }
+  }
+  for (let k = 0; k <= explainTo; k++) track(await field.readLevel(t, k), k, explain);
+  for (const r of explain) seafloorM[r] = bottomK[own[r]] >= 0 ? edges[bottomK[own[r]] + 1] : 0;
   return { model, status, seafloorM, modelDepthM };
+}
+
+/** Rows grouped by a level key (counting sort); keys outside 0..nz-1 are left out. */
+function bucket(keys: Int32Array, nz: number): { start: Int32Array; rows: Int32Array } {
+  const start = new Int32Array(nz + 1);
+  for (let r = 0; r < keys.length; r++) if (keys[r] >= 0 && keys[r] < nz) start[keys[r] + 1]++;
+  for (let k = 0; k < nz; k++) start[k + 1] += start[k];
+  const fill = start.slice(0, nz);
+  const rows = new Int32Array(start[nz]);
+  for (let r = 0; r < keys.length; r++) if (keys[r] >= 0 && keys[r] < nz) rows[fill[keys[r]]++] = r;
+  return { start, rows };
 }
