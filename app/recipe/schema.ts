@@ -29,7 +29,11 @@ export const referenceSchema = z.strictObject({
   variables: variablesSchema,
 });
 
-export const snapshotSchema = z.strictObject({ file: nonEmpty, year: z.number() });
+/**
+ * One spin-up snapshot: a file and the model year it shows. Without a year the file's CF time axis gives it
+ * (one snapshot per time step); a snapshot with neither is refused by the spin-up part, naming the file.
+ */
+export const snapshotSchema = z.strictObject({ file: nonEmpty, year: z.number().optional() });
 
 export const runSchema = z.strictObject({
   label: nonEmpty,

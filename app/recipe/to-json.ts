@@ -32,7 +32,7 @@ export function recipeToJson(recipe: Recipe, dir: string = recipe.baseDir): Reci
     reference: sourceJson(recipe.reference, dir),
     runs: recipe.runs.map((r) => ({
       ...sourceJson(r, dir),
-      ...(r.snapshots ? { snapshots: r.snapshots.map((s) => ({ file: rel(s.file, dir), year: s.year })) } : {}),
+      ...(r.snapshots ? { snapshots: r.snapshots.map((s) => ({ file: rel(s.file, dir), ...(s.year !== undefined ? { year: s.year } : {}) })) } : {}),
     })),
     regions: recipe.regions.map((r) => {
       if (r.kind === 'built-in') return r.name as 'global';

@@ -18,7 +18,8 @@ export interface SourceSpec {
   /** the source's default file (absolute), if given */
   file?: string;
   variables: Record<string, VariableSource>;
-  snapshots?: { file: string; year: number }[];
+  /** spin-up snapshots; a missing year is taken from the file's time axis (app/spinup) */
+  snapshots?: { file: string; year?: number }[];
   /** recipe path, e.g. reference or runs[1] */
   path: string;
 }

@@ -71,23 +71,24 @@ export async function spinupFromRecipe(recipe: Recipe, opts: SpinupOptions = {})
   const settings: SpinupSettings = { ...DEFAULT_SETTINGS, nominalDensity: recipe.options.nominalDensity, ...opts.settings };
   const run = chooseRun(recipe, opts.run, !!opts.snapshots);
   const listName = opts.snapshots ? '--snapshots' : `${run.path}.snapshots`;
-  const snapshots: SnapshotSpec[] = opts.snapshots ?? (run.snapshots ?? []).map((s, i) => ({ ...s, origin: `${run.path}.snapshots[${i}]` }));
+  const snapshots: SnapshotSpec[] = opts.snapshots ?? (run.snapshots ?? []).map((s, i) => ({ file: s.file, year: s.year ?? NaN, origin: `${run.path}.snapshots[${i}]` }));
   if (snapshots.length === 0) throw new StillwaterError('E_RECIPE', `${listName}: run '${run.label}' lists no snapshots.`, { path: listName });
   const { tracers, skipped } = await chooseTracers(recipe, run, snapshots[0], opts.variables);
   const wantSkill = opts.skill !== false;
   const stage = (from: number, to: number) => (f: number, m: string) => opts.progress?.(from + (to - from) * f, m);
+  const layers = withWholeColumn(recipe.layers);
   const series = await seriesSums({
     snapshots,
     listName,
     tracers,
-    layers: withWholeColumn(recipe.layers),
+    layers,
     regions: (grid) => loadRegions(recipe.regions, grid),
     open: opts.open ?? openSnapshot,
     progress: stage(0, wantSkill ? 0.5 : 1),
     signal: opts.signal,
   });
   const skill = wantSkill
-    ? await skillOverTime({ recipe, run, snapshots: series.snapshots, tracers, cacheDir: opts.cacheDir, progress: stage(0.5, 1), signal: opts.signal })
+    ? await skillOverTime({ recipe, run, snapshots: series.snapshots, tracers, layers, cacheDir: opts.cacheDir, progress: stage(0.5, 1), signal: opts.signal })
     : [];
   const result = buildResult(run.label, series, settings, skill);
   if (skipped.length) result.notes.push(`Not followed (absent from the first snapshot): ${skipped.join(', ')}.`);

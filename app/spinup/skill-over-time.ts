@@ -1,5 +1,6 @@
 import { runComparison } from '../compare/run.js';
 import type { Recipe, SourceSpec, VariableSource } from '../recipe/types.js';
+import type { LayerSpec } from '../regions/layers.js';
 import type { SkillPoint, SnapshotSpec, TracerSpec } from './types.js';
 
 export interface SkillOverTimeInput {
@@ -8,6 +9,8 @@ export interface SkillOverTimeInput {
   snapshots: SnapshotSpec[];
   /** tracers by recipe variable key (`name`) and in-file name (`variable`) */
   tracers: TracerSpec[];
+  /** layers to score (default: the recipe's) */
+  layers?: LayerSpec[];
   cacheDir?: string;
   progress?: (fraction: number, message: string) => void;
   signal?: AbortSignal;
@@ -37,7 +40,7 @@ export async function skillOverTime(input: SkillOverTimeInput): Promise<SkillPoi
     }
     return { label: labelOf(s, i), variables, path: s.origin ?? `${run.path}.snapshots[${i}]` };
   });
-  const derived: Recipe = { ...recipe, runs, variables: scored.map((t) => t.name) };
+  const derived: Recipe = { ...recipe, runs, layers: input.layers ?? recipe.layers, variables: scored.map((t) => t.name) };
   const result = await runComparison(derived, { cacheDir: input.cacheDir, onProgress: input.progress, signal: input.signal });
   const yearOf = new Map(runs.map((r, i) => [r.label, input.snapshots[i].year]));
   return result.rows.map((row) => ({ ...row, run: run.label, year: yearOf.get(row.run) ?? NaN }));
