@@ -17,9 +17,10 @@ import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { ensureDemo } from '../../sample-data/generator/generate.js';
 
-export const PROJECT = join(__dirname, '..', '..');
+/** The project folder: tests run from it (vitest, and tests/bench/run.mjs which bundles this file elsewhere). */
+export const PROJECT = existsSync(join(process.cwd(), 'main', 'cli.ts')) ? process.cwd() : join(__dirname, '..', '..');
 export const SAMPLE_DATA = join(PROJECT, 'sample-data');
-export const SCREENSHOTS = join(__dirname, 'screenshots');
+export const SCREENSHOTS = join(PROJECT, 'tests', 'e2e', 'screenshots');
 export const CHROMIUM = '/usr/bin/chromium';
 const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'];
 
@@ -123,7 +124,7 @@ export async function openWorkbench(opts: { serveArgs?: string[]; viewport?: { w
     if (m.type() === 'error') consoleErrors.push(`${m.text()} (${m.location().url})`);
   });
   page.on('pageerror', (e) => consoleErrors.push(`page error: ${e.message}`));
-  await page.goto(served.url, { waitUntil: 'load' });
+  await page.goto(served.url, { waitUntil: 'load', timeout: 120_000 });
   if (opts.waitFor) await page.waitForSelector(opts.waitFor, { timeout: 60_000 });
   mkdirSync(SCREENSHOTS, { recursive: true });
   const origin = `http://127.0.0.1:${served.port}`;
