@@ -113,6 +113,11 @@ interface Figures {
   n: number;
 }
 
+/** The fastest time and the largest peak memory over the rounds. */
+function best(runs: Figures[]): Figures {
+  return { ms: Math.min(...runs.map((r) => r.ms)), peak_mb: Math.max(...runs.map((r) => r.peak_mb)), n: runs[0].n };
+}
+
 function runJson(cmd: string, args: string[]): Figures {
   const r = spawnSync(cmd, args, { encoding: 'utf8', maxBuffer: 1 << 24 });
   if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')} failed:\n${r.stderr}`);
@@ -133,15 +138,14 @@ async function main(): Promise<void> {
       writeFileSync(pointsFile, Buffer.concat([Buffer.from(p.lon.buffer), Buffer.from(p.lat.buffer), Buffer.from(p.depth.buffer)]));
       const oursOut = join(dir, `${mode}-ours.f64`);
       const peerOut = join(dir, `${mode}-peer.f64`);
-      let ours: Figures | null = null;
-      let peer: Figures | null = null;
+      const oursRuns: Figures[] = [];
+      const peerRuns: Figures[] = [];
       for (let round = 0; round < ROUNDS; round++) {
-        const o = runJson(process.execPath, [process.argv[1], 'child', mode, oursOut]);
-        const q = runJson('/usr/bin/python3', [PEER, mode, pointsFile, peerOut, String(REPEATS)]);
-        if (!ours || o.ms < ours.ms) ours = { ...o, peak_mb: Math.max(o.peak_mb, ours?.peak_mb ?? 0) };
-        if (!peer || q.ms < peer.ms) peer = { ...q, peak_mb: Math.max(q.peak_mb, peer?.peak_mb ?? 0) };
+        oursRuns.push(runJson(process.execPath, [process.argv[1], 'child', mode, oursOut]));
+        peerRuns.push(runJson('/usr/bin/python3', [PEER, mode, pointsFile, peerOut, String(REPEATS)]));
       }
-      if (!ours || !peer) throw new Error('no rounds ran');
+      const ours = best(oursRuns);
+      const peer = best(peerRuns);
       // the same numbers on both sides (the peer's transect is level-major too)
       const a = new Float64Array(readFileSync(oursOut).buffer.slice(0));
       const b = new Float64Array(readFileSync(peerOut).buffer.slice(0));
