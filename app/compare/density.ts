@@ -1,33 +1,58 @@
 /**
- * Seawater density for unit conversion between per-mass and per-volume concentrations: a nominal value
- * (default 1025 kg m-3, flagged in the output), or computed from the reference's temperature and salinity
- * on the common grid, level by level.
+ * Seawater density input for unit conversion between per-mass and per-volume concentrations: a nominal
+ * value (default 1025 kg m-3, flagged in the output), or the reference's potential temperature and practical
+ * salinity on the common grid, level by level, with the sea pressure of the level's centre depth (TEOS-10
+ * density in app/ocean; pressure at 45° latitude for every cell: the latitude changes it by well under 1 %).
  */
 import type { FieldSource } from '../cf/field.js';
-import { StillwaterError } from '../errors.js';
+import { parseUnits } from '../cf/units.js';
 import type { Grid } from '../grid/types.js';
+import { pressureFromDepth } from '../ocean/density.js';
 import type { Recipe, VariableSource } from '../recipe/types.js';
+import { makeLevelConverter, type DensityInput } from './level-units.js';
+import { readLevelAt, timeIndex } from './read-level.js';
 
 export interface DensityProvider {
   /** for notes: "a nominal density of 1025 kg m-3" */
   note: string;
-  level(k: number): Promise<ArrayLike<number> | number>;
+  level(k: number): Promise<DensityInput>;
+  close(): Promise<void>;
 }
 
-export function densityProvider(
-  recipe: Recipe,
-  _grid: Grid,
-  _regrid: (src: FieldSource, spec: VariableSource) => Promise<FieldSource>,
-): DensityProvider {
+export type OpenOnGrid = (spec: VariableSource) => Promise<FieldSource>;
+
+export function densityProvider(recipe: Recipe, grid: Grid, openOnGrid: OpenOnGrid): DensityProvider {
   const d = recipe.options.density;
   if (d === 'nominal') {
     const rho = recipe.options.nominalDensity;
-    return { note: `a nominal density of ${rho} kg m-3`, level: async () => rho };
+    return { note: `a nominal density of ${rho} kg m-3`, level: async () => ({ density: rho }), close: async () => undefined };
   }
+  const tSpec = recipe.reference.variables[d.fields.temperature];
+  const sSpec = recipe.reference.variables[d.fields.salinity];
+  let fields: Promise<[FieldSource, FieldSource]> | null = null;
+  const opened: FieldSource[] = [];
+  const degC = parseUnits('degC');
+  const open = (): Promise<[FieldSource, FieldSource]> =>
+    (fields ??= (async () => {
+      const t = await openOnGrid(tSpec);
+      opened.push(t);
+      const s = await openOnGrid(sSpec);
+      opened.push(s);
+      return [t, s];
+    })());
   return {
-    note: 'density from the reference temperature and salinity',
-    level: async () => {
-      throw new StillwaterError('E_RECIPE', 'options.density: density from temperature and salinity fields needs app/ocean, which this build lacks; use "nominal".', { path: 'options.density' });
+    note: `TEOS-10 density from the reference's ${d.fields.temperature} and ${d.fields.salinity}`,
+    async level(k) {
+      const [t, s] = await open();
+      let temperature = await readLevelAt(t, timeIndex(t, tSpec.time), k);
+      const toC = makeLevelConverter(t.units, degC, `${tSpec.path} (temperature for density)`, tSpec.name, false);
+      if (toC) temperature = toC.apply(temperature);
+      const salinity = await readLevelAt(s, timeIndex(s, sSpec.time), k);
+      const depth = grid.vertical ? grid.vertical.centres[k] : 0;
+      return { temperature, salinity, pressure: pressureFromDepth(Math.max(0, depth)) };
+    },
+    async close() {
+      for (const f of opened) await f.close?.().catch(() => undefined);
     },
   };
 }

@@ -7,6 +7,8 @@ import { existsSync, statSync } from 'node:fs';
 import { isAbsolute, resolve } from 'node:path';
 import { StillwaterError } from '../errors.js';
 import type { LayerSpec } from '../regions/layers.js';
+import { parseUnits } from '../cf/units.js';
+import { parseExpression } from '../ocean/expression.js';
 import { formatPath } from './paths.js';
 import { recipeSchema, type LayerEntry, type ParsedRecipe, type RegionEntry } from './schema.js';
 import type { Recipe, ResolvedRegion, SourceSpec, VariableSource } from './types.js';
@@ -55,6 +57,10 @@ function resolveRegion(r: RegionEntry, i: number, baseDir: string): ResolvedRegi
   return { kind: 'geojson', file: existingFile(baseDir, r.geojson, `${path}.geojson`), property: r.property ?? 'name', features: r.features, path };
 }
 
+function lowerFirst(s: string): string {
+  return s.charAt(0).toLowerCase() + s.slice(1);
+}
+
 export function layerFromEntry(l: LayerEntry): LayerSpec {
   if (Array.isArray(l)) return { kind: 'interval', top: l[0], bottom: l[1] };
   return { kind: l };
@@ -74,7 +80,22 @@ export function validateRecipe(json: unknown, baseDir: string): Recipe {
   if (refKeys.length === 0) throw recipeError('reference.variables', 'names no variable.');
   const derivedKeys = Object.keys(p.options.derived);
   for (const d of derivedKeys) {
-    if (refKeys.includes(d)) throw recipeError(`options.derived.${d}`, `clashes with the reference variable '${d}'.`);
+    const path = `options.derived.${d}`;
+    if (refKeys.includes(d)) throw recipeError(path, `clashes with the reference variable '${d}'.`);
+    const def = p.options.derived[d];
+    let used: string[];
+    try {
+      used = parseExpression(def.expression).variables;
+    } catch (e) {
+      throw recipeError(`${path}.expression`, lowerFirst((e as Error).message));
+    }
+    if (used.length === 0) throw recipeError(`${path}.expression`, 'uses no variable.');
+    for (const u of used) if (!refKeys.includes(u)) throw recipeError(`${path}.expression`, `the reference has no variable '${u}'.`);
+    try {
+      parseUnits(def.units);
+    } catch (e) {
+      throw recipeError(`${path}.units`, lowerFirst((e as Error).message));
+    }
   }
   runs.forEach((run) => {
     for (const key of Object.keys(run.variables)) {

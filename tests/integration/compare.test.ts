@@ -115,6 +115,52 @@ describe('runComparison against numpy', () => {
     }
   });
 
+  it('density from temperature and salinity: TEOS-10 conversion equals numpy with gsw.rho (python3-gsw)', async () => {
+    const res = await runComparison(
+      validateRecipe(
+        {
+          ...recipe(),
+          reference: { label: 'Climatology', variables: { PO4: { file: 'ref.nc', name: 'p_mean' }, T: { file: 'ts.nc', name: 'theta' }, S: { file: 'ts.nc', name: 'salt' } } },
+          runs: [recipe().runs[0]],
+          regions: ['global'],
+          layers: ['all'],
+          options: { density: { fields: { temperature: 'T', salinity: 'S' } } },
+        },
+        fx,
+      ),
+      { cacheDir: cache },
+    );
+    const e = expected['global|all|teos10'];
+    const r = row(res.rows.filter((x) => x.variable === 'PO4'), 'Same grid', 'global', 'all');
+    expect(r.n).toBe(e.n);
+    // our pressure comes from a low-order depth relation, gsw's from p_from_z: densities agree to ~1e-6
+    for (const k of ['model_mean', 'bias', 'rmse', 'corr'] as const) close(r[k] as number, e[k], 2e-5, k);
+    expect(res.variables.find((v) => v.variable === 'PO4')!.conversions[0].note).toMatch(/TEOS-10 density from the reference's T and S/);
+    // and it differs from the nominal-density result by more than that tolerance
+    expect(Math.abs(r.model_mean! - row(result.rows, 'Same grid', 'global', 'all').model_mean!)).toBeGreaterThan(1e-4);
+  });
+
+  it('a derived variable 16·PO4 + 2.9: bias and RMSE scale by 16, correlation unchanged (linear algebra)', async () => {
+    const res = await runComparison(
+      validateRecipe({ ...recipe(), runs: [recipe().runs[0]], regions: ['global'], layers: ['all', [0, 100]], options: { derived: { N16: { expression: '16 * PO4 + 2.9', units: 'umol kg-1' } }, logStats: ['PO4'] } }, fx),
+      { cacheDir: cache },
+    );
+    for (const layer of ['all', '0-100 m']) {
+      const p = row(res.rows.filter((x) => x.variable === 'PO4'), 'Same grid', 'global', layer);
+      const d = row(res.rows.filter((x) => x.variable === 'N16'), 'Same grid', 'global', layer);
+      expect(d.n).toBe(p.n);
+      expect(d.bias! / p.bias!).toBeCloseTo(16, 4);
+      expect(d.rmse! / p.rmse!).toBeCloseTo(16, 4);
+      expect(d.corr!).toBeCloseTo(p.corr!, 6);
+      expect(d.ref_mean!).toBeCloseTo(16 * p.ref_mean! + 2.9, 4);
+      // log10 statistics were asked for PO4 only
+      expect(p.log10_n).toBe(p.n);
+      expect(d.log10_n).toBeUndefined();
+    }
+    expect(res.variables.map((v) => v.variable)).toEqual(['PO4', 'N16']);
+    expect(res.costs[0].terms.map((t) => t.variable)).toEqual(['PO4', 'N16']);
+  });
+
   it('a region with no compared cells is a row with n = 0 and a note, not a crash', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'sw-empty-'));
     for (const f of ['ref.nc', 'run_same.nc']) writeFileSync(join(dir, f), readFileSync(join(fx, f)));

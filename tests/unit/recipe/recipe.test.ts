@@ -87,6 +87,10 @@ describe('recipe', () => {
     fails({ ...minimal(), options: { coverage: 2 } }, /^options\.coverage: /);
     fails({ ...minimal(), reference: { label: 'C', variables: { PO4: { name: 'p' } } } }, /^reference\.variables\.PO4\.file: no file given/);
     fails({ reference: minimal().reference }, /^runs: is required\.$/);
+    fails({ ...minimal(), options: { derived: { X: { expression: 'PO4 * ', units: '1' } } } }, /^options\.derived\.X\.expression: expression 'PO4 \* ': /);
+    fails({ ...minimal(), options: { derived: { X: { expression: '16 * NO3', units: '1' } } } }, /^options\.derived\.X\.expression: the reference has no variable 'NO3'\.$/);
+    fails({ ...minimal(), options: { derived: { X: { expression: 'PO4', units: 'furlongs' } } } }, /^options\.derived\.X\.units: /);
+    fails({ ...minimal(), options: { derived: { PO4: { expression: 'PO4', units: '1' } } } }, /^options\.derived\.PO4: clashes with the reference variable 'PO4'\.$/);
   });
 
   it('loadRecipe: not JSON and no such file are one sentence each naming the file', async () => {

@@ -1,0 +1,117 @@
+/**
+ * One source's values of one variable on the common grid and in the table's units, level by level.
+ * Plain variables: open, regrid if the grid differs, pick the time step, convert. Derived variables:
+ * each input read that way (in the reference's units of that input), then the expression.
+ */
+import type { FieldSource } from '../cf/field.js';
+import { openField } from '../cf/open-field.js';
+import type { ParsedUnits } from '../cf/units.js';
+import { StillwaterError } from '../errors.js';
+import type { Grid } from '../grid/types.js';
+import { evaluateExpression, parseExpression } from '../ocean/expression.js';
+import type { SourceSpec, VariableSource } from '../recipe/types.js';
+import { regridField } from '../regrid/field.js';
+import type { RecipeOptions } from '../recipe/schema.js';
+import { sameGrid } from './common-grid.js';
+import { looksLikeOxygen, makeLevelConverter, type DensityInput } from './level-units.js';
+import { prefixed } from './load-regions.js';
+import { readLevelAt, timeIndex } from './read-level.js';
+
+export interface LevelReader {
+  needsDensity: boolean;
+  /** notes for the output: regridding, conversions */
+  regridded: boolean;
+  conversions: string[];
+  read(k: number, density: DensityInput | undefined): Promise<Float32Array>;
+  close(): Promise<void>;
+}
+
+export interface ReaderContext {
+  grid: Grid;
+  options: RecipeOptions;
+  cacheDir?: string;
+  densityNote: string;
+  /** every file opened, for provenance */
+  noteFile(path: string): void;
+}
+
+export async function openSpec(spec: VariableSource): Promise<FieldSource> {
+  return prefixed(spec.path, () => openField(spec.file, spec.name, spec.units ? { units: spec.units } : undefined));
+}
+
+/** The field on the common grid (the same object when it already is). */
+export async function onGrid(field: FieldSource, spec: VariableSource, ctx: Pick<ReaderContext, 'grid' | 'options' | 'cacheDir'>): Promise<FieldSource> {
+  const grid = ctx.grid;
+  if (sameGrid(field.grid, grid)) return field;
+  if ((field.grid.vertical === null) !== (grid.vertical === null)) {
+    throw new StillwaterError('E_GRID', `${spec.path}: '${spec.name}' in ${spec.file} is ${field.grid.vertical ? '3-D' : '2-D'} but the common grid is ${grid.vertical ? '3-D' : '2-D'}.`, { path: spec.path });
+  }
+  return prefixed(spec.path, () => regridField(field, grid, { method: ctx.options.method, coverage: ctx.options.coverage, cacheDir: ctx.cacheDir }));
+}
+
+export async function plainReader(key: string, spec: VariableSource, target: ParsedUnits, ctx: ReaderContext, opened?: FieldSource): Promise<LevelReader> {
+  const field = opened ?? (await openSpec(spec));
+  ctx.noteFile(spec.file);
+  try {
+    const src = await onGrid(field, spec, ctx);
+    const t = timeIndex(src, spec.time);
+    if (t !== 'mean' && (t < 0 || t >= src.nt)) {
+      throw new StillwaterError('E_RECIPE', `${spec.path}.time: step ${spec.time} is outside the file's ${src.nt} time steps.`, { path: `${spec.path}.time` });
+    }
+    const convert = makeLevelConverter(field.units, target, `${spec.path} ('${spec.name}' in ${spec.file})`, spec.name, looksLikeOxygen(key, field.standardName));
+    return {
+      needsDensity: convert?.needsDensity ?? false,
+      regridded: src !== field,
+      conversions: convert ? [convert.describe(ctx.densityNote)] : [],
+      async read(k, density) {
+        const v = await readLevelAt(src, t, k);
+        return convert ? convert.apply(v, density) : v;
+      },
+      close: async () => {
+        await field.close?.().catch(() => undefined);
+      },
+    };
+  } catch (e) {
+    await field.close?.().catch(() => undefined);
+    throw e;
+  }
+}
+
+/**
+ * A derived variable of one source: its inputs (other variables of the same source) each brought into the
+ * reference's units for that input, then the expression; the result is in the units the recipe declares.
+ */
+export async function derivedReader(
+  name: string,
+  expression: string,
+  source: SourceSpec,
+  inputUnits: (key: string) => Promise<ParsedUnits>,
+  ctx: ReaderContext,
+): Promise<LevelReader> {
+  const parsed = await prefixed(`options.derived.${name}.expression`, async () => parseExpression(expression));
+  const readers: { key: string; reader: LevelReader }[] = [];
+  try {
+    for (const key of parsed.variables) {
+      const spec = source.variables[key];
+      if (!spec) throw new StillwaterError('E_RECIPE', `options.derived.${name}.expression: ${source.path} has no variable '${key}'.`, { path: `options.derived.${name}.expression` });
+      readers.push({ key, reader: await plainReader(key, spec, await inputUnits(key), ctx) });
+    }
+  } catch (e) {
+    for (const r of readers) await r.reader.close();
+    throw e;
+  }
+  const n = ctx.grid.horizontal.nx * ctx.grid.horizontal.ny;
+  return {
+    needsDensity: readers.some((r) => r.reader.needsDensity),
+    regridded: readers.some((r) => r.reader.regridded),
+    conversions: readers.flatMap((r) => r.reader.conversions.map((c) => `${r.key}: ${c}`)),
+    async read(k, density) {
+      const inputs: Record<string, Float32Array> = {};
+      for (const r of readers) inputs[r.key] = await r.reader.read(k, density);
+      return evaluateExpression(parsed, inputs, n);
+    },
+    async close() {
+      for (const r of readers) await r.reader.close();
+    },
+  };
+}
