@@ -33,8 +33,8 @@ export function coordinateRole(v: RawVariable): Role | undefined {
   const degrees = /^degrees?$/i.test(units);
   if (axis === 'X' && (degrees || LON_NAMES.test(v.name))) return 'lon';
   if (axis === 'Y' && (degrees || LAT_NAMES.test(v.name))) return 'lat';
-  // last resort: the name (and, for 1-D coordinate variables, the dimension's name)
-  const names = [v.name, ...(v.dims.length === 1 ? [v.dims[0]] : [])];
+  // last resort: the name (a coordinate variable's name is its dimension's name)
+  const names = [v.name];
   if (names.some((n) => LON_NAMES.test(n)) && (units === '' || degrees)) return 'lon';
   if (names.some((n) => LAT_NAMES.test(n)) && (units === '' || degrees)) return 'lat';
   if (names.some((n) => VERTICAL_NAMES.test(n)) && (units === '' || LENGTH_UNITS.test(units))) return 'vertical';

@@ -2,9 +2,11 @@
  * What a file holds, CF-decoded: dimensions, variables with their units and names, the grid and time axis
  * of its data variables and, on request, each data variable's decoded min, max, mean and count of valid
  * values (computed level by level, so memory stays bounded).
- * Every data variable with two or more dimensions must sit on a grid we can build, with units we know:
- * the first that does not is reported as bad input.
+ * Every data variable with two or more dimensions should sit on a grid we can build, with units we know.
+ * One that does not gets its problem (one sentence) in the report; when none of them does, the first
+ * problem is thrown as bad input, since then the file is of no use to a comparison.
  */
+import { isStillwaterError, type StillwaterError } from '../errors.js';
 import { openDataset } from '../io/open.js';
 import { attrString, type DatasetFormat, type RawDataset, type RawVariable } from '../io/types.js';
 import { auxiliaryNames } from './coords.js';
@@ -59,6 +61,8 @@ export interface VariableSummary {
   long_name: string | null;
   /** data (what a comparison would read) or coordinate (coordinates, bounds, grid mappings) */
   role: 'data' | 'coordinate';
+  /** why a data variable cannot be used as a field (no grid, unknown units, ...), one sentence */
+  problem?: string;
   stats?: ValueStats;
 }
 
@@ -100,9 +104,19 @@ export async function inspectDataset(ds: RawDataset, opts: InspectOptions = {}):
   const fields = new Map<string, FieldSource>();
   // data variables with the most dimensions first: their grid is the file's grid
   const data = ds.variables.filter((v) => isDataVariable(v, aux));
+  const problems = new Map<string, StillwaterError>();
   for (const v of [...data].sort((a, b) => b.dims.length - a.dims.length)) {
     if (v.dims.length < 2) continue;
-    const field = await fieldFromDataset(ds, v.name);
+    let field: FieldSource;
+    try {
+      field = await fieldFromDataset(ds, v.name);
+    } catch (e) {
+      if (isStillwaterError(e) && e.isBadInput) {
+        problems.set(v.name, e);
+        continue;
+      }
+      throw e;
+    }
     fields.set(v.name, field);
     const g = gridSummary(field);
     const same = grids.find((x) => sameGrid(x, g));
@@ -120,6 +134,7 @@ export async function inspectDataset(ds: RawDataset, opts: InspectOptions = {}):
       };
     }
   }
+  if (problems.size > 0 && fields.size === 0) throw problems.values().next().value!;
   const variables: VariableSummary[] = ds.variables.map((v) => ({
     name: v.name,
     dims: v.dims,
@@ -129,13 +144,14 @@ export async function inspectDataset(ds: RawDataset, opts: InspectOptions = {}):
     standard_name: attrString(v.attrs, 'standard_name') ?? null,
     long_name: attrString(v.attrs, 'long_name') ?? null,
     role: isDataVariable(v, aux) ? 'data' : 'coordinate',
+    ...(problems.has(v.name) ? { problem: problems.get(v.name)!.message } : {}),
   }));
   if (opts.stats) {
     const todo = variables.filter((x) => x.role === 'data');
     for (const [n, summary] of todo.entries()) {
       opts.progress?.(n / todo.length, `statistics of ${summary.name}`);
       const field = fields.get(summary.name);
-      summary.stats = field ? await fieldStats(field) : await wholeStats(ds, ds.variables.find((x) => x.name === summary.name)!);
+      summary.stats = field ? await fieldStats(field) : await slabStats(ds, ds.variables.find((x) => x.name === summary.name)!);
     }
     opts.progress?.(1, 'statistics done');
   }
@@ -215,9 +231,17 @@ export async function fieldStats(f: FieldSource): Promise<ValueStats> {
   return acc.result();
 }
 
-/** Variables of at most one dimension are small: decode them whole. */
-async function wholeStats(ds: RawDataset, v: RawVariable): Promise<ValueStats> {
+/** Variables off any grid: decoded one slab along their first dimension at a time. */
+async function slabStats(ds: RawDataset, v: RawVariable): Promise<ValueStats> {
   const acc = new Accumulator();
-  acc.add(decodeValues(v, await ds.read(v.name)));
+  if (v.shape.length <= 1) {
+    acc.add(decodeValues(v, await ds.read(v.name)));
+    return acc.result();
+  }
+  const count = [1, ...v.shape.slice(1)];
+  for (let i = 0; i < v.shape[0]; i++) {
+    const start = v.shape.map((_, d) => (d === 0 ? i : 0));
+    acc.add(decodeValues(v, await ds.read(v.name, start, count)));
+  }
   return acc.result();
 }

@@ -89,6 +89,7 @@ export function formatReport(r: InspectReport): string {
     const rendered = table(rows);
     vars.forEach((v, i) => {
       lines.push(rendered[i]);
+      if (v.problem) lines.push(`      ! not usable as a field: ${v.problem.replace(`${r.file}, variable '${v.name}': `, '')}`);
       if (v.stats) {
         const s = v.stats;
         lines.push(
@@ -120,6 +121,7 @@ export function reportJson(r: InspectReport): unknown {
       units: v.units,
       standard_name: v.standard_name,
       long_name: v.long_name,
+      problem: v.problem ?? null,
       stats: v.stats ?? null,
     })),
   };
