@@ -15,7 +15,7 @@ const LON_NAMES = /^(nav_)?(lon|long|longitude|glam[tuvf]?|lon_rho|xlon|geolon(_
 const LAT_NAMES = /^(nav_)?(lat|latitude|gphi[tuvf]?|lat_rho|xlat|geolat(_t)?|tlat|ulat)$/i;
 const VERTICAL_NAMES = /^(depth|deptht|depthu|depthv|depthw|lev|level|levels|z|zt|zlev|st_ocean|sw_ocean|nav_lev|olevel|height|altitude)$/i;
 const TIME_NAMES = /^(time|t|times|date)$/i;
-const VERTICAL_STANDARD = new Set(['depth', 'height', 'altitude', 'depth_below_geoid', 'height_above_geoid', 'sea_floor_depth_below_sea_surface']);
+const VERTICAL_STANDARD = new Set(['depth', 'height', 'altitude', 'depth_below_geoid', 'height_above_geoid']);
 const LENGTH_UNITS = /^(m|meters?|metres?|cm|centimeters?|centimetres?|km|kilometers?|kilometres?|mm)$/i;
 
 /** The role a variable plays as a coordinate, or undefined. */

@@ -1,5 +1,7 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { deriveCorners, makeCurvilinearGrid, nearLongitude } from '../../../app/grid/curvilinear.js';
+import { deriveCorners, makeCurvilinearGrid, nearLongitude, quadArea } from '../../../app/grid/curvilinear.js';
 import { latLonCellArea } from '../../../app/grid/rectilinear.js';
 import { sphericalPolygonArea } from '../../../app/grid/spherical-area.js';
 import { EARTH_RADIUS_M } from '../../../app/grid/types.js';
@@ -87,5 +89,20 @@ describe('curvilinear grid areas', () => {
   });
   it('rejects mismatched sizes', () => {
     expect(() => makeCurvilinearGrid(new Float64Array(5), new Float64Array(6), 3, 2)).toThrow(/needs 6/);
+  });
+});
+
+describe('spherical polygon areas equal pyproj.Geod on a sphere (geodesics are great circles)', () => {
+  // made by tests/fixtures/cf/make_polygon_areas.py with pyproj.Geod(a=R1, b=R1).polygon_area_perimeter
+  const fixture = JSON.parse(readFileSync(join(__dirname, '../../fixtures/cf/polygon-areas.json'), 'utf8')) as {
+    radius: number;
+    cases: { lon: number[]; lat: number[]; area: number }[];
+  };
+  it('uses the same radius', () => expect(fixture.radius).toBe(EARTH_RADIUS_M));
+  fixture.cases.forEach((c, n) => {
+    it(`quadrilateral ${n} (${c.lon[0].toFixed(1)}, ${c.lat[0].toFixed(1)})`, () => {
+      expect(Math.abs(sphericalPolygonArea(c.lon, c.lat) / c.area - 1)).toBeLessThan(1e-9);
+      expect(Math.abs(quadArea(c.lon, c.lat, 0) / c.area - 1)).toBeLessThan(1e-9);
+    });
   });
 });
