@@ -1,0 +1,94 @@
+/**
+ * Skill table writers. CSV per RFC 4180 (quotes doubled, CRLF); LaTeX special characters per the LaTeX manual
+ * (common practice); undefined numbers print "—" in human tables, never NaN; outputs are all-or-nothing.
+ */
+import { chmodSync, existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import type { ComparisonResult } from '../../../app/compare/run.js';
+import { makeRow, NO_CELLS_NOTE } from '../../../app/compare/rows.js';
+import { emptyMoments, pairMoments } from '../../../app/stats/moments.js';
+import { consoleTable, skillCsv, skillLatex, skillMarkdown, texEscape, texUnits, writeFilesAtomically, writeSkillTables, type Provenance } from '../../../app/report/index.js';
+
+const ctx = { run: 'Run "A", v2', variable: 'PO4', region: 'global', layer: '0-100 m', units: 'umol kg-1', weightUnits: 'm3' };
+const full = makeRow(ctx, { region: 0, layer: 0, moments: pairMoments(Float64Array.of(1, 2, 4), Float64Array.of(1.5, 2, 3), Float64Array.of(1, 1, 2)), refWeight: 8 });
+const empty = makeRow({ ...ctx, region: 'arctic' }, { region: 1, layer: 0, moments: emptyMoments(), refWeight: 0 });
+const result: ComparisonResult = {
+  rows: [full, empty],
+  costs: [{ run: 'Run "A", v2', cost: 0.25, terms: [{ variable: 'PO4', term: 0.25 }] }],
+  variables: [{ variable: 'PO4', units: 'umol kg-1', grid: { nx: 1, ny: 1, nz: 1, kind: 'rectilinear' }, conversions: [], regridded: [] }],
+  inputs: [],
+};
+const prov: Provenance = { tool: 'stillwater', version: '0.1.0', date: '2026-12-01T00:00:00Z', recipe: null, inputs: [], options: {}, regions: [], layers: [], variables: [] };
+
+describe('skill tables', () => {
+  it('an empty region is a row with n = 0, nulls and a note', () => {
+    expect(empty).toMatchObject({ n: 0, bias: null, rmse: null, compared_fraction: null, note: NO_CELLS_NOTE });
+    expect(full.compared_fraction).toBeCloseTo(4 / 8, 15);
+  });
+
+  it('CSV: header in DESIGN.md order, quotes doubled, empty field for undefined, CRLF line ends (RFC 4180)', () => {
+    const csv = skillCsv(result.rows);
+    const lines = csv.split('\r\n');
+    expect(lines[0].split(',').slice(0, 16)).toEqual(['run', 'variable', 'region', 'layer', 'units', 'n', 'weight', 'model_mean', 'ref_mean', 'bias', 'rmse', 'crmse', 'corr', 'model_std', 'ref_std', 'std_ratio']);
+    expect(lines[1].startsWith('"Run ""A"", v2",PO4,global,0-100 m,umol kg-1,3,4,')).toBe(true);
+    expect(lines[2]).toMatch(/^"Run ""A"", v2",PO4,arctic,0-100 m,umol kg-1,0,0,,,,,/);
+    expect(csv).not.toMatch(/NaN/);
+  });
+
+  it('Markdown and the console table print "—" for undefined numbers and never NaN', () => {
+    const md = skillMarkdown(result, prov);
+    expect(md).toMatch(/\| arctic \| 0-100 m \| 0 \| — \| — \|/);
+    expect(md).toMatch(/arctic, 0-100 m: no compared cells/);
+    expect(md).not.toMatch(/NaN/);
+    const table = consoleTable(result.rows);
+    expect(table.split('\n')).toHaveLength(3);
+    expect(table).toMatch(/arctic\s+0-100 m\s+0\s+—/);
+  });
+
+  it('LaTeX: booktabs rules, special characters escaped, units with exponents', () => {
+    expect(texEscape('a_b & 50% #1 {x} $')).toBe('a\\_b \\& 50\\% \\#1 \\{x\\} \\$');
+    expect(texUnits('umol kg-1')).toBe('$\\mu$mol\\,kg$^{-1}$');
+    expect(texUnits('mmol m-3')).toBe('mmol\\,m$^{-3}$');
+    const tex = skillLatex(result);
+    expect(tex).toMatch(/\\toprule[\s\S]*\\midrule[\s\S]*\\bottomrule/);
+    expect(tex).toMatch(/Run "A", v2 & arctic & 0-100 m & 0 & --- & ---/);
+    // braces balance
+    const opens = (tex.match(/(?<!\\)\{/g) ?? []).length;
+    const closes = (tex.match(/(?<!\\)\}/g) ?? []).length;
+    expect(opens).toBe(closes);
+  });
+
+  it('writes the four tables into a new folder', async () => {
+    const dir = join(mkdtempSync(join(tmpdir(), 'sw-report-')), 'out');
+    const files = await writeSkillTables(dir, result, prov);
+    expect(readdirSync(dir).sort()).toEqual(['skill.csv', 'skill.json', 'skill.md', 'skill.tex']);
+    const json = JSON.parse(readFileSync(files[0], 'utf8'));
+    expect(json.rows[1].bias).toBeNull();
+    expect(json.provenance.version).toBe('0.1.0');
+  });
+
+  it('all or nothing: when one file cannot be written, none is, and no temporary is left', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'sw-report-'));
+    writeFileSync(join(dir, 'old.md'), 'before');
+    // the second target is a folder, so its rename fails after the first file was staged
+    const blocker = join(dir, 'b.csv');
+    writeFileSync(join(dir, 'keep'), '');
+    await import('node:fs').then((fs) => fs.mkdirSync(blocker));
+    await expect(writeFilesAtomically([{ path: join(dir, 'a.json'), text: '{}' }, { path: blocker, text: 'x' }])).rejects.toThrow(/cannot be written/);
+    expect(readdirSync(dir).sort()).toEqual(['b.csv', 'keep', 'old.md']);
+    expect(existsSync(join(dir, 'a.json'))).toBe(false);
+    // an earlier file at a target survives a failed write unchanged
+    await expect(writeFilesAtomically([{ path: join(dir, 'old.md'), text: 'after' }, { path: blocker, text: 'x' }])).rejects.toThrow(/b\.csv: cannot be written/);
+    expect(readFileSync(join(dir, 'old.md'), 'utf8')).toBe('before');
+    expect(readdirSync(dir).sort()).toEqual(['b.csv', 'keep', 'old.md']);
+    await writeFilesAtomically([{ path: join(dir, 'old.md'), text: 'after' }]);
+    expect(readFileSync(join(dir, 'old.md'), 'utf8')).toBe('after');
+    if (process.getuid?.() !== 0) {
+      chmodSync(dir, 0o500);
+      await expect(writeSkillTables(dir, result, prov)).rejects.toThrow(/the output folder cannot be written/);
+      chmodSync(dir, 0o700);
+    }
+  });
+});
