@@ -63,6 +63,9 @@ for (const [prefix, f] of [['', 1e3], ['m', 1], ['u', 1e-3], ['µ', 1e-3], ['μ'
   whole([`${prefix}M`, `${prefix}mol/L`], { kind: 'amount_per_volume', canonical: canonicalAmount(f, 'm-3'), factor: f, offset: 0 });
 }
 
+const WHOLE_ANY_CASE = new Map<string, Omit<ParsedUnits, 'text'>>();
+for (const [k, u] of Object.entries(WHOLE)) if (k.length > 2 && !WHOLE_ANY_CASE.has(k.toLowerCase())) WHOLE_ANY_CASE.set(k.toLowerCase(), u);
+
 /** Dimension exponents of a unit product: amount (mol), mass (kg), length (m), time (s), temperature, angle. */
 interface Dim {
   mol: number;
@@ -203,7 +206,8 @@ function parseProduct(text: string): Dim {
  */
 export function parseUnits(text: string): ParsedUnits {
   const trimmed = text.trim();
-  const w = WHOLE[trimmed];
+  // exact spelling first (mM is not MM); longer names also in any letter case ("Degrees Celsius")
+  const w = WHOLE[trimmed] ?? (trimmed.length > 2 ? WHOLE_ANY_CASE.get(trimmed.toLowerCase()) : undefined);
   if (w) return { text, ...w };
   if (/\bsince\b/.test(trimmed)) throw new StillwaterError('E_UNITS', `units '${text}' are a time coordinate, not the units of a field.`);
   const d = parseProduct(trimmed);

@@ -53,7 +53,7 @@ describe('parseUnits: oxygen as gas volume per volume', () => {
 
 describe('parseUnits: temperature, salinity, dimensionless, length', () => {
   it('Celsius spellings are degC', () => {
-    for (const t of ['degC', 'deg_C', 'degrees_celsius', 'Celsius', 'degree_Celsius']) {
+    for (const t of ['degC', 'deg_C', 'degrees_celsius', 'Celsius', 'degree_Celsius', 'Degrees Celsius', 'DEGC']) {
       const u = parseUnits(t);
       expect([u.kind, u.canonical, u.factor, u.offset]).toEqual(['temperature', 'degC', 1, 0]);
     }

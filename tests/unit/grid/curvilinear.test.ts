@@ -106,3 +106,24 @@ describe('spherical polygon areas equal pyproj.Geod on a sphere (geodesics are g
     });
   });
 });
+
+describe('derived corners on a grid that is affine in longitude and latitude', () => {
+  it('equal the CF bounds netCDF4-python wrote for tests/fixtures/cf/curvilinear.nc (same formula there)', async () => {
+    const { openDataset } = await import('../../../app/io/open.js');
+    const ds = await openDataset(join(__dirname, '../../fixtures/cf/curvilinear.nc'));
+    try {
+      const lon = (await ds.read('lon')) as Float64Array;
+      const lat = (await ds.read('lat')) as Float64Array;
+      const blon = (await ds.read('lon_bnds')) as Float64Array;
+      const blat = (await ds.read('lat_bnds')) as Float64Array;
+      // averages of four centres and linear extrapolation are exact for an affine grid
+      const c = deriveCorners(lon, lat, 8, 5, false);
+      for (let q = 0; q < blon.length; q++) {
+        expect(c.lon[q]).toBeCloseTo(blon[q], 9);
+        expect(c.lat[q]).toBeCloseTo(blat[q], 9);
+      }
+    } finally {
+      await ds.close();
+    }
+  });
+});
