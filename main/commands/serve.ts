@@ -43,9 +43,9 @@ async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean
   const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: join(process.cwd(), '.stillwater-cache'), heavy: workerRunner() });
   const server = await startServer({ dispatcher, port: s.port, startRecipe: s.recipe, root });
   if (!existsSync(join(root, 'dist', 'renderer', 'index.html'))) err('serve: dist/renderer/index.html is missing; run npm run build.');
-  out(server.url);
   err(`serve: the workbench is at ${server.url}`);
   err(`serve: files readable under ${guard.roots.join(', ')}; press Ctrl+C to stop.`);
+  out(server.url);
   if (openBrowser) {
     const opener = browserOpener();
     if (opener) {
