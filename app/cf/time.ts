@@ -132,8 +132,15 @@ export function formatInstant(t: CalendarInstant, cal: Calendar): string {
   return s;
 }
 
-/** Decode one value: its text date and its fractional year in the file's calendar. */
+/** About 27 million years either side of the reference: beyond, a value is damage, not a date. */
+const MAX_OFFSET_SECONDS = 1e10 * 86400;
+
+/** Decode one value: its text date and its fractional year in the file's calendar. Missing (NaN) stays missing. */
 export function decodeTime(value: number, u: TimeUnits): DecodedTime {
+  if (Number.isNaN(value)) return { value, iso: 'missing', yearFraction: NaN };
+  if (!(Math.abs(value * u.unitSeconds) <= MAX_OFFSET_SECONDS)) {
+    throw new StillwaterError('E_INPUT', `the time value ${value} (${u.unit}) lies too far from the reference date to be a date.`);
+  }
   const t = instantOf(value, u);
   const start = u.calendar.dayNumber(t.year, 1, 1);
   const yearFraction = t.year + (t.dayNumber - start + t.secondsOfDay / 86400) / yearLength(u.calendar, t.year);

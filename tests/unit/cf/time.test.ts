@@ -62,6 +62,12 @@ describe('time units that are not CF', () => {
     expect(() => parseTimeUnits('days since 2001-02-29', 'noleap')).toThrow(/does not exist/);
     expect(() => parseTimeUnits('days since 2001-02-30', '360_day')).not.toThrow();
   });
+  it('a missing time value stays missing; an absurd one is refused instead of looping', () => {
+    const u = parseTimeUnits('days since 1850-01-01', 'standard');
+    expect(decodeTime(NaN, u).iso).toBe('missing');
+    expect(() => decodeTime(1e300, u)).toThrow(/too far/);
+    expect(() => decodeTime(Infinity, u)).toThrow(/too far/);
+  });
   it('a time axis keeps the file calendar name', () => {
     const axis = decodeTimeAxis('time', [0, 31], 'days since 2000-01-01', 'gregorian');
     expect(axis.calendar).toBe('gregorian');
