@@ -1,7 +1,8 @@
 import type { FieldSource } from '../cf/field.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid, HorizontalGrid } from '../grid/types.js';
-import { applyFirstValid, applySums, rowSums, type RemapMethod, type SparseWeights } from './csr.js';
+import { rowSums, type RemapMethod, type SparseWeights } from './csr.js';
+import { remapLevel } from './remap-level.js';
 import { identityWeights, layerOverlapWeights, linearDepthWeights, type VerticalWeights } from './vertical-weights.js';
 import { defaultCacheDir } from './weight-cache.js';
 import { remapWeights } from './weights.js';
@@ -66,14 +67,16 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
   }
 
   const nSrc = sh.nx * sh.ny, nTgt = th.nx * th.ny;
-  const rowRef = method === 'conservative' ? th.area : rowSums(weights);
+  // what the weights of a fully covered target cell add up to
+  const rowRef = method === 'conservative' ? th.area : method === 'bilinear' ? rowSums(weights) : rowsPresent(weights);
   const n = new Float64Array(nSrc), d = new Float64Array(nSrc);
-  const num = new Float64Array(nTgt), den = new Float64Array(nTgt);
+  const scratch = { num: new Float64Array(nTgt), den: new Float64Array(nTgt) };
+  const rule = { threshold, normalise };
   const stats = { sourceValues: 0, sourceValid: 0 };
   const levels = new LevelCache(src, 4, stats);
   const lastCoverage = new Map<number, Float32Array>();
 
-  async function readLevelWithCoverage(t: number, k: number): Promise<{ values: Float32Array; coverage: Float32Array }> {
+  async function readOne(t: number, k: number): Promise<{ values: Float32Array; coverage: Float32Array }> {
     if (!(k >= 0 && k < vw.nz)) throw new StillwaterError('E_INPUT', `${where}: level ${k} is outside the target's ${vw.nz} levels.`, subject);
     n.fill(0);
     d.fill(0);
@@ -88,23 +91,21 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
         }
       }
     }
-    if (method === 'nearest') applyFirstValid(weights, n, d, num, den);
-    else applySums(weights, n, d, num, den);
     const values = new Float32Array(nTgt);
     const coverage = new Float32Array(nTgt);
-    const ref = vw.ref[k];
-    for (let r = 0; r < nTgt; r++) {
-      const full = rowRef[r] * ref;
-      const b = den[r];
-      const c = full > 0 ? Math.min(1, b / full) : 0;
-      coverage[r] = c;
-      if (b > 0 && c >= threshold - 1e-12) values[r] = normalise || method === 'nearest' ? num[r] / b : num[r] / full;
-      else values[r] = NaN;
-    }
+    remapLevel(weights, rowRef, vw.ref[k], n, d, rule, values, coverage, scratch);
     lastCoverage.delete(k);
     lastCoverage.set(k, coverage);
     if (lastCoverage.size > 4) lastCoverage.delete(lastCoverage.keys().next().value as number);
     return { values, coverage };
+  }
+
+  // the work buffers are shared, so levels are computed one after another even when asked for at once
+  let queue: Promise<unknown> = Promise.resolve();
+  function readLevelWithCoverage(t: number, k: number): Promise<{ values: Float32Array; coverage: Float32Array }> {
+    const next = queue.then(() => readOne(t, k));
+    queue = next.catch(() => undefined);
+    return next;
   }
 
   return {
@@ -131,6 +132,13 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
       return c;
     },
   };
+}
+
+/** 1 for target cells with any nearest-wet candidate, else 0. */
+function rowsPresent(w: SparseWeights): Float64Array {
+  const out = new Float64Array(w.nRows);
+  for (let r = 0; r < w.nRows; r++) out[r] = w.rowPtr[r + 1] > w.rowPtr[r] ? 1 : 0;
+  return out;
 }
 
 function checkBounds(g: HorizontalGrid, sentence: string): void {

@@ -17,6 +17,7 @@ export class ArcTable {
   c: Float64Array = new Float64Array(16);
   l0: Float64Array = new Float64Array(16);
   s: Float64Array = new Float64Array(16);
+  nz: Float64Array = new Float64Array(16);
   n = 0;
   clear(): void {
     this.n = 0;
@@ -34,24 +35,33 @@ export class ArcTable {
       this.c = grow(this.c);
       this.l0 = grow(this.l0);
       this.s = grow(this.s);
+      this.nz = grow(this.nz);
     }
     const k = this.n++;
     this.c[k] = Math.min(1, Math.hypot(nx, ny));
     this.l0[k] = Math.atan2(ny, nx);
     this.s[k] = nz > 0 ? -1 : 1;
+    this.nz[k] = nz;
     return k;
   }
   /** y = sin(latitude) of arc k at longitude x (degrees). */
   y(k: number, xDeg: number): number {
     const u = xDeg * RAD - this.l0[k];
-    const c = this.c[k];
-    const su = Math.sin(u);
-    return (this.s[k] * c * Math.cos(u)) / Math.sqrt(1 - c * c * su * su);
+    const c = this.c[k], nz = this.nz[k];
+    const cu = c * Math.cos(u);
+    // 1 − c² sin²u written as nz² + c² cos²u: no cancellation for nearly meridional arcs
+    return (this.s[k] * cu) / Math.sqrt(nz * nz + cu * cu);
   }
   /** ∫ y dx along arc k from x1 to x2 (degrees), in degree units. */
   integral(k: number, x1: number, x2: number): number {
-    const c = this.c[k], l0 = this.l0[k];
-    return this.s[k] * (Math.asin(c * Math.sin(x2 * RAD - l0)) - Math.asin(c * Math.sin(x1 * RAD - l0))) * DEG;
+    return this.s[k] * (this.asinCSinU(k, x2) - this.asinCSinU(k, x1)) * DEG;
+  }
+  /** asin(c·sin u) as atan2(c·sin u, sqrt(nz² + c² cos²u)), well conditioned near ±π/2. */
+  private asinCSinU(k: number, xDeg: number): number {
+    const u = xDeg * RAD - this.l0[k];
+    const c = this.c[k], nz = this.nz[k];
+    const cu = c * Math.cos(u);
+    return Math.atan2(c * Math.sin(u), Math.sqrt(nz * nz + cu * cu));
   }
   /** Longitudes (degrees) in (x1, x2) where arc k reaches its highest or lowest latitude. */
   extremaBetween(k: number, x1: number, x2: number, out: number[]): void {
@@ -67,11 +77,10 @@ export class ArcTable {
   xAtY(k: number, x1: number, y1: number, x2: number, y2: number, target: number): number {
     if (target === y1) return x1;
     if (target === y2) return x2;
-    // closed form: sin²u = (c² − y²) / (c² (1 − y²)); the piece lies within one half-period
+    // closed form: tan²u = (c² − y²) / (y² nz²); the piece lies within one half-period
     // (mπ, (m+1)π) of u, where the two roots are mπ + a and mπ + π − a; the sign of y picks one
-    const c = this.c[k], l0 = this.l0[k];
-    const q2 = (c * c - target * target) / (c * c * (1 - target * target));
-    const a = Math.asin(Math.sqrt(Math.min(1, Math.max(0, q2))));
+    const c = this.c[k], l0 = this.l0[k], nz = this.nz[k];
+    const a = Math.atan2(Math.sqrt(Math.max(0, (c - target) * (c + target))), Math.abs(target * nz));
     const m = Math.floor((0.5 * (x1 + x2) * RAD - l0) / Math.PI);
     let u = m * Math.PI + a;
     if (this.s[k] * Math.cos(u) * target < 0) u = m * Math.PI + Math.PI - a;
