@@ -2,7 +2,8 @@
  * The views' way to the view services: every call is a tracked job (the status line shows it and can
  * cancel it) and results that are asked for again are kept (a bounded cache, newest last).
  */
-import type { LevelData, ProfileData, SectionData, SectionKind, SessionInfo, SkillData, TableFormat, TableText } from '../app/render/view-types.js';
+import type { ComparisonResult } from '../app/compare/run.js';
+import type { LevelData, ProfileData, SectionData, SectionKind, SessionInfo, TableFormat, TableText } from '../app/render/view-types.js';
 import { call, cancel, newJobId, type ProgressEvent } from './bridge.js';
 
 export interface Job {
@@ -77,7 +78,7 @@ class Cache<T> {
 const levels = new Cache<LevelData>(40);
 const sections = new Cache<SectionData>(12);
 const profiles = new Cache<ProfileData>(12);
-const skills = new Cache<SkillData>(4);
+const skills = new Cache<ComparisonResult>(4);
 
 export function clearCaches(): void {
   levels.clear();
@@ -109,10 +110,16 @@ export function getProfile(session: string, variable: string, region: string): P
   );
 }
 
-export function getSkill(session: string): Promise<SkillData> {
-  return skills.get(session, () => tracked('Computing skill scores', 'view.skill', { session }));
+/** The recipe of a session as JSON with its folder (what the recipe-based services take). */
+export function sessionRecipe(session: string): Promise<{ recipe: unknown; baseDir: string }> {
+  return call('view.recipe', { session });
 }
 
-export function getTable(session: string, format: TableFormat, rows: number[] | null): Promise<TableText> {
-  return tracked(`Writing ${format}`, 'view.table', { session, format, rows });
+/** Skill rows of the whole recipe (compare.run, in a worker), kept per session until it changes. */
+export function getSkill(session: string, modifiedAt = ''): Promise<ComparisonResult> {
+  return skills.get(`${session}|${modifiedAt}`, async () => tracked('Computing skill scores', 'compare.run', await sessionRecipe(session)));
+}
+
+export function getTable(result: ComparisonResult, recipePath: string | null, format: TableFormat): Promise<TableText> {
+  return tracked(`Writing ${format}`, 'view.table', { result, recipePath, format });
 }

@@ -31,6 +31,9 @@ export interface Selection {
   sectionKind: SectionKind;
   /** longitude of a meridian section or latitude of a parallel section */
   sectionAt: number;
+  /** which field the Section view shows, and how deep it reaches (null: full depth) */
+  sectionField: 'model' | 'reference' | 'difference';
+  sectionDepth: number | null;
   diagram: 'taylor' | 'target';
   /** fixed colour range (null: automatic) per view kind */
   fieldRange: [number, number] | null;
@@ -66,6 +69,8 @@ export const state: AppState = {
     mapField: 'model',
     sectionKind: 'meridian',
     sectionAt: -25,
+    sectionField: 'model',
+    sectionDepth: null,
     diagram: 'taylor',
     fieldRange: null,
     diffRange: null,

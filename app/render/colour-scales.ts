@@ -107,6 +107,8 @@ export function formatTick(v: number, step: number): string {
   if (v === 0) return '0';
   const a = Math.abs(v);
   if (a >= 1e5 || a < 1e-3) return v.toExponential(1);
-  const decimals = Math.max(0, Math.min(6, -Math.floor(Math.log10(step) + 1e-9)));
+  // enough decimals to tell neighbouring ticks apart: 2.5 needs one, 0.25 two
+  let decimals = Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
+  while (decimals < 6 && Math.abs(step * 10 ** decimals - Math.round(step * 10 ** decimals)) > 1e-6) decimals++;
   return v.toFixed(decimals);
 }

@@ -18,7 +18,7 @@ export interface SourceInfo {
   label: string;
   variables: SourceVariable[];
   /** spin-up snapshots listed for a run */
-  snapshots?: { file: string; year: number }[];
+  snapshots?: { file: string; year?: number }[];
 }
 
 /** A depth choice for maps: one level of the common grid, a layer of the recipe, or the bottom. */
@@ -122,33 +122,6 @@ export interface ProfileData {
   /** area-weighted mean of each level over the region's wet cells */
   reference: Float64Array;
   runs: { label: string; values: Float64Array }[];
-}
-
-/** One skill row (DESIGN.md section 3), as the diagrams and the table use it. */
-export interface SkillRowView {
-  run: string;
-  variable: string;
-  region: string;
-  layer: string;
-  units: string;
-  n: number;
-  weight: number;
-  model_mean: number;
-  ref_mean: number;
-  bias: number;
-  rmse: number;
-  crmse: number;
-  corr: number;
-  model_std: number;
-  ref_std: number;
-  std_ratio: number;
-  [extra: string]: string | number | null;
-}
-
-export interface SkillData {
-  rows: SkillRowView[];
-  /** columns in display order */
-  columns: string[];
 }
 
 export type TableFormat = 'csv' | 'markdown' | 'latex' | 'json';

@@ -8,41 +8,35 @@ import { randomUUID } from 'node:crypto';
 import { rename, writeFile } from 'node:fs/promises';
 import { basename, dirname, join } from 'node:path';
 import { z } from 'zod';
-import type { FieldSource } from '../cf/field.js';
 import { openField } from '../cf/open-field.js';
 import { parseUnits, type ParsedUnits } from '../cf/units.js';
-import { commonGridFor, sameGrid } from '../compare/common-grid.js';
+import { commonGridFor } from '../compare/common-grid.js';
 import { densityProvider, type DensityProvider } from '../compare/density.js';
-import { makeLevelConverter, type LevelConverter } from '../compare/level-units.js';
+import { derivedReader, onGrid, openSpec, plainReader, type LevelReader, type ReaderContext } from '../compare/level-reader.js';
 import { loadRegions, prefixed } from '../compare/load-regions.js';
-import { readLevelAt, timeIndex } from '../compare/read-level.js';
-import { runComparison } from '../compare/run.js';
+import type { ComparisonResult } from '../compare/run.js';
+import { skillCsv, skillJson, skillLatex, skillMarkdown, type Provenance } from '../report/index.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid } from '../grid/types.js';
+import { openDataset } from '../io/open.js';
+import { attrString } from '../io/types.js';
 import { loadRecipe, recipeToJson, validateRecipe } from '../recipe/index.js';
-import type { Recipe, VariableSource } from '../recipe/types.js';
-import { regridField } from '../regrid/field.js';
+import { parseExpression } from '../ocean/expression.js';
+import type { Recipe } from '../recipe/types.js';
 import { layerLevelMetres, type LayerSpec } from '../regions/layers.js';
 import type { Region } from '../regions/region.js';
 import { areaMean, atLevels, bottomLevels, layerMeans, levelsOf, meridianSection, parallelSection, seafloorOf, zonalMeans } from '../render/slices.js';
 import { findInterval } from '../render/pixel-lookup.js';
-import type { LayerChoice, LevelData, ProfileData, SectionData, SessionInfo, SkillData, SkillRowView, SourceInfo, TableText, ViewGrid } from '../render/view-types.js';
+import type { LayerChoice, LevelData, ProfileData, SectionData, SessionInfo, SourceInfo, TableText, ViewGrid } from '../render/view-types.js';
 import { entry, type ServiceContext, type ServiceEntry } from './types.js';
 
 // ---------- sessions ----------
 
-interface Prepared {
-  label: string;
-  onGrid: FieldSource;
-  t: number | 'mean';
-  convert: LevelConverter | null;
-}
-
 interface Pair {
   variable: string;
   units: string;
-  reference: Prepared;
-  runs: Map<string, Prepared>;
+  reference: LevelReader;
+  runs: Map<string, LevelReader>;
   density: DensityProvider;
 }
 
@@ -215,17 +209,24 @@ async function buildSession(recipe: Recipe, recipePath: string, ctx: ServiceCont
   const reference = await describeSource(recipe.reference);
   const runs = await Promise.all(recipe.runs.map((r) => describeSource(r)));
   const variables = recipe.variables
-    .filter((key) => recipe.reference.variables[key])
+    .filter((key) => recipe.reference.variables[key] || recipe.options.derived[key])
     .map((key) => {
+      const derived = recipe.options.derived[key];
       const refVar = reference.variables.find((v) => v.key === key);
-      const wanted = recipe.options.units[key];
-      let units = refVar?.units ?? '';
+      const wanted = recipe.options.units[key] ?? derived?.units;
+      let units = wanted ?? refVar?.units ?? '';
       try {
-        units = tableUnits(parseUnits(wanted ?? units));
+        units = tableUnits(parseUnits(units));
       } catch {
         /* units that do not parse are shown as written; opening the pair reports them */
       }
-      return { key, units, longName: refVar?.longName ?? key, runs: recipe.runs.filter((r) => r.variables[key]).map((r) => r.label) };
+      const needs = derived ? parseExpression(derived.expression).variables : [key];
+      return {
+        key,
+        units,
+        longName: derived ? `${key} = ${derived.expression}` : (refVar?.longName ?? key),
+        runs: recipe.runs.filter((r) => needs.every((k) => r.variables[k])).map((r) => r.label),
+      };
     });
   const info: SessionInfo = {
     session: id,
@@ -254,53 +255,65 @@ async function pairOf(s: Session, variable: string): Promise<Pair> {
 
 async function openPair(s: Session, variable: string): Promise<Pair> {
   const { recipe, grid } = s;
+  const derived = recipe.options.derived[variable];
   const refSpec = recipe.reference.variables[variable];
-  if (!refSpec) throw new StillwaterError('E_INPUT', `The reference has no variable '${variable}'.`, { variable });
-  const regrid = async (src: FieldSource, spec: VariableSource): Promise<FieldSource> => {
-    if (sameGrid(src.grid, grid)) return src;
-    if ((src.grid.vertical === null) !== (grid.vertical === null)) {
-      throw new StillwaterError('E_GRID', `${spec.path}: '${spec.name}' in ${spec.file} is ${src.grid.vertical ? '3-D' : '2-D'} but the common grid is ${grid.vertical ? '3-D' : '2-D'}.`, { path: spec.path });
-    }
-    return prefixed(spec.path, () => regridField(src, grid, { method: recipe.options.method, coverage: recipe.options.coverage, cacheDir: s.cacheDir }));
+  if (!refSpec && !derived) throw new StillwaterError('E_INPUT', `The reference has no variable '${variable}'.`, { variable });
+  const density = densityProvider(recipe, grid, async (spec) => onGrid(await openSpec(spec), spec, { grid, options: recipe.options, cacheDir: s.cacheDir }));
+  const ctx: ReaderContext = { grid, options: recipe.options, cacheDir: s.cacheDir, densityNote: density.note, noteFile: () => undefined };
+  const unitsOf = async (key: string): Promise<ParsedUnits> => {
+    const wanted = recipe.options.units[key];
+    if (wanted) return prefixed(`options.units.${key}`, async () => parseUnits(wanted));
+    const f = await openSpec(recipe.reference.variables[key]);
+    await f.close?.();
+    return f.units;
   };
-  const open = (spec: VariableSource): Promise<FieldSource> => prefixed(spec.path, () => openField(spec.file, spec.name, spec.units ? { units: spec.units } : undefined));
-  const refField = await open(refSpec);
-  const wanted = recipe.options.units[variable];
-  const target = wanted ? await prefixed(`options.units.${variable}`, async () => parseUnits(wanted)) : refField.units;
-  const prepare = async (label: string, spec: VariableSource, field: FieldSource): Promise<Prepared> => {
-    const onGrid = await regrid(field, spec);
-    const t = timeIndex(onGrid, spec.time);
-    if (t !== 'mean' && (t < 0 || t >= onGrid.nt)) {
-      throw new StillwaterError('E_RECIPE', `${spec.path}.time: step ${t} is outside the file's ${onGrid.nt} time steps.`, { path: `${spec.path}.time` });
+  let target: ParsedUnits;
+  let reference: LevelReader;
+  const runs = new Map<string, LevelReader>();
+  if (derived) {
+    target = await prefixed(`options.derived.${variable}.units`, async () => parseUnits(derived.units));
+    reference = await derivedReader(variable, derived.expression, recipe.reference, unitsOf, ctx);
+    const needs = parseExpression(derived.expression).variables;
+    for (const run of recipe.runs) {
+      if (needs.every((k) => run.variables[k])) runs.set(run.label, await derivedReader(variable, derived.expression, run, unitsOf, ctx));
     }
-    const convert = makeLevelConverter(field.units, target, `${spec.path} ('${spec.name}' in ${spec.file})`);
-    return { label, onGrid, t, convert };
-  };
-  const reference = await prepare(recipe.reference.label, refSpec, refField);
-  const runs = new Map<string, Prepared>();
-  for (const run of recipe.runs) {
-    const spec = run.variables[variable];
-    if (spec) runs.set(run.label, await prepare(run.label, spec, await open(spec)));
+  } else {
+    const refField = await openSpec(refSpec);
+    target = recipe.options.units[variable] ? await unitsOf(variable) : refField.units;
+    reference = await plainReader(variable, refSpec, target, ctx, refField);
+    for (const run of recipe.runs) {
+      const spec = run.variables[variable];
+      if (spec) runs.set(run.label, await plainReader(variable, spec, target, ctx));
+    }
   }
-  return { variable, units: tableUnits(target), reference, runs, density: densityProvider(recipe, grid, regrid) };
+  return { variable, units: tableUnits(target), reference, runs, density };
 }
 
 /** One level of one source on the common grid, in the comparison's units (cached). */
-async function level(s: Session, pair: Pair, source: Prepared, k: number): Promise<Float32Array> {
-  return s.levels.get(`${pair.variable}\u0000${source.label}\u0000${source === pair.reference ? 'ref' : 'run'}\u0000${k}`, async () => {
-    const v = await readLevelAt(source.onGrid, source.t, k);
-    if (source.convert) source.convert.apply(v, source.convert.needsDensity ? await pair.density.level(k) : undefined);
-    return v;
-  });
+async function level(s: Session, pair: Pair, source: Source, k: number): Promise<Float32Array> {
+  return s.levels.get(`${pair.variable}\u0000${source.label}\u0000${source.role}\u0000${k}`, async () =>
+    source.reader.read(k, source.reader.needsDensity ? await pair.density.level(k) : undefined),
+  );
 }
 
-function runOf(pair: Pair, run: string): Prepared {
+/** A reader with the label the cache and the messages use. */
+interface Source {
+  label: string;
+  role: 'ref' | 'run';
+  reader: LevelReader;
+}
+
+function refOf(s: Session, pair: Pair): Source {
+  return { label: s.recipe.reference.label, role: 'ref', reader: pair.reference };
+}
+
+function runOf(pair: Pair, run: string): Source {
   const r = pair.runs.get(run);
   if (!r) throw new StillwaterError('E_INPUT', `The run '${run}' has no variable '${pair.variable}'.`, { variable: pair.variable });
-  return r;
+  return { label: run, role: 'run', reader: r };
 }
 
-async function allLevels(s: Session, pair: Pair, source: Prepared, ctx: ServiceContext, what: string, share: [number, number] = [0, 1]): Promise<Float32Array[]> {
+async function allLevels(s: Session, pair: Pair, source: Source, ctx: ServiceContext, what: string, share: [number, number] = [0, 1]): Promise<Float32Array[]> {
   const nz = s.info.grid.nz;
   const out: Float32Array[] = [];
   for (let k = 0; k < nz; k++) {
@@ -337,7 +350,7 @@ async function levelData(s: Session, variable: string, run: string, layerId: str
   const base = { variable, run, layer, units: pair.units };
   if (layer.kind === 'level') {
     const k = layer.k ?? 0;
-    const [m, r] = await Promise.all([level(s, pair, model, k), level(s, pair, pair.reference, k)]);
+    const [m, r] = await Promise.all([level(s, pair, model, k), level(s, pair, refOf(s, pair), k)]);
     const difference = new Float32Array(m.length);
     const thickness = new Float32Array(m.length);
     const dz = g.depthEdges[k + 1] - g.depthEdges[k];
@@ -348,7 +361,7 @@ async function levelData(s: Session, variable: string, run: string, layerId: str
     return { ...base, model: m, reference: r, difference, thickness };
   }
   const ms = await allLevels(s, pair, model, ctx, `${variable}, ${run}`, [0, 0.5]);
-  const rs = await allLevels(s, pair, pair.reference, ctx, `${variable}, ${s.recipe.reference.label}`, [0.5, 1]);
+  const rs = await allLevels(s, pair, refOf(s, pair), ctx, `${variable}, ${s.recipe.reference.label}`, [0.5, 1]);
   if (layer.kind === 'bottom') {
     const k = bottomLevels(ms, rs);
     const mb = atLevels(ms, k);
@@ -376,7 +389,7 @@ async function sectionData(
   const model = runOf(pair, input.run);
   const g = s.info.grid;
   const ms = await allLevels(s, pair, model, ctx, `${input.variable}, ${input.run}`, [0, 0.5]);
-  const rs = await allLevels(s, pair, pair.reference, ctx, `${input.variable}, ${s.recipe.reference.label}`, [0.5, 1]);
+  const rs = await allLevels(s, pair, refOf(s, pair), ctx, `${input.variable}, ${s.recipe.reference.label}`, [0.5, 1]);
   const nz = g.nz;
   let mSec: Float32Array, rSec: Float32Array, dSec: Float32Array, n: number, edges: Float64Array, atGrid: number | null = null;
   let axis: SectionData['axis'];
@@ -444,7 +457,7 @@ async function profileData(s: Session, variable: string, regionName: string, ctx
   const pair = await pairOf(s, variable);
   const region = await regionNamed(s, regionName);
   const g = s.info.grid;
-  const sources = [pair.reference, ...pair.runs.values()];
+  const sources: Source[] = [refOf(s, pair), ...[...pair.runs.keys()].map((label) => runOf(pair, label))];
   const levels: Float32Array[][] = [];
   for (let q = 0; q < sources.length; q++) {
     levels.push(await allLevels(s, pair, sources[q], ctx, `${variable}, ${sources[q].label}`, [q / sources.length, (q + 1) / sources.length]));
@@ -461,73 +474,9 @@ async function profileData(s: Session, variable: string, regionName: string, ctx
   return { variable, region: regionName, units: pair.units, depthCentres: g.depthCentres, depthEdges: g.depthEdges, reference, runs };
 }
 
-// ---------- tables ----------
-
-function cellText(v: unknown): string {
-  if (v === null || v === undefined) return '';
-  if (typeof v === 'number') return Number.isFinite(v) ? String(v) : '';
-  return String(v);
-}
-
-function csvCell(t: string): string {
-  return /[",\n\r]/.test(t) ? `"${t.replace(/"/g, '""')}"` : t;
-}
-
-function num(v: unknown, digits = 4): string {
-  if (typeof v !== 'number' || !Number.isFinite(v)) return '—';
-  if (v === 0) return '0';
-  const a = Math.abs(v);
-  return a >= 1e5 || a < 1e-3 ? v.toExponential(digits - 1) : Number(v.toPrecision(digits)).toString();
-}
-
-const TEXT_COLUMNS = new Set(['run', 'variable', 'region', 'layer', 'units', 'weight_units', 'note']);
-
-function latexEscape(t: string): string {
-  return t.replace(/\\/g, '\\textbackslash{}').replace(/([&%$#_{}])/g, '\\$1').replace(/~/g, '\\textasciitilde{}').replace(/\^/g, '\\textasciicircum{}').replace(/µ/g, '\\textmu{}').replace(/−/g, '-').replace(/–/g, '--');
-}
-
-/** The skill table as text. CSV (RFC 4180), GitHub-style Markdown, a LaTeX booktabs tabular, JSON. */
-export function skillTableText(rows: SkillRowView[], columns: string[], format: TableText['format']): TableText {
-  switch (format) {
-    case 'csv': {
-      const lines = [columns.join(','), ...rows.map((r) => columns.map((c) => csvCell(cellText(r[c]))).join(','))];
-      return { format, fileName: 'skill.csv', mime: 'text/csv', text: lines.join('\r\n') + '\r\n' };
-    }
-    case 'markdown': {
-      const head = `| ${columns.join(' | ')} |`;
-      const rule = `|${columns.map((c) => (TEXT_COLUMNS.has(c) ? ' --- ' : ' ---: ')).join('|')}|`;
-      const body = rows.map((r) => `| ${columns.map((c) => (TEXT_COLUMNS.has(c) ? cellText(r[c]).replace(/\|/g, '\\|') : num(r[c]))).join(' | ')} |`);
-      return { format, fileName: 'skill.md', mime: 'text/markdown', text: [head, rule, ...body].join('\n') + '\n' };
-    }
-    case 'latex': {
-      const spec = columns.map((c) => (TEXT_COLUMNS.has(c) ? 'l' : 'r')).join('');
-      const lines = [
-        `\\begin{tabular}{${spec}}`,
-        '\\toprule',
-        columns.map((c) => latexEscape(c)).join(' & ') + ' \\\\',
-        '\\midrule',
-        ...rows.map((r) => columns.map((c) => (TEXT_COLUMNS.has(c) ? latexEscape(cellText(r[c])) : num(r[c]))).join(' & ') + ' \\\\'),
-        '\\bottomrule',
-        '\\end{tabular}',
-      ];
-      return { format, fileName: 'skill.tex', mime: 'application/x-tex', text: lines.join('\n') + '\n' };
-    }
-    case 'json':
-      return {
-        format,
-        fileName: 'skill.json',
-        mime: 'application/json',
-        text: JSON.stringify(rows.map((r) => Object.fromEntries(columns.map((c) => [c, typeof r[c] === 'number' && !Number.isFinite(r[c] as number) ? null : (r[c] ?? null)]))), null, 1) + '\n',
-      };
-  }
-}
-
-const COLUMN_ORDER = ['run', 'variable', 'region', 'layer', 'units', 'n', 'weight', 'model_mean', 'ref_mean', 'bias', 'rmse', 'crmse', 'corr', 'model_std', 'ref_std', 'std_ratio'];
-
 // ---------- entries ----------
 
 const sessionInput = z.object({ session: z.string().min(1) });
-const recipeJsonInput = z.object({ recipe: z.unknown(), baseDir: z.string().min(1) });
 
 async function writeAtomically(path: string, text: string): Promise<void> {
   const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.${Date.now()}.tmp`);
@@ -591,6 +540,22 @@ export const viewsServices: ServiceEntry[] = [
     },
   }),
   entry({
+    name: 'view.variables',
+    summary: 'The data variables of a file (two or more dimensions), with their units and long names, for pairing.',
+    input: z.object({ file: z.string().min(1) }),
+    async run(input, ctx): Promise<{ name: string; units: string; longName: string; dims: string[] }[]> {
+      const ds = await openDataset(ctx.resolvePath(input.file));
+      try {
+        const coords = new Set(ds.dimensions.map((d) => d.name));
+        return ds.variables
+          .filter((v) => v.dims.length >= 2 && !coords.has(v.name) && v.dtype !== 'char')
+          .map((v) => ({ name: v.name, units: attrString(v.attrs, 'units') ?? '', longName: attrString(v.attrs, 'long_name') ?? attrString(v.attrs, 'standard_name') ?? '', dims: v.dims }));
+      } finally {
+        await ds.close();
+      }
+    },
+  }),
+  entry({
     name: 'view.save',
     summary: 'Save the session as a recipe file (written to a temporary file, then renamed into place).',
     input: z.object({ session: z.string().min(1), path: z.string().min(1) }),
@@ -636,30 +601,36 @@ export const viewsServices: ServiceEntry[] = [
     },
   }),
   entry({
-    name: 'view.skill',
-    summary: 'Skill rows of the recipe: every run × variable × region × layer.',
-    input: recipeJsonInput,
-    heavy: true,
-    async run(input, ctx): Promise<SkillData> {
-      const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir));
-      guardRecipe(recipe, ctx);
-      const result = await runComparison(recipe, { cacheDir: ctx.cacheDir, onProgress: (f, m) => ctx.progress(f, m), signal: ctx.signal });
-      const rows = result.rows as unknown as SkillRowView[];
-      const extra = new Set<string>();
-      for (const r of rows) for (const k of Object.keys(r)) if (!COLUMN_ORDER.includes(k)) extra.add(k);
-      return { rows, columns: [...COLUMN_ORDER, ...extra] };
-    },
-  }),
-  entry({
     name: 'view.table',
-    summary: 'The skill table as CSV, Markdown, LaTeX or JSON text.',
+    summary: 'Skill rows (a comparison result, perhaps filtered) as CSV, Markdown, LaTeX or JSON text, by the report writers.',
     input: z.object({
-      rows: z.array(z.record(z.string(), z.union([z.string(), z.number(), z.null()]))),
-      columns: z.array(z.string().min(1)).min(1),
+      result: z.object({ rows: z.array(z.record(z.string(), z.unknown())), costs: z.array(z.unknown()), variables: z.array(z.unknown()), inputs: z.array(z.unknown()) }),
+      recipePath: z.string().nullable().default(null),
       format: z.enum(['csv', 'markdown', 'latex', 'json']),
     }),
     async run(input): Promise<TableText> {
-      return skillTableText(input.rows as SkillRowView[], input.columns, input.format);
+      const result = input.result as unknown as ComparisonResult;
+      const prov: Provenance = {
+        tool: 'Stillwater workbench',
+        version: 'session',
+        date: new Date().toISOString(),
+        recipe: input.recipePath,
+        inputs: result.inputs,
+        options: null,
+        regions: [...new Set(result.rows.map((r) => r.region))],
+        layers: [...new Set(result.rows.map((r) => r.layer))],
+        variables: result.variables,
+      };
+      switch (input.format) {
+        case 'csv':
+          return { format: 'csv', fileName: 'skill.csv', mime: 'text/csv', text: skillCsv(result.rows) };
+        case 'markdown':
+          return { format: 'markdown', fileName: 'skill.md', mime: 'text/markdown', text: skillMarkdown(result, prov) };
+        case 'latex':
+          return { format: 'latex', fileName: 'skill.tex', mime: 'application/x-tex', text: skillLatex(result) };
+        default:
+          return { format: 'json', fileName: 'skill.json', mime: 'application/json', text: skillJson(result, prov) };
+      }
     },
   }),
 ];

@@ -34,7 +34,8 @@ export function figureRoot(width: number, height: number, label: string): SVGSVG
     fill: INK,
     class: 'figure-svg',
   });
-  svg.append(s('rect', { x: 0, y: 0, width, height, fill: '#ffffff' }));
+  // the paper: kept in exports, hidden on screen where the map's canvas lies underneath
+  svg.append(s('rect', { x: 0, y: 0, width, height, fill: '#ffffff', class: 'paper' }));
   svg.append(s('title', {}, label));
   return svg;
 }
@@ -106,7 +107,7 @@ export function colourBar(g: SVGElement, r: Rect, scale: ColourScale, min: numbe
 export interface LegendItem {
   label: string;
   colour: string;
-  marker?: 'circle' | 'square' | 'triangle' | 'diamond' | 'line' | 'dash' | 'star';
+  marker?: 'circle' | 'square' | 'triangle' | 'down' | 'diamond' | 'line' | 'dash' | 'star';
 }
 
 /** A marker shape at (x, y). */
@@ -116,6 +117,8 @@ export function marker(kind: LegendItem['marker'], x: number, y: number, colour:
       return s('rect', { x: x - size, y: y - size, width: 2 * size, height: 2 * size, fill: colour, stroke: '#ffffff', 'stroke-width': 0.8 });
     case 'triangle':
       return s('path', { d: `M${x},${y - size * 1.2}L${x + size * 1.1},${y + size * 0.8}L${x - size * 1.1},${y + size * 0.8}Z`, fill: colour, stroke: '#ffffff', 'stroke-width': 0.8 });
+    case 'down':
+      return s('path', { d: `M${x},${y + size * 1.2}L${x + size * 1.1},${y - size * 0.8}L${x - size * 1.1},${y - size * 0.8}Z`, fill: colour, stroke: '#ffffff', 'stroke-width': 0.8 });
     case 'diamond':
       return s('path', { d: `M${x},${y - size * 1.3}L${x + size},${y}L${x},${y + size * 1.3}L${x - size},${y}Z`, fill: colour, stroke: '#ffffff', 'stroke-width': 0.8 });
     case 'star':
@@ -156,4 +159,4 @@ export function legend(g: SVGElement, x: number, y: number, items: LegendItem[],
 
 /** Colours for runs, distinguishable also in grey print (Okabe & Ito 2008 palette for colour-blind readers). */
 export const RUN_COLOURS = ['#0072B2', '#D55E00', '#009E73', '#CC79A7', '#E69F00', '#56B4E9', '#F0E442', '#000000'];
-export const REGION_MARKERS: LegendItem['marker'][] = ['circle', 'square', 'triangle', 'diamond', 'star'];
+export const REGION_MARKERS: LegendItem['marker'][] = ['circle', 'square', 'triangle', 'diamond', 'down', 'star'];

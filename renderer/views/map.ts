@@ -69,7 +69,7 @@ export function mapChoice(st: AppState, data: LevelData, difference: boolean): M
       min: r[0],
       max: r[1],
       diverging: true,
-      caption: `${data.variable}, ${data.run} − ${session.reference.label}`,
+      caption: `${data.variable} difference`,
       title: `${name}: ${data.run} minus ${session.reference.label}`,
       subtitle: where,
       units: data.units,
@@ -91,10 +91,16 @@ export function mapChoice(st: AppState, data: LevelData, difference: boolean): M
 }
 
 /** Colour one level into a canvas through the lookup. */
+const images = new WeakMap<HTMLCanvasElement, ImageData>();
+
 export function paint(canvas: HTMLCanvasElement, lut: Int32Array, choice: MapChoice): void {
   const ctx = canvas.getContext('2d');
   if (!ctx) return;
-  const img = ctx.createImageData(canvas.width, canvas.height);
+  let img = images.get(canvas);
+  if (!img || img.width !== canvas.width || img.height !== canvas.height) {
+    img = ctx.createImageData(canvas.width, canvas.height);
+    images.set(canvas, img);
+  }
   const px = new Uint32Array(img.data.buffer);
   recolour(choice.values, lut, px, {
     palette: (choice.diverging ? DIVERGING : SEQUENTIAL).packed,

@@ -2,7 +2,7 @@
 // tests/fixtures/render/make_render_fixtures.py); CIE L* against littleCMS (via Pillow's ImageCms, 8-bit Lab).
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { DIVERGING, SEQUENTIAL, lightness, niceTicks, quantileRange, symmetricRange } from '../../../app/render/colour-scales.js';
+import { DIVERGING, SEQUENTIAL, formatTick, lightness, niceTicks, quantileRange, symmetricRange } from '../../../app/render/colour-scales.js';
 import { paletteIndex } from '../../../app/render/recolour.js';
 
 const maps = (JSON.parse(readFileSync(new URL('../../fixtures/render/colour-maps.json', import.meta.url), 'utf8')) as {
@@ -76,6 +76,11 @@ describe('ranges and ticks', () => {
     expect(hi).toBeGreaterThan(975);
     expect(hi).toBeLessThan(985);
     expect(quantileRange([new Float32Array([NaN])])).toBeNull();
+  });
+  it('tick text tells neighbouring ticks apart', () => {
+    expect([0, 2.5, 5, 7.5].map((v) => formatTick(v, 2.5))).toEqual(['0', '2.5', '5.0', '7.5']);
+    expect(formatTick(0.25, 0.25)).toBe('0.25');
+    expect(formatTick(20, 10)).toBe('20');
   });
   it('ticks are round numbers inside the range', () => {
     expect(niceTicks(0, 10, 5)).toEqual([0, 2, 4, 6, 8, 10]);

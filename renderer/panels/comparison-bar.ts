@@ -1,0 +1,65 @@
+/** The comparison bar: variable, run, region, depth and projection, and the choice of view. */
+import { PROJECTIONS, type ProjectionId } from '../../app/render/projections.js';
+import { h, select } from '../dom.js';
+import { VIEWS, choose, subscribe, type AppState, type ViewId } from '../state.js';
+
+export function comparisonBar(el: HTMLElement, tabs: HTMLElement): void {
+  el.classList.add('comparison-bar');
+  el.setAttribute('role', 'group');
+  el.setAttribute('aria-label', 'What to compare');
+
+  const tabButtons = new Map<ViewId, HTMLButtonElement>();
+  tabs.classList.add('view-tabs');
+  tabs.setAttribute('role', 'tablist');
+  tabs.setAttribute('aria-label', 'Views');
+  for (const v of VIEWS) {
+    const b = h('button', { type: 'button', role: 'tab', id: `tab-${v.id}`, 'data-view': v.id, 'aria-controls': 'view-area', title: `${v.label} (Alt+${v.key})` }, v.label);
+    b.addEventListener('click', () => choose({ view: v.id }));
+    b.addEventListener('keydown', (ev) => {
+      // arrow keys move between tabs, as in any tab list
+      if (ev.key !== 'ArrowRight' && ev.key !== 'ArrowLeft') return;
+      const i = VIEWS.findIndex((x) => x.id === v.id);
+      const next = VIEWS[(i + (ev.key === 'ArrowRight' ? 1 : VIEWS.length - 1)) % VIEWS.length];
+      choose({ view: next.id });
+      tabButtons.get(next.id)?.focus();
+    });
+    tabButtons.set(v.id, b);
+    tabs.append(b);
+  }
+  document.addEventListener('keydown', (ev) => {
+    if (!ev.altKey || ev.ctrlKey || ev.metaKey) return;
+    const v = VIEWS.find((x) => x.key === ev.key);
+    if (v) {
+      ev.preventDefault();
+      choose({ view: v.id });
+    }
+  });
+
+  const render = (st: AppState): void => {
+    for (const [id, b] of tabButtons) {
+      const on = id === st.sel.view;
+      b.setAttribute('aria-selected', String(on));
+      b.tabIndex = on ? 0 : -1;
+    }
+    const s = st.session;
+    if (!s) {
+      el.replaceChildren(h('span', { class: 'muted' }, 'No recipe open.'));
+      return;
+    }
+    const variable = s.variables.find((v) => v.key === st.sel.variable);
+    el.replaceChildren(
+      select('Variable', s.variables.map((v) => ({ value: v.key, label: `${v.key} (${v.units})` })), st.sel.variable, (value) => {
+        const runs = s.variables.find((v) => v.key === value)?.runs ?? [];
+        choose({ variable: value, run: runs.includes(st.sel.run) ? st.sel.run : (runs[0] ?? '') });
+      }, 'choose-variable'),
+      select('Run', (variable?.runs ?? []).map((r) => ({ value: r, label: r })), st.sel.run, (value) => choose({ run: value }), 'choose-run'),
+      select('Region', s.regions.map((r) => ({ value: r, label: r })), st.sel.region, (value) => choose({ region: value }), 'choose-region'),
+      select('Depth', s.layers.map((l) => ({ value: l.id, label: l.label })), st.sel.layer, (value) => choose({ layer: value }), 'choose-layer'),
+      select('Projection', PROJECTIONS.map((p) => ({ value: p.id, label: p.label })), st.sel.projection, (value) => choose({ projection: value as ProjectionId }), 'choose-projection'),
+    );
+  };
+  subscribe((st, changed) => {
+    if (changed.has('probe')) return;
+    render(st);
+  });
+}

@@ -1,0 +1,164 @@
+/**
+ * Line view: a transect through waypoints (typed, or taken from the probe) from the lines part
+ * (service 'line.sample'): the chosen field along the line with depth downwards and the seafloor, and
+ * the column means of the reference and every run below it.
+ */
+import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
+import type { LineData } from '../../app/services/lines.js';
+import { sessionRecipe, tracked } from '../data.js';
+import { h, s } from '../dom.js';
+import { linear, padded } from '../plot/scale.js';
+import { sectionFigure } from '../plot/section-figure.js';
+import { bottomAxis, figureRoot, INK, leftAxis, legend, RUN_COLOURS, title, type Rect } from '../plot/svg-parts.js';
+import { state, type AppState } from '../state.js';
+import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
+
+function edgesOf(centres: Float64Array): Float64Array {
+  const n = centres.length;
+  const e = new Float64Array(n + 1);
+  for (let i = 1; i < n; i++) e[i] = 0.5 * (centres[i - 1] + centres[i]);
+  e[0] = n > 1 ? centres[0] - (e[1] - centres[0]) : centres[0] - 1;
+  e[n] = n > 1 ? centres[n - 1] + (centres[n - 1] - e[n - 1]) : centres[0] + 1;
+  return e;
+}
+
+function columnMeanFigure(d: LineData, width: number, height: number): SVGSVGElement {
+  const svg = figureRoot(width, height, `Column means of ${d.variable} along the line`);
+  title(svg, 12, 18, `Column mean of ${d.variable}, ${d.depthRange[0]}–${d.depthRange[1]} m`, 'Thickness-weighted mean over the depth range, along the line');
+  const plot: Rect = { x: 76, y: 50, w: width - 76 - 220, h: height - 50 - 48 };
+  const series = d.fields.filter((f) => f.role !== 'difference');
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const f of series) for (const v of f.columnMean) {
+      if (!Number.isFinite(v)) continue;
+      lo = Math.min(lo, v);
+      hi = Math.max(hi, v);
+    }
+  const dist = d.distanceKm;
+  const sx = linear([dist[0], dist[dist.length - 1]], [plot.x, plot.x + plot.w]);
+  const sy = linear(padded(lo, hi), [plot.y + plot.h, plot.y]);
+  const g = s('g', {});
+  bottomAxis(g, plot, sx, 'Distance along the line (km)', { grid: true, ticks: 8 });
+  leftAxis(g, plot, sy, `${d.variable} (${d.units})`, { grid: true, ticks: 5 });
+  svg.append(g);
+  const items = series.map((f, i) => ({ label: f.role === 'reference' ? `${f.label} (reference)` : f.label, colour: f.role === 'reference' ? INK : RUN_COLOURS[(i - 1) % RUN_COLOURS.length], marker: f.role === 'reference' ? ('dash' as const) : ('line' as const) }));
+  series.forEach((f, i) => {
+    let path = '';
+    let pen = false;
+    for (let q = 0; q < dist.length; q++) {
+      const v = f.columnMean[q];
+      if (!Number.isFinite(v)) {
+        pen = false;
+        continue;
+      }
+      path += `${pen ? 'L' : 'M'}${sx(dist[q]).toFixed(2)},${sy(v).toFixed(2)}`;
+      pen = true;
+    }
+    svg.append(s('path', { d: path, fill: 'none', stroke: items[i].colour, 'stroke-width': f.role === 'reference' ? 2.2 : 1.6, ...(f.role === 'reference' ? { 'stroke-dasharray': '6 3' } : {}) }));
+  });
+  svg.append(s('rect', { x: plot.x, y: plot.y, width: plot.w, height: plot.h, fill: 'none', stroke: INK, 'stroke-width': 0.9 }));
+  legend(svg, plot.x + plot.w + 16, plot.y + 8, items);
+  return svg;
+}
+
+export const lineView: ViewFactory = (el) => {
+  const toolbar = h('form', { class: 'view-toolbar', 'aria-label': 'Line options' });
+  const stage = h('div', { class: 'figure-stage line-stage' });
+  el.append(toolbar, stage);
+  let data: LineData | null = null;
+  let fieldIndex = 1;
+  let token = 0;
+  const points = h('input', { type: 'text', value: '-30,-60; -30,0; -20,60', 'aria-label': 'Waypoints as lon,lat; lon,lat', id: 'line-points', class: 'line-points', size: 34 });
+  const spacing = h('input', { type: 'number', value: '100', min: '5', step: '5', 'aria-label': 'Spacing in km', id: 'line-spacing' });
+  const fromProbe = h('button', { type: 'button', title: 'Append the probe position to the waypoints' }, 'Add probe point');
+  fromProbe.addEventListener('click', () => {
+    const p = state.probe;
+    if (!p) return;
+    points.value = `${points.value.trim()}${points.value.trim() ? '; ' : ''}${p.lon.toFixed(2)},${p.lat.toFixed(2)}`;
+  });
+  const go = h('button', { type: 'submit', class: 'primary' }, 'Draw line');
+  const fieldSel = h('select', { 'aria-label': 'Field along the line', id: 'line-field' });
+  fieldSel.addEventListener('change', () => {
+    fieldIndex = Number(fieldSel.value);
+    render();
+  });
+  toolbar.append(h('label', { class: 'toolbar-label' }, 'Waypoints (lon,lat; …) ', points), h('label', { class: 'toolbar-label' }, 'every ', spacing, ' km'), fromProbe, go, fieldSel);
+  toolbar.addEventListener('submit', (ev) => {
+    ev.preventDefault();
+    void load(state);
+  });
+
+  const specOf = (d: LineData, width: number, height: number) => {
+    const f = d.fields[Math.min(fieldIndex, d.fields.length - 1)];
+    const diff = f.role === 'difference';
+    const range = diff ? symmetricRange([f.values]) : quantileRange(d.fields.filter((x) => x.role !== 'difference').map((x) => x.values));
+    if (!range) return null;
+    const floors = Array.from(d.seafloorM).filter(Number.isFinite);
+    const depthMax = floors.length ? Math.max(...floors) : d.depthEdges[d.depthEdges.length - 1];
+    return {
+      width,
+      height,
+      title: `${d.variable}: ${f.label}`,
+      subtitle: `Along ${d.waypoints.map((p) => `${p.lon.toFixed(1)}°E ${p.lat.toFixed(1)}°N`).join(' → ')}`,
+      edges: edgesOf(d.distanceKm),
+      axisLabel: 'Distance along the line (km)',
+      depthEdges: d.depthEdges,
+      depthMax,
+      values: f.values,
+      seafloor: d.seafloorM,
+      scale: diff ? DIVERGING : SEQUENTIAL,
+      min: range[0],
+      max: range[1],
+      units: d.units,
+      caption: diff ? `${d.variable} difference` : d.variable,
+    };
+  };
+
+  const render = (): void => {
+    if (!data) return;
+    const width = Math.max(560, Math.floor(stage.clientWidth || 900));
+    const spec = specOf(data, width, Math.round(width * 0.42));
+    if (!spec) return note(stage, 'There are no values along this line.');
+    stage.replaceChildren(sectionFigure(spec).svg, columnMeanFigure(data, width, Math.round(width * 0.3)));
+    stage.dataset.drawn = `${data.variable}|${data.fields.length}`;
+  };
+
+  const load = async (st: AppState): Promise<void> => {
+    const session = st.session;
+    if (!session || !st.sel.variable) return note(stage, 'Open a recipe to draw lines.');
+    const my = ++token;
+    note(stage, 'Sampling the fields along the line (in the background)…', 'busy');
+    try {
+      const r = await tracked<LineData>('Sampling along the line', 'line.sample', {
+        ...(await sessionRecipe(session.session)),
+        variable: st.sel.variable,
+        line: { kind: 'waypoints', points: points.value },
+        spacingKm: Number(spacing.value) || 100,
+      });
+      if (my !== token) return;
+      data = r;
+    } catch (e) {
+      if (my === token) note(stage, errorText(e), 'error');
+      return;
+    }
+    fieldSel.replaceChildren(...data.fields.map((f, i) => h('option', { value: String(i), selected: i === fieldIndex }, f.role === 'difference' ? `${f.label}` : `${f.label} (${f.role})`)));
+    render();
+  };
+
+  return {
+    update(st, changed) {
+      if (changed.size === 1 && changed.has('probe')) return;
+      if (changed.has('variable') || changed.has('session') || changed.has('view') || !data) void load(st);
+      else if (changed.has('size')) render();
+    },
+    async figure() {
+      if (!data) return null;
+      const spec = specOf(data, EXPORT_WIDTH, Math.round(EXPORT_WIDTH * 0.45));
+      return spec ? sectionFigure({ ...spec, rasterScale: 3 }).svg : null;
+    },
+    fileBase: () => `stillwater-line-${state.sel.variable}`.replace(/[^A-Za-z0-9._-]+/g, '_'),
+    dispose() {
+      token++;
+    },
+  };
+};

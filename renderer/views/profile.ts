@@ -1,0 +1,118 @@
+/** Profile view: the area-weighted mean profile of a region, the reference and every run, depth downwards. */
+import type { ProfileData } from '../../app/render/view-types.js';
+import { getProfile } from '../data.js';
+import { h, s } from '../dom.js';
+import { linear, padded } from '../plot/scale.js';
+import { bottomAxis, figureRoot, INK, leftAxis, legend, RUN_COLOURS, title, type LegendItem, type Rect } from '../plot/svg-parts.js';
+import { currentVariable, state, type AppState } from '../state.js';
+import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
+
+function profileFigure(data: ProfileData, width: number, height: number, depthMax: number, refLabel: string, name: string): SVGSVGElement {
+  const svg = figureRoot(width, height, `Mean profile of ${name} over ${data.region}`);
+  title(svg, 12, 18, `${name}: mean profile, ${data.region}`, 'Area-weighted mean of each level; each run over the cells where it and the reference both have water');
+  const legendW = 210;
+  const plot: Rect = { x: 76, y: 54, w: width - 76 - legendW - 24, h: height - 54 - 48 };
+  let lo = Infinity;
+  let hi = -Infinity;
+  const nz = data.depthCentres.length;
+  const within = (k: number): boolean => data.depthCentres[k] <= depthMax;
+  for (const series of [data.reference, ...data.runs.map((r) => r.values)]) {
+    for (let k = 0; k < nz; k++) {
+      const v = series[k];
+      if (Number.isFinite(v) && within(k)) {
+        lo = Math.min(lo, v);
+        hi = Math.max(hi, v);
+      }
+    }
+  }
+  const sx = linear(padded(lo, hi), [plot.x, plot.x + plot.w]);
+  const sy = linear([0, depthMax], [plot.y, plot.y + plot.h]);
+  const g = s('g', {});
+  bottomAxis(g, plot, sx, `${data.variable} (${data.units})`, { grid: true, ticks: 6 });
+  leftAxis(g, plot, sy, 'Depth (m)', { grid: true, ticks: 7 });
+  svg.append(g);
+  const line = (values: Float64Array, colour: string, widthPx: number, dash?: string): SVGElement => {
+    let d = '';
+    let pen = false;
+    for (let k = 0; k < nz; k++) {
+      const v = values[k];
+      if (!Number.isFinite(v) || !within(k)) {
+        pen = false;
+        continue;
+      }
+      d += `${pen ? 'L' : 'M'}${sx(v).toFixed(2)},${sy(data.depthCentres[k]).toFixed(2)}`;
+      pen = true;
+    }
+    return s('path', { d, fill: 'none', stroke: colour, 'stroke-width': widthPx, 'stroke-linejoin': 'round', ...(dash ? { 'stroke-dasharray': dash } : {}) });
+  };
+  const clip = `pc-${Math.random().toString(36).slice(2, 8)}`;
+  svg.append(s('defs', {}, s('clipPath', { id: clip }, s('rect', { x: plot.x, y: plot.y, width: plot.w, height: plot.h }))));
+  const lines = s('g', { 'clip-path': `url(#${clip})` });
+  data.runs.forEach((r, i) => lines.append(line(r.values, RUN_COLOURS[i % RUN_COLOURS.length], 1.8)));
+  lines.append(line(data.reference, INK, 2.4, '6 3'));
+  svg.append(lines);
+  svg.append(s('rect', { x: plot.x, y: plot.y, width: plot.w, height: plot.h, fill: 'none', stroke: INK, 'stroke-width': 0.9 }));
+  const items: LegendItem[] = [{ label: `${refLabel} (reference)`, colour: INK, marker: 'dash' }, ...data.runs.map((r, i) => ({ label: r.label, colour: RUN_COLOURS[i % RUN_COLOURS.length], marker: 'line' as const }))];
+  legend(svg, plot.x + plot.w + 18, plot.y + 8, items, 'Lines');
+  return svg;
+}
+
+export const profileView: ViewFactory = (el) => {
+  const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Profile options' });
+  const stage = h('div', { class: 'figure-stage' });
+  el.append(toolbar, stage);
+  let depthMax: number | null = null;
+  let last: ProfileData | null = null;
+  let token = 0;
+  const depth = h('select', { 'aria-label': 'Depth range', id: 'profile-depth' });
+  for (const [v, label] of [
+    ['', 'full depth'],
+    ['1000', 'upper 1000 m'],
+    ['2000', 'upper 2000 m'],
+  ]) depth.append(h('option', { value: v }, label));
+  depth.addEventListener('change', () => {
+    depthMax = depth.value === '' ? null : Number(depth.value);
+    void draw(state);
+  });
+  toolbar.append(h('span', { class: 'toolbar-label' }, 'Region and variable from the bar above. Depth range'), depth);
+
+  const name = (): string => {
+    const v = currentVariable();
+    return v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : state.sel.variable;
+  };
+  const fullDepth = (d: ProfileData): number => d.depthEdges[d.depthEdges.length - 1];
+
+  const draw = async (st: AppState): Promise<void> => {
+    const session = st.session;
+    if (!session || !st.sel.variable) return note(stage, 'Open a recipe to see profiles.');
+    if (session.grid.nz < 2) return note(stage, 'This variable has no depth axis, so there is no profile to draw.');
+    const my = ++token;
+    if (!last) note(stage, 'Reading all levels for the profile…', 'busy');
+    try {
+      const d = await getProfile(session.session, st.sel.variable, st.sel.region);
+      if (my !== token) return;
+      last = d;
+    } catch (e) {
+      if (my === token) note(stage, errorText(e), 'error');
+      return;
+    }
+    const width = Math.max(480, Math.floor(stage.clientWidth || 900));
+    const height = Math.max(320, Math.min(Math.floor(stage.clientHeight || 560), Math.round(width * 0.7)));
+    stage.replaceChildren(profileFigure(last, width, height, depthMax ?? fullDepth(last), session.reference.label, name()));
+    stage.dataset.drawn = `${last.variable}|${last.region}`;
+  };
+  return {
+    update(st, changed) {
+      if (changed.size === 1 && changed.has('probe')) return;
+      void draw(st);
+    },
+    async figure() {
+      if (!last || !state.session) return null;
+      return profileFigure(last, EXPORT_WIDTH, Math.round(EXPORT_WIDTH * 0.7), depthMax ?? fullDepth(last), state.session.reference.label, name());
+    },
+    fileBase: () => `stillwater-profile-${state.sel.variable}-${state.sel.region}`.replace(/[^A-Za-z0-9._-]+/g, '_'),
+    dispose() {
+      token++;
+    },
+  };
+};

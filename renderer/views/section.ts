@@ -1,0 +1,142 @@
+/**
+ * Section view: a meridian or a parallel through the common grid, or the zonal mean of a region, with
+ * depth downwards and the seafloor drawn; the run, the reference or their difference.
+ */
+import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
+import type { SectionData } from '../../app/render/view-types.js';
+import { getSection } from '../data.js';
+import { h } from '../dom.js';
+import { latText, lonText, sectionFigure } from '../plot/section-figure.js';
+import { choose, currentVariable, state, type AppState, type Selection } from '../state.js';
+import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
+
+function segmented<T extends string>(label: string, options: [T, string][], value: T, onPick: (v: T) => void): HTMLElement {
+  const g = h('div', { class: 'segmented', role: 'group', 'aria-label': label });
+  for (const [v, text] of options) {
+    const b = h('button', { type: 'button', 'aria-pressed': String(v === value), 'data-value': v }, text);
+    b.addEventListener('click', () => onPick(v));
+    g.append(b);
+  }
+  return g;
+}
+
+interface Built {
+  data: SectionData;
+  spec: Omit<Parameters<typeof sectionFigure>[0], 'width' | 'height'>;
+}
+
+function describe(st: AppState, data: SectionData): Built['spec'] | null {
+  const field = st.sel.sectionField;
+  const values = field === 'model' ? data.model : field === 'reference' ? data.reference : data.difference;
+  const range = field === 'difference' ? symmetricRange([data.difference]) : quantileRange([data.model, data.reference]);
+  if (!range) return null;
+  const v = currentVariable();
+  const name = v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : data.variable;
+  const who = field === 'model' ? data.run : field === 'reference' ? st.session!.reference.label : `${data.run} minus ${st.session!.reference.label}`;
+  const where =
+    data.kind === 'zonal'
+      ? `zonal mean over ${data.region}, area-weighted, where run and reference both have water`
+      : data.kind === 'meridian'
+        ? `along ${lonText(Number(data.atGrid!.toFixed(2)))} (grid column nearest to ${lonText(data.at!)})`
+        : `along ${latText(Number(data.atGrid!.toFixed(2)))} (grid row nearest to ${latText(data.at!)})`;
+  let deepest = 0;
+  for (const f of data.seafloor) if (Number.isFinite(f) && f > deepest) deepest = f;
+  const depthMax = st.sel.sectionDepth ?? (deepest > 0 ? deepest : data.depthEdges[data.depthEdges.length - 1]);
+  return {
+    title: `${name}: ${who}`,
+    subtitle: `Section ${where}`,
+    edges: data.edges,
+    axisLabel: data.axis === 'latitude' ? 'Latitude (degrees north)' : 'Longitude (degrees east)',
+    formatX: data.axis === 'latitude' ? latText : lonText,
+    depthEdges: data.depthEdges,
+    depthMax,
+    values,
+    seafloor: data.seafloor,
+    scale: field === 'difference' ? DIVERGING : SEQUENTIAL,
+    min: range[0],
+    max: range[1],
+    units: data.units,
+    caption: field === 'difference' ? `${data.variable} difference` : data.variable,
+  };
+}
+
+export const sectionView: ViewFactory = (el) => {
+  const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Section options' });
+  const stage = h('div', { class: 'figure-stage' });
+  el.append(toolbar, stage);
+  let built: Built | null = null;
+  let token = 0;
+
+  const drawToolbar = (sel: Selection): void => {
+    const at = h('input', { type: 'number', step: 'any', id: 'section-at', value: String(sel.sectionAt), 'aria-label': sel.sectionKind === 'parallel' ? 'Latitude of the section (degrees north)' : 'Longitude of the section (degrees east)' });
+    at.addEventListener('change', () => {
+      const v = Number(at.value);
+      if (at.value !== '' && Number.isFinite(v)) choose({ sectionAt: v });
+    });
+    const depth = h('select', { 'aria-label': 'Depth range', id: 'section-depth' });
+    for (const [v, label] of [
+      ['', 'to the seafloor'],
+      ['500', 'upper 500 m'],
+      ['1000', 'upper 1000 m'],
+      ['2000', 'upper 2000 m'],
+    ]) {
+      const o = h('option', { value: v }, label);
+      if ((sel.sectionDepth === null ? '' : String(sel.sectionDepth)) === v) o.selected = true;
+      depth.append(o);
+    }
+    depth.addEventListener('change', () => choose({ sectionDepth: depth.value === '' ? null : Number(depth.value) }));
+    toolbar.replaceChildren(
+      segmented('Section kind', [['meridian', 'Meridian'], ['parallel', 'Parallel'], ['zonal', 'Zonal mean']], sel.sectionKind, (v) =>
+        choose({ sectionKind: v, sectionAt: v === 'parallel' ? (sel.sectionKind === 'parallel' ? sel.sectionAt : 0) : sel.sectionKind === 'meridian' ? sel.sectionAt : -25 }),
+      ),
+      sel.sectionKind === 'zonal'
+        ? h('span', { class: 'toolbar-label' }, `region: ${sel.region} (choose above)`)
+        : h('label', { class: 'toolbar-label' }, sel.sectionKind === 'meridian' ? 'Longitude (°E) ' : 'Latitude (°N) ', at),
+      segmented('Field shown', [['model', 'Run'], ['reference', 'Reference'], ['difference', 'Difference']], sel.sectionField, (v) => choose({ sectionField: v })),
+      depth,
+    );
+  };
+
+  const draw = async (st: AppState): Promise<void> => {
+    drawToolbar(st.sel);
+    const session = st.session;
+    if (!session || !st.sel.variable || !st.sel.run) return note(stage, 'Open a recipe to see sections.');
+    if (session.grid.nz < 2) return note(stage, 'This variable has no depth axis, so there is no section to draw.');
+    const my = ++token;
+    if (!built) note(stage, 'Reading all levels for the section…', 'busy');
+    let data: SectionData;
+    try {
+      data = await getSection(session.session, st.sel.variable, st.sel.run, st.sel.sectionKind, st.sel.sectionAt, st.sel.region);
+    } catch (e) {
+      if (my === token) note(stage, errorText(e), 'error');
+      return;
+    }
+    if (my !== token) return;
+    const spec = describe(st, data);
+    if (!spec) return note(stage, 'There are no values along this section.');
+    built = { data, spec };
+    const width = Math.max(480, Math.floor(stage.clientWidth || 900));
+    const height = Math.max(300, Math.min(Math.floor(stage.clientHeight || 520), Math.round(width * 0.62)));
+    const { svg } = sectionFigure({ ...spec, width, height });
+    stage.replaceChildren(svg);
+    stage.dataset.drawn = `${data.variable}|${data.run}|${data.kind}|${data.at ?? data.region}`;
+  };
+
+  return {
+    update(st, changed) {
+      if (changed.size === 1 && changed.has('probe')) return;
+      void draw(st);
+    },
+    async figure() {
+      if (!built) return null;
+      return sectionFigure({ ...built.spec, width: EXPORT_WIDTH, height: Math.round(EXPORT_WIDTH * 0.55), rasterScale: 3 }).svg;
+    },
+    fileBase() {
+      const sel = state.sel;
+      return `stillwater-section-${sel.variable}-${sel.sectionField === 'reference' ? 'ref' : sel.run}-${sel.sectionKind}-${sel.sectionKind === 'zonal' ? sel.region : sel.sectionAt}`.replace(/[^A-Za-z0-9._-]+/g, '_');
+    },
+    dispose() {
+      token++;
+    },
+  };
+};
