@@ -1,14 +1,16 @@
 /**
  * Statistics of one (run, variable) pair for every region × layer at once, fed one depth level at a time.
- * Per level and region: one two-pass moment computation over the region's cells, weighted by cell area;
- * every interval layer then takes it scaled by the metres of that level inside the layer (weights =
- * area × overlap = volume). The bottom layer is gathered column by column and summarised at the end.
+ * Regions are grouped into partitions (sets of regions that share no cell, such as the basins): per level
+ * and partition, one labelled two-pass moment computation weighted by cell area gives every member's
+ * moments; a region holding every cell is the exact merge of a partition that covers the grid. Every interval
+ * layer then takes a level's moments scaled by the metres of that level inside the layer (weights = area ×
+ * overlap = volume). The bottom layer is gathered column by column and summarised at the end.
  */
 import type { VerticalAxis } from '../grid/types.js';
 import { BottomTracker } from '../regions/bottom.js';
 import { layerLevelMetres, type LayerSpec } from '../regions/layers.js';
 import type { Region } from '../regions/region.js';
-import { emptyMoments, mergeMoments, pairMoments, type PairMoments } from '../stats/moments.js';
+import { emptyMoments, labelledMoments, mergeMoments, pairMoments, type PairMoments } from '../stats/moments.js';
 
 export interface CellResult {
   region: number;
@@ -27,9 +29,13 @@ export class PairAccumulator {
   /** full depth per region (for the multi-tracer cost) */
   private readonly full: PairMoments[];
   private readonly fullRefW: Float64Array;
-  /** whole grid, full depth: the regions may not include one that covers every cell */
+  /** whole grid, full depth (for the cost) */
   private readonly globalFull: PairMoments = emptyMoments();
-  private readonly globalIndex: number;
+  private readonly partitions: { labels: Int32Array; count: number }[] = [];
+  /** where each region's level moments come from: one label of a partition, or all labels merged */
+  private readonly sourceOf: { partition: number; label: number | 'all' }[] = [];
+  /** the partition whose merge is the whole grid */
+  private readonly wholePartition: number;
   private readonly bottom: BottomTracker | null;
   private readonly levelThickness: Float64Array;
 
@@ -50,17 +56,49 @@ export class PairAccumulator {
     this.refW = regions.map(() => new Float64Array(layers.length));
     this.full = regions.map(() => emptyMoments());
     this.fullRefW = new Float64Array(regions.length);
-    this.globalIndex = regions.findIndex((r) => r.cells.length === area.length);
+    const ncell = area.length;
+    const whole: number[] = [];
+    regions.forEach((region, r) => {
+      if (region.cells.length === ncell) {
+        whole.push(r);
+        return;
+      }
+      let p = this.partitions.findIndex((part) => region.cells.every((c) => part.labels[c] < 0));
+      if (p < 0) {
+        this.partitions.push({ labels: new Int32Array(ncell).fill(-1), count: 0 });
+        p = this.partitions.length - 1;
+      }
+      const part = this.partitions[p];
+      for (const c of region.cells) part.labels[c] = part.count;
+      this.sourceOf[r] = { partition: p, label: part.count++ };
+    });
+    let covering = this.partitions.findIndex((part) => part.labels.every((L) => L >= 0));
+    if (covering < 0) {
+      this.partitions.push({ labels: new Int32Array(ncell), count: 1 });
+      covering = this.partitions.length - 1;
+    }
+    this.wholePartition = covering;
+    for (const r of whole) this.sourceOf[r] = { partition: covering, label: 'all' };
     const wantsBottom = vertical !== null && layers.some((l) => l.kind === 'bottom');
     this.bottom = wantsBottom ? new BottomTracker(area.length) : null;
   }
 
   addLevel(k: number, model: ArrayLike<number>, ref: ArrayLike<number>): void {
     const thick = this.levelThickness[k];
+    const levels = this.partitions.map((part) => labelledMoments(model, ref, this.area, part.labels, part.count));
+    const merged = (p: number): { mo: PairMoments; refArea: number } => {
+      const mo = emptyMoments();
+      let refArea = 0;
+      levels[p].moments.forEach((m, L) => {
+        mergeMoments(mo, m);
+        refArea += levels[p].refWeight[L];
+      });
+      return { mo, refArea };
+    };
+    const whole = merged(this.wholePartition);
     for (let r = 0; r < this.regions.length; r++) {
-      const cells = this.regions[r].cells;
-      const mo = pairMoments(model, ref, this.area, cells);
-      const refArea = validWeight(ref, this.area, cells);
+      const src = this.sourceOf[r];
+      const { mo, refArea } = src.label === 'all' ? whole : { mo: levels[src.partition].moments[src.label], refArea: levels[src.partition].refWeight[src.label] };
       for (let l = 0; l < this.layers.length; l++) {
         const m = this.metres[l];
         const s = m ? m[k] : 0;
@@ -72,13 +110,13 @@ export class PairAccumulator {
       mergeMoments(this.full[r], mo, thick);
       this.fullRefW[r] += refArea * thick;
     }
-    if (this.globalIndex < 0) mergeMoments(this.globalFull, pairMoments(model, ref, this.area), thick);
+    mergeMoments(this.globalFull, whole.mo, thick);
     this.bottom?.update(k, model, ref);
   }
 
   /** Moments over every cell and the full depth (volume-weighted), for the multi-tracer cost. */
   globalFullDepth(): PairMoments {
-    return { ...(this.globalIndex >= 0 ? this.full[this.globalIndex] : this.globalFull) };
+    return { ...this.globalFull };
   }
 
   results(): CellResult[] {

@@ -124,3 +124,90 @@ export function pairMoments(model: Values, ref: Values, weight: Values, cells?: 
   out.sdd = Math.max(0, sdd - (ed * ed) / sw);
   return out;
 }
+
+/**
+ * Two-pass weighted moments for every label of a partition at once (labels[c] in 0..nLabels-1, or −1 for
+ * cells in no region): two passes over the level whatever the number of labels. Also sums, per label,
+ * the weight of the cells where the reference is valid (for the compared share).
+ */
+export function labelledMoments(
+  model: Values,
+  ref: Values,
+  weight: Values,
+  labels: Int16Array | Int32Array,
+  nLabels: number,
+): { moments: PairMoments[]; refWeight: Float64Array } {
+  const cnt = new Float64Array(nLabels);
+  const sw = new Float64Array(nLabels);
+  const swm = new Float64Array(nLabels);
+  const swr = new Float64Array(nLabels);
+  const refWeight = new Float64Array(nLabels);
+  const n = labels.length;
+  for (let c = 0; c < n; c++) {
+    const L = labels[c];
+    if (L < 0) continue;
+    const r = ref[c];
+    if (r - r !== 0) continue;
+    const w = weight[c];
+    if (!(w > 0 && w < Infinity)) continue;
+    refWeight[L] += w;
+    const m = model[c];
+    if (m - m !== 0) continue;
+    cnt[L]++;
+    sw[L] += w;
+    swm[L] += w * m;
+    swr[L] += w * r;
+  }
+  const mMean = new Float64Array(nLabels);
+  const rMean = new Float64Array(nLabels);
+  for (let L = 0; L < nLabels; L++) {
+    if (sw[L] > 0) {
+      mMean[L] = swm[L] / sw[L];
+      rMean[L] = swr[L] / sw[L];
+    }
+  }
+  const em = new Float64Array(nLabels);
+  const er = new Float64Array(nLabels);
+  const smm = new Float64Array(nLabels);
+  const srr = new Float64Array(nLabels);
+  const smr = new Float64Array(nLabels);
+  const sdd = new Float64Array(nLabels);
+  for (let c = 0; c < n; c++) {
+    const L = labels[c];
+    if (L < 0) continue;
+    const m = model[c];
+    const r = ref[c];
+    const w = weight[c];
+    if (m - m === 0 && r - r === 0 && w > 0 && w < Infinity) {
+      const a = m - mMean[L];
+      const b = r - rMean[L];
+      const d = a - b;
+      em[L] += w * a;
+      er[L] += w * b;
+      smm[L] += w * a * a;
+      srr[L] += w * b * b;
+      smr[L] += w * a * b;
+      sdd[L] += w * d * d;
+    }
+  }
+  const moments: PairMoments[] = [];
+  for (let L = 0; L < nLabels; L++) {
+    const W = sw[L];
+    if (cnt[L] === 0) {
+      moments.push(emptyMoments());
+      continue;
+    }
+    const ed = em[L] - er[L];
+    moments.push({
+      n: cnt[L],
+      w: W,
+      mMean: mMean[L] + em[L] / W,
+      rMean: rMean[L] + er[L] / W,
+      smm: Math.max(0, smm[L] - (em[L] * em[L]) / W),
+      srr: Math.max(0, srr[L] - (er[L] * er[L]) / W),
+      smr: smr[L] - (em[L] * er[L]) / W,
+      sdd: Math.max(0, sdd[L] - (ed * ed) / W),
+    });
+  }
+  return { moments, refWeight };
+}

@@ -34,6 +34,17 @@ describe('PairAccumulator', () => {
     check(skillFromMoments(acc.globalFullDepth()), fixture.expected_all);
     // the second region holds fewer cells than the whole
     expect(res.find((c) => c.region === 1 && c.layer === 1)!.moments.n).toBeLessThan(fixture.expected_all.n);
+
+    // with regions that partition the grid, the whole is the merge of their moments: still numpy's numbers
+    const odd = { name: 'odd', source: 'test', cells: Int32Array.from({ length: 20 }, (_, i) => 2 * i + 1) };
+    const acc2 = new PairAccumulator([half, all, odd], [{ kind: 'interval', top: 25, bottom: 130 }, { kind: 'all' }], axis, area);
+    for (let k = 0; k < axis.nz; k++) acc2.addLevel(k, arr(fixture.model[k]), arr(fixture.ref[k]));
+    const res2 = acc2.results();
+    check(skillFromMoments(res2.find((c) => c.region === 1 && c.layer === 0)!.moments), fixture.expected_25_130);
+    check(skillFromMoments(res2.find((c) => c.region === 1 && c.layer === 1)!.moments), fixture.expected_all);
+    check(skillFromMoments(acc2.globalFullDepth()), fixture.expected_all);
+    const halves = [0, 2].map((r) => res2.find((c) => c.region === r && c.layer === 1)!.moments.n);
+    expect(halves[0] + halves[1]).toBe(fixture.expected_all.n);
   });
 
   it('a 2-D field: surface and all are area-weighted; depth intervals and bottom say they do not apply', () => {
