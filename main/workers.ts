@@ -30,7 +30,9 @@ export function workerRunner(workerFile: string = defaultWorkerFile()): HeavyRun
         reject(cancelled());
         return;
       }
-      const worker = new Worker(workerFile);
+      // workerData must be an object: the `web-worker` package (under geotiff) destructures it when loaded
+      // off the main thread, and treats an object without its own `mod` key as a main thread.
+      const worker = new Worker(workerFile, { workerData: { stillwater: 'service-job' } });
       let settled = false;
       let killTimer: NodeJS.Timeout | undefined;
       const settle = (fn: () => void): void => {

@@ -1,8 +1,10 @@
 // The shell end to end, in Debian's Chromium against browser mode (issue 5): the page loads with the bridge
 // working and no console errors, nothing is requested from anywhere but 127.0.0.1, the CSP header arrives,
 // and the page refuses to load without the token.
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { callInPage, canRunBrowser, openWorkbench, type Workbench } from './harness.js';
+import { SAMPLE_DATA, callInPage, canRunBrowser, openWorkbench, type Workbench } from './harness.js';
 
 describe.skipIf(!canRunBrowser)('workbench shell in Chromium', () => {
   let wb: Workbench;
@@ -43,6 +45,57 @@ describe.skipIf(!canRunBrowser)('workbench shell in Chromium', () => {
       }
     });
     expect(code).toBe('E_FILE');
+  });
+
+  it('runs a heavy job in a worker thread with progress in the page, and cancels it', async () => {
+    const recipe = JSON.parse(readFileSync(join(SAMPLE_DATA, 'demo-recipe.json'), 'utf8')) as unknown;
+    const outcome = await wb.page.evaluate(
+      async ([r, base]) => {
+        type Ev = { jobId: string; fraction: number; state?: string };
+        const b = (globalThis as unknown as {
+          stillwaterBridge: {
+            call(n: string, i: unknown, o: { jobId: string; onProgress(e: Ev): void }): Promise<unknown>;
+            cancel(id: string): Promise<void>;
+            onProgress(cb: (e: Ev) => void): () => void;
+          };
+        }).stillwaterBridge;
+        const seen: Ev[] = [];
+        const all: Ev[] = [];
+        const off = b.onProgress((e) => all.push(e));
+        const jobId = 'e2e-heavy-1';
+        let cancelled = false;
+        const p = b.call('compare.run', { recipe: r, baseDir: base }, {
+          jobId,
+          onProgress: (e) => {
+            seen.push(e);
+            if (!cancelled && e.fraction > 0) {
+              cancelled = true;
+              void b.cancel(jobId);
+            }
+          },
+        });
+        // a job that reports no progress past 0 within 20 s is cancelled anyway
+        setTimeout(() => {
+          if (!cancelled) {
+            cancelled = true;
+            void b.cancel(jobId);
+          }
+        }, 20_000);
+        let code = 'finished';
+        try {
+          await p;
+        } catch (e) {
+          code = (e as { code?: string }).code ?? String(e);
+        }
+        await new Promise((w) => setTimeout(w, 200));
+        off();
+        return { code, mine: seen.length, states: all.filter((e) => e.jobId === jobId).map((e) => e.state) };
+      },
+      [recipe, SAMPLE_DATA] as const,
+    );
+    expect(outcome.code).toBe('E_CANCELLED');
+    expect(outcome.mine).toBeGreaterThan(0);
+    expect(outcome.states[outcome.states.length - 1]).toBe('cancelled');
   });
 
   it('sends the Content-Security-Policy with the page', async () => {
