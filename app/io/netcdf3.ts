@@ -5,7 +5,7 @@
  */
 import { fileError } from '../errors.js';
 import type { ByteSource } from './byte-source.js';
-import { allocArray, bigEndianToHost, DTYPE_SIZE } from './dtype.js';
+import { allocArrayForOverwrite, bigEndianToHost, DTYPE_SIZE } from './dtype.js';
 import { readCdf3Header, type Cdf3Header, type Cdf3Variable } from './netcdf3-header.js';
 import { checkSlab } from './slab.js';
 import { contiguousStrides, readStrided } from './strided-read.js';
@@ -58,7 +58,8 @@ export class Netcdf3Dataset implements RawDataset {
     if (!v) throw fileError('E_VARIABLE', this.path, `there is no variable '${name}'.`, name);
     const { s, c } = checkSlab(this.path, v, start, count);
     const size = DTYPE_SIZE[v.dtype];
-    const out = allocArray(v.dtype, c.reduce((a, b) => a * b, 1));
+    // every byte is overwritten by the read below
+    const out = allocArrayForOverwrite(v.dtype, c.reduce((a, b) => a * b, 1));
     const bytes = new Uint8Array(out.buffer, out.byteOffset, out.byteLength);
     const strides = contiguousStrides(v.shape, size);
     if (v.isRecord) strides[0] = this.header.recsize;

@@ -11,7 +11,7 @@ import { resolve } from 'node:path';
 import h5wasm, { type Dataset, type File as H5File } from 'h5wasm/node';
 import { fileError, StillwaterError } from '../errors.js';
 import { FileSource, type ByteSource } from './byte-source.js';
-import { allocArray, littleEndianToHost, bigEndianToHost, DTYPE_SIZE } from './dtype.js';
+import { allocArray, allocArrayForOverwrite, littleEndianToHost, bigEndianToHost, DTYPE_SIZE } from './dtype.js';
 import { readChunkIndex } from './hdf5/chunk-index.js';
 import { ChunkCache, chunkMap, readChunked, type ChunkedVariable } from './hdf5/chunked-read.js';
 import { filtersWeUndo } from './hdf5/filters.js';
@@ -93,7 +93,10 @@ export class Netcdf4Dataset implements RawDataset {
     const { s, c } = checkSlab(this.path, v, start, count);
     const plan = await this.planFor(v);
     if (plan.kind === 'library') return this.readWithLibrary(v, s, c);
-    const out = allocArray(v.dtype, c.reduce((a, b) => a * b, 1));
+    const n = c.reduce((a, b) => a * b, 1);
+    // chunks tile the slab and a contiguous read covers it, so every byte is overwritten unless storage was never written
+    const unwritten = plan.kind === 'contiguous' && plan.address === UNDEFINED_ADDRESS;
+    const out = unwritten ? allocArray(v.dtype, n) : allocArrayForOverwrite(v.dtype, n);
     const bytes = new Uint8Array(out.buffer, out.byteOffset, out.byteLength);
     const size = DTYPE_SIZE[v.dtype];
     if (plan.kind === 'contiguous') {
