@@ -10,10 +10,10 @@ export function timeIndex(src: FieldSource, time: TimeChoice): number | 'mean' {
   return time < 0 ? src.nt + time : time;
 }
 
-/** A fresh array (callers convert units in place). The mean skips missing steps of a cell. */
+/** The level as the source gives it (callers must not modify it). The mean skips missing steps of a cell. */
 export async function readLevelAt(src: FieldSource, t: number | 'mean', k: number): Promise<Float32Array> {
-  if (t !== 'mean') return Float32Array.from(await src.readLevel(t, k));
-  if (src.nt === 1) return Float32Array.from(await src.readLevel(0, k));
+  if (t !== 'mean') return src.readLevel(t, k);
+  if (src.nt === 1) return src.readLevel(0, k);
   let sum: Float64Array | null = null;
   let count: Uint32Array | null = null;
   for (let s = 0; s < src.nt; s++) {
