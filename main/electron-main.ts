@@ -3,7 +3,7 @@
  * --stillwater-root=DIR (repeated) and --stillwater-recipe=FILE.
  */
 import { BrowserWindow, app, ipcMain } from 'electron';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { serviceTable } from '../app/service.js';
 import { IPC } from '../renderer/bridge-contract.js';
 import { Dispatcher } from './dispatch.js';
@@ -33,12 +33,13 @@ void app.whenReady().then(() => {
   hardenSession();
   serveAppScheme(root);
   const guard = new PathGuard(roots.length ? roots : [join(root, 'sample-data'), process.cwd()]);
-  if (recipe) guard.grant(recipe);
+  // the recipe named at start may be read, and the data beside it (its paths are relative to its folder)
+  if (recipe) guard.grant(dirname(recipe));
   const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: join(app.getPath('userData'), 'cache'), heavy: workerRunner(join(distDir, 'worker.mjs')) });
   const openDialog = async (o: Parameters<typeof showOpenDialog>[1]): Promise<string[] | null> => {
     const paths = await showOpenDialog(win, o);
-    // a file the person picked may be read, even outside the folders named at start
-    for (const p of paths ?? []) guard.grant(p);
+    // a file the person picked may be read, even outside the folders named at start; for a recipe, its folder
+    for (const p of paths ?? []) guard.grant(/\.json$/i.test(p) ? dirname(p) : p);
     return paths;
   };
   registerIpc(ipcMain, serviceTable, dispatcher, { openDialog, startRecipe: recipe });

@@ -5,7 +5,7 @@
  */
 import { spawn } from 'node:child_process';
 import { existsSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 import { ensureDemo } from '../../sample-data/generator/generate.js';
 import { serviceTable } from '../../app/service.js';
 import { StillwaterError } from '../../app/errors.js';
@@ -39,7 +39,8 @@ function settings(args: ParsedArgs, root: string, defaultRecipe: string | null):
 /** Serve until the process is asked to stop; the URL (with its token) goes to stdout. */
 async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean): Promise<number> {
   const guard = new PathGuard(s.roots);
-  if (s.recipe) guard.grant(s.recipe);
+  // a recipe named at start may be read, and the data beside it (its paths are relative to its folder)
+  if (s.recipe) guard.grant(dirname(s.recipe));
   const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: join(process.cwd(), '.stillwater-cache'), heavy: workerRunner() });
   const server = await startServer({ dispatcher, port: s.port, startRecipe: s.recipe, root });
   if (!existsSync(join(root, 'dist', 'renderer', 'index.html'))) err('serve: dist/renderer/index.html is missing; run npm run build.');
