@@ -98,6 +98,7 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
     if (opts.signal?.aborted) throw new StillwaterError('E_CANCELLED', 'The comparison was cancelled.');
     const variable = recipe.variables[vi];
     const derived = recipe.options.derived[variable];
+    opts.onProgress?.(vi / recipe.variables.length, `${variable}: opening and regridding`);
     const readers: LevelReader[] = [];
     let densityClose: (() => Promise<void>) | null = null;
     let unowned: { close?(): Promise<void> } | null = null;
