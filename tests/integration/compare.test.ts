@@ -219,6 +219,16 @@ print(json.dumps({"units": f['PO4'].units, "shape": list(m.shape), "maxerr": flo
     expect(got.nd).toBe(got.nok);
   });
 
+  it('--json prints the rows, costs and written files as JSON on stdout', () => {
+    const out = join(dir, 'out-json');
+    const p = cli(['--recipe', join(dir, 'recipe.json'), '--out', out, '--json']);
+    expect(p.status).toBe(0);
+    const j = JSON.parse(p.stdout);
+    expect(j.rows).toHaveLength(56);
+    expect(j.costs.map((c: { run: string }) => c.run)).toEqual(['Same grid', 'Coarse']);
+    expect(j.outputs).toContain(join(out, 'skill.json'));
+  });
+
   it.each([
     ['a recipe that is not JSON', (d: string) => writeFileSync(join(d, 'r.json'), '{"runs": ['), /r\.json: the recipe is not valid JSON/],
     ['an unknown key', (d: string) => writeFileSync(join(d, 'r.json'), JSON.stringify({ ...recipe(), colour: 'blue' })), /recipe: unknown key 'colour'\./],
