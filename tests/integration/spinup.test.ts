@@ -6,9 +6,11 @@
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { isAbsolute, join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import type { SpinupResult, SpinupTrack } from '../../app/spinup/types.js';
+import type { SpinupResult, SpinupSummary, SpinupTrack } from '../../app/spinup/types.js';
+import { spinupServices } from '../../app/services/spinup.js';
+import { StillwaterError } from '../../app/errors.js';
 
 const root = join(__dirname, '../..');
 let dir: string;
@@ -187,4 +189,50 @@ describe('bad input: one sentence naming the file, exit 2, nothing written', () 
       expect(existsSync(join(dir, out)) ? readdirSync(join(dir, out)) : []).toEqual([]);
     });
   }
+});
+
+describe('spin-up services for the workbench', () => {
+  const ctx = () => ({
+    resolvePath: (p: string) => {
+      const abs = isAbsolute(p) ? p : join(dir, p);
+      if (!abs.startsWith(dir)) throw new StillwaterError('E_FILE', `${abs}: outside the allowed folders.`, { file: abs });
+      return abs;
+    },
+    roots: [dir],
+    cacheDir: join(dir, 'cache'),
+    progress: () => undefined,
+    signal: new AbortController().signal,
+  });
+  const service = (name: string) => spinupServices.find((e) => e.name === name)!;
+  const recipeJson = () => JSON.parse(readFileSync(join(dir, 'recipe.json'), 'utf8'));
+
+  it('spinup.verdict gives the banner summary of the run, the same as the command line', async () => {
+    const v = (await service('spinup.verdict').run({ recipe: recipeJson(), baseDir: dir }, ctx())) as SpinupSummary;
+    const cli: SpinupResult = JSON.parse(readFileSync(join(dir, 'out/spinup.json'), 'utf8'));
+    expect(v.run).toBe('spin');
+    expect(v.lastYear).toBe(2000);
+    expect(v.shortForDeep).toBe(true);
+    expect(v.sentence).toMatch(/has not settled|England 1995/);
+    // PO4 and o2 were followed on the command line; the service follows the run's own variables (PO4)
+    expect(v.tracks).toBe(cli.tracks.filter((t) => t.tracer === 'PO4').length);
+  });
+
+  it('spinup.verdict is null for a run without snapshots (no banner)', async () => {
+    const recipe = recipeJson();
+    delete recipe.runs[0].snapshots;
+    expect(await service('spinup.verdict').run({ recipe, baseDir: dir }, ctx())).toBeNull();
+  });
+
+  it('spinup.run refuses snapshot files outside the allowed folders', async () => {
+    const recipe = recipeJson();
+    recipe.runs[0].snapshots[0].file = '/etc/hostname';
+    await expect(service('spinup.run').run({ recipe, baseDir: dir, skill: false }, ctx())).rejects.toThrow(/outside the allowed folders/);
+  });
+
+  it('spinup.open reads a spinup.json back with NaN for missing values', async () => {
+    const r = (await service('spinup.open').run({ path: 'out/spinup.json' }, ctx())) as SpinupResult;
+    expect(r.years).toEqual(expected.years);
+    expect(r.tracks[0].mean.every((m) => typeof m === 'number')).toBe(true);
+    await expect(service('spinup.open').run({ path: 'expected.json' }, ctx())).rejects.toThrow(/not a spinup\.json/);
+  });
 });
