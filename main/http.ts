@@ -162,7 +162,9 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
     if (!file) return refuse(res, 404, `No such file: ${path}`);
     res.writeHead(200, { ...securityHeaders(), 'Content-Type': contentType(file), ...setCookie });
     if (req.method === 'HEAD') return void res.end();
-    createReadStream(file).pipe(res);
+    createReadStream(file)
+      .on('error', () => res.destroy())
+      .pipe(res);
   };
 
   const server = createServer((req, res) => {

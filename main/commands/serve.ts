@@ -37,28 +37,28 @@ function settings(args: ParsedArgs, root: string, defaultRecipe: string | null):
 }
 
 /** Serve until the process is asked to stop; the URL (with its token) goes to stdout. */
-async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean): Promise<number> {
+async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean, who: string): Promise<number> {
   const guard = new PathGuard(s.roots);
   // a recipe named at start may be read, and the data beside it (its paths are relative to its folder)
   if (s.recipe) guard.grant(dirname(s.recipe));
   const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: join(process.cwd(), '.stillwater-cache'), heavy: workerRunner() });
   const server = await startServer({ dispatcher, port: s.port, startRecipe: s.recipe, root });
-  if (!existsSync(join(root, 'dist', 'renderer', 'index.html'))) err('serve: dist/renderer/index.html is missing; run npm run build.');
-  err(`serve: the workbench is at ${server.url}`);
-  err(`serve: files readable under ${guard.roots.join(', ')}; press Ctrl+C to stop.`);
+  if (!existsSync(join(root, 'dist', 'renderer', 'index.html'))) err(`${who}: dist/renderer/index.html is missing; run npm run build.`);
+  err(`${who}: the workbench is at ${server.url}`);
+  err(`${who}: files readable under ${guard.roots.join(', ')}; press Ctrl+C to stop.`);
   out(server.url);
   if (openBrowser) {
     const opener = browserOpener();
     if (opener) {
       try {
         const child = spawn(opener.cmd, [...opener.args, server.url], { stdio: 'ignore', detached: true });
-        child.on('error', () => err('serve: could not open a browser; open the address above yourself.'));
+        child.on('error', () => err(`${who}: could not open a browser; open the address above yourself.`));
         child.unref();
       } catch {
-        err('serve: could not open a browser; open the address above yourself.');
+        err(`${who}: could not open a browser; open the address above yourself.`);
       }
     } else {
-      err('serve: no system browser to open here; open the address above yourself.');
+      err(`${who}: no system browser to open here; open the address above yourself.`);
     }
   }
   return new Promise<number>((done) => {
@@ -106,7 +106,7 @@ export const serveCommand: Command = {
     const args = parseArgs(argv, ['open']);
     allowOnly(args, 'serve', ['port', 'root', 'recipe', 'open']);
     const root = projectRoot();
-    return serveBrowser(settings(args, root, null), root, args.switches.has('open'));
+    return serveBrowser(settings(args, root, null), root, args.switches.has('open'), 'serve');
   },
 };
 
@@ -136,6 +136,6 @@ export const startCommand: Command = {
       const why = args.switches.has('browser') ? 'asked for' : !bin ? 'the Electron binary is not installed' : 'there is no display';
       err(`start: browser mode (${why}).`);
     }
-    return serveBrowser(s, root, true);
+    return serveBrowser(s, root, true, 'start');
   },
 };
