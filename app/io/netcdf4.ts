@@ -13,7 +13,7 @@ import { fileError, StillwaterError } from '../errors.js';
 import { FileSource, type ByteSource } from './byte-source.js';
 import { allocArray, allocArrayForOverwrite, littleEndianToHost, bigEndianToHost, DTYPE_SIZE } from './dtype.js';
 import { readChunkIndex } from './hdf5/chunk-index.js';
-import { ChunkCache, chunkMap, readChunked, type ChunkedVariable } from './hdf5/chunked-read.js';
+import { ChunkStore, chunkMap, readChunked, type ChunkedVariable } from './hdf5/chunked-read.js';
 import { filtersWeUndo } from './hdf5/filters.js';
 import { decodeStorage, type StorageInfo } from './hdf5/layout.js';
 import { readObjectHeader } from './hdf5/object-header.js';
@@ -70,7 +70,7 @@ export class Netcdf4Dataset implements RawDataset {
   readonly format = 'netcdf4-hdf5' as const;
   readonly variables: RawVariable[];
   private readonly plans = new Map<string, Promise<Plan>>();
-  private readonly cache = new ChunkCache();
+  private readonly store: ChunkStore;
 
   constructor(
     readonly path: string,
@@ -83,6 +83,7 @@ export class Netcdf4Dataset implements RawDataset {
     readonly notes: string[],
     private readonly objectAddress: (h5path: string) => number | undefined,
   ) {
+    this.store = new ChunkStore(source);
     this.variables = h5vars.map(({ name, dims, shape, dtype, attrs, note }) => ({ name, dims, shape, dtype, attrs, ...(note ? { note } : {}) }));
   }
 
@@ -103,7 +104,7 @@ export class Netcdf4Dataset implements RawDataset {
       if (plan.address === UNDEFINED_ADDRESS) fillBytes(bytes, size, plan.fill);
       else await readStrided(this.source, { base: plan.address, elementSize: size, shape: v.shape, strides: contiguousStrides(v.shape, size) }, s, c, bytes);
     } else {
-      await readChunked(this.source, plan.chunked, s, c, bytes, this.cache);
+      await readChunked(this.store, plan.chunked, s, c, bytes);
     }
     if (v.littleEndian) littleEndianToHost(bytes, size);
     else bigEndianToHost(bytes, size);

@@ -11,13 +11,13 @@
  */
 import { spawnSync } from 'node:child_process';
 import { closeSync, mkdtempSync, openSync, readSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { FileSource } from '../../app/io/byte-source.js';
 import { readCdf3Header } from '../../app/io/netcdf3-header.js';
 import { openDataset } from '../../app/io/open.js';
 
-const REPEATS = 15;
+const REPEATS = 25;
 const PY = '/usr/bin/python3';
 const PEER = join(process.cwd(), 'tests', 'bench', 'peers', 'io_peer.py');
 const NZ = 102;
@@ -143,6 +143,7 @@ async function main(): Promise<void> {
     });
     const widths = head.map((h, i) => Math.max(h.length, ...lines.map((l) => l[i].length)));
     for (const l of [head, ...lines]) console.log(l.map((c, i) => c.padEnd(widths[i])).join('  '));
+    console.log(`load average during the run: ${loadavg().map((x) => x.toFixed(1)).join(' ')} (figures on a busy machine vary from run to run)`);
     const same = checks.every(([a, b]) => Math.abs(a - b) < 1e-6 * Math.abs(b));
     console.log(`values read agree with netCDF4-python (checksum of first value of each level): ${same ? 'yes' : 'NO'}`);
     const missed = lines.some((l) => l[6] === 'MISSED');

@@ -2,12 +2,14 @@
  * Assemble a hyperslab of a chunked dataset from its stored chunks: read each needed chunk with
  * one ranged read, undo its filters, copy the overlapping box. Decoded chunks that reach outside
  * the slab are kept in a small cache, so level-by-level reads of chunks spanning several levels
- * inflate each chunk once.
+ * inflate each chunk once. When slabs are read one after the other along a dimension (level by
+ * level), the chunks of the next slabs are read ahead and inflated on Node's thread pool while the
+ * caller works on the current one.
  */
 import { readIntoFrom, type ByteSource } from '../byte-source.js';
 import { copyBox } from './box-copy.js';
 import type { ChunkEntry } from './chunk-index.js';
-import { decodeChunk } from './filters.js';
+import { decodeChunk, decodeChunkAsync } from './filters.js';
 import type { FilterStep } from './layout.js';
 import { UNDEFINED_ADDRESS } from './superblock.js';
 
@@ -18,6 +20,8 @@ export interface ChunkedVariable {
   filters: FilterStep[];
   fill?: Uint8Array;
   chunks: Map<string, ChunkEntry>;
+  /** the previous slab read, to notice reading level after level */
+  last?: { start: number[]; count: number[] };
 }
 
 export function chunkMap(entries: ChunkEntry[], chunk: number[]): Map<string, ChunkEntry> {
@@ -31,6 +35,9 @@ export class ChunkCache {
   private readonly entries = new Map<number, Uint8Array>();
   private bytes = 0;
   constructor(private readonly budget = 64 * 1024 * 1024) {}
+  has(address: number): boolean {
+    return this.entries.has(address);
+  }
   get(address: number): Uint8Array | undefined {
     const hit = this.entries.get(address);
     if (hit) {
@@ -51,47 +58,117 @@ export class ChunkCache {
   }
 }
 
-export async function readChunked(
-  source: ByteSource, v: ChunkedVariable, start: number[], count: number[], out: Uint8Array, cache: ChunkCache,
-): Promise<void> {
-  const rank = v.shape.length;
-  const { chunk, elementSize } = v;
-  const chunkElems = chunk.reduce((a, b) => a * b, 1);
-  const lo = start.map((s, i) => Math.floor(s / chunk[i]));
-  const hi = start.map((s, i) => Math.floor((s + count[i] - 1) / chunk[i]));
-  if (count.some((c) => c === 0)) return;
+/** How many slabs ahead to read, and how much may be in flight at once. */
+const READ_AHEAD_SLABS = 2;
+const MAX_PENDING = 8;
+const MAX_AHEAD_CHUNK_BYTES = 16 * 1024 * 1024;
+
+/** Decoded chunks of one file: a bounded cache plus chunks being read ahead. */
+export class ChunkStore {
+  private readonly cache = new ChunkCache();
+  private readonly pending = new Map<number, Promise<Uint8Array>>();
+  constructor(private readonly source: ByteSource) {}
+
+  async get(v: ChunkedVariable, entry: ChunkEntry, keep: boolean): Promise<Uint8Array> {
+    const hit = this.cache.get(entry.address);
+    if (hit) return hit;
+    const ahead = this.pending.get(entry.address);
+    let data: Uint8Array;
+    if (ahead) {
+      this.pending.delete(entry.address);
+      data = await ahead;
+    } else {
+      const raw = new Uint8Array(entry.size);
+      await readIntoFrom(this.source, entry.address, raw);
+      data = v.filters.length ? decodeChunk(raw, v.filters, entry.filterMask, v.elementSize) : raw;
+    }
+    if (keep) this.cache.put(entry.address, data);
+    return data;
+  }
+
+  readAhead(v: ChunkedVariable, entry: ChunkEntry): void {
+    const a = entry.address;
+    if (this.pending.size >= MAX_PENDING || this.pending.has(a) || this.cache.has(a)) return;
+    if (v.chunk.reduce((x, y) => x * y, 1) * v.elementSize > MAX_AHEAD_CHUNK_BYTES) return;
+    const job = (async () => {
+      const raw = new Uint8Array(entry.size);
+      await readIntoFrom(this.source, a, raw);
+      return v.filters.length ? decodeChunkAsync(raw, v.filters, entry.filterMask, v.elementSize) : raw;
+    })();
+    job.catch(() => undefined); // a failure surfaces when the chunk is asked for
+    this.pending.set(a, job);
+  }
+}
+
+/** Grid coordinates of the chunks a slab touches, C order. */
+function chunksOf(v: ChunkedVariable, start: number[], count: number[]): number[][] {
+  if (count.some((c) => c === 0)) return [];
+  const lo = start.map((s, i) => Math.floor(s / v.chunk[i]));
+  const hi = start.map((s, i) => Math.floor((s + count[i] - 1) / v.chunk[i]));
+  const out: number[][] = [];
   const idx = lo.slice();
   for (;;) {
-    const key = idx.join(',');
+    out.push(idx.slice());
+    let d = idx.length - 1;
+    for (; d >= 0; d--) {
+      if (++idx[d] <= hi[d]) break;
+      idx[d] = lo[d];
+    }
+    if (d < 0) return out;
+  }
+}
+
+/** The dimension along which this slab follows the previous one (same count, start moved by count), if any. */
+function stepDimension(last: ChunkedVariable['last'], start: number[], count: number[]): number {
+  if (!last || last.count.length !== count.length) return -1;
+  let dim = -1;
+  for (let i = 0; i < count.length; i++) {
+    if (last.count[i] !== count[i]) return -1;
+    if (last.start[i] === start[i]) continue;
+    if (dim >= 0 || start[i] !== last.start[i] + count[i]) return -1;
+    dim = i;
+  }
+  return dim;
+}
+
+export async function readChunked(
+  store: ChunkStore, v: ChunkedVariable, start: number[], count: number[], out: Uint8Array,
+): Promise<void> {
+  const { chunk, elementSize } = v;
+  const chunkElems = chunk.reduce((a, b) => a * b, 1);
+  const needed = chunksOf(v, start, count);
+  const neededKeys = new Set(needed.map((c) => c.join(',')));
+
+  const dim = stepDimension(v.last, start, count);
+  v.last = { start: start.slice(), count: count.slice() };
+  if (dim >= 0) {
+    for (let k = 1; k <= READ_AHEAD_SLABS; k++) {
+      const next = start.slice();
+      next[dim] += k * count[dim];
+      if (next[dim] + count[dim] > v.shape[dim]) break;
+      for (const c of chunksOf(v, next, count)) {
+        const key = c.join(',');
+        const entry = v.chunks.get(key);
+        if (entry && entry.address !== UNDEFINED_ADDRESS && !neededKeys.has(key)) store.readAhead(v, entry);
+      }
+    }
+  }
+
+  for (const idx of needed) {
     const origin = idx.map((c, i) => c * chunk[i]);
     const boxStart = origin.map((o, i) => Math.max(o, start[i]));
     const boxEnd = origin.map((o, i) => Math.min(o + chunk[i], start[i] + count[i]));
     const boxCount = boxEnd.map((e, i) => e - boxStart[i]);
     const whole = boxCount.every((c, i) => c === chunk[i]);
-    const entry = v.chunks.get(key);
-    let data: Uint8Array | undefined;
-    if (!entry || entry.address === UNDEFINED_ADDRESS) {
-      data = fillChunk(chunkElems, elementSize, v.fill);
-    } else {
-      data = cache.get(entry.address);
-      if (!data) {
-        const raw = new Uint8Array(entry.size);
-        await readIntoFrom(source, entry.address, raw);
-        data = v.filters.length ? decodeChunk(raw, v.filters, entry.filterMask, elementSize) : raw;
-        if (!whole) cache.put(entry.address, data);
-      }
-    }
+    const entry = v.chunks.get(idx.join(','));
+    const data = !entry || entry.address === UNDEFINED_ADDRESS
+      ? fillChunk(chunkElems, elementSize, v.fill)
+      : await store.get(v, entry, !whole);
     copyBox(
       data, chunk, boxStart.map((b, i) => b - origin[i]),
       out, count, boxStart.map((b, i) => b - start[i]),
       boxCount, elementSize,
     );
-    let d = rank - 1;
-    for (; d >= 0; d--) {
-      if (++idx[d] <= hi[d]) break;
-      idx[d] = lo[d];
-    }
-    if (d < 0) break;
   }
 }
 

@@ -2,7 +2,7 @@
  * Undoing the HDF5 filters netCDF-4 writers use: deflate (id 1), shuffle (id 2), fletcher32 (id 3).
  * Deflate runs in Node's native zlib; shuffle is a byte transpose done here.
  */
-import { inflateSync } from 'node:zlib';
+import { inflate, inflateSync } from 'node:zlib';
 import type { FilterStep } from './layout.js';
 
 export const FILTER_DEFLATE = 1;
@@ -22,6 +22,24 @@ export function decodeChunk(raw: Uint8Array, filters: FilterStep[], filterMask: 
     const f = filters[i];
     if (f.id === FILTER_DEFLATE) {
       const b = inflateSync(bytes);
+      bytes = new Uint8Array(b.buffer, b.byteOffset, b.byteLength);
+    } else if (f.id === FILTER_SHUFFLE) {
+      bytes = unshuffle(bytes, f.clientData[0] ?? elementSize);
+    } else if (f.id === FILTER_FLETCHER32) {
+      bytes = bytes.subarray(0, bytes.byteLength - 4);
+    }
+  }
+  return bytes;
+}
+
+/** As decodeChunk, with the inflate step run on Node's thread pool (for reading ahead). */
+export async function decodeChunkAsync(raw: Uint8Array, filters: FilterStep[], filterMask: number, elementSize: number): Promise<Uint8Array> {
+  let bytes = raw;
+  for (let i = filters.length - 1; i >= 0; i--) {
+    if (filterMask & (1 << i)) continue;
+    const f = filters[i];
+    if (f.id === FILTER_DEFLATE) {
+      const b = await new Promise<Buffer>((resolve, reject) => inflate(bytes, (err, out) => (err ? reject(err) : resolve(out))));
       bytes = new Uint8Array(b.buffer, b.byteOffset, b.byteLength);
     } else if (f.id === FILTER_SHUFFLE) {
       bytes = unshuffle(bytes, f.clientData[0] ?? elementSize);

@@ -69,6 +69,17 @@ describe('NetCDF-4 hyperslabs', () => {
     await ds.close();
   });
 
+  it('reads whole-chunk levels one after the other (read ahead on the thread pool) with the same values', async () => {
+    const ds = await openDataset(fixture('python_nc4.nc'));
+    const e = expectedNc('python_nc4').variables.o2;
+    for (let t = 0; t < 3; t++) {
+      for (let k = 0; k < 4; k++) {
+        expect(plain(await ds.read('o2', [t, k, 0, 0], [1, 1, 6, 8]))).toEqual(expectedSlab(e, [t, k, 0, 0], [1, 1, 6, 8]));
+      }
+    }
+    await ds.close();
+  });
+
   it('reads chunks and contiguous data itself, without the HDF5 library', async () => {
     const py = (await openDataset(fixture('python_nc4.nc'))) as Netcdf4Dataset;
     expect(await py.readRoute('o2')).toBe('chunked');
