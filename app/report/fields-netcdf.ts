@@ -79,8 +79,13 @@ function filled(a: Float32Array): Float32Array {
 export async function netcdfFieldSinks(outDir: string): Promise<{ factory: FieldSinkFactory; commit(): Promise<string[]>; discard(): Promise<void> }> {
   const staging = join(outDir, `.stillwater-fields-${process.pid}-${Date.now()}`);
   await mkdir(staging, { recursive: true });
+  const used = new Set<string>();
   const factory: FieldSinkFactory = async (info) => {
-    const file = join(staging, fieldsFileName(info.run, info.variable));
+    // two runs whose labels differ only in punctuation would share a name: number the later one
+    let name0 = fieldsFileName(info.run, info.variable);
+    for (let i = 2; used.has(name0); i++) name0 = fieldsFileName(`${info.run}_${i}`, info.variable);
+    used.add(name0);
+    const file = join(staging, name0);
     const w = await createNetcdf(file, header(info));
     const h = info.grid.horizontal;
     const v = info.grid.vertical;
