@@ -29,10 +29,12 @@ function styleOf(spec: DiagramSpec, r: DiagramRow): { colour: string; mark: Lege
   return { colour: RUN_COLOURS[ri % RUN_COLOURS.length], mark: REGION_MARKERS[gi % REGION_MARKERS.length] };
 }
 
-function legends(svg: SVGSVGElement, spec: DiagramSpec, x: number, y: number, skipped: number): void {
+/** Run and region legends; returns their height. */
+function legends(svg: SVGSVGElement, spec: DiagramSpec, x: number, y: number, skipped: number): number {
   const h1 = legend(svg, x, y, spec.runs.map((r, i) => ({ label: r, colour: RUN_COLOURS[i % RUN_COLOURS.length], marker: 'square' as const })), 'Run (colour)');
   const h2 = legend(svg, x, y + h1 + 14, spec.regions.map((g, i) => ({ label: g, colour: '#6b7280', marker: REGION_MARKERS[i % REGION_MARKERS.length] })), 'Region (marker)');
   if (skipped > 0) svg.append(text(x, y + h1 + h2 + 30, `${skipped} row${skipped > 1 ? 's' : ''} without numbers not shown`, { 'font-size': 11, fill: MUTED }));
+  return h1 + h2 + 14 + (skipped > 0 ? 24 : 0);
 }
 
 export function taylorFigure(spec: DiagramSpec): SVGSVGElement {
@@ -72,6 +74,8 @@ export function taylorFigure(spec: DiagramSpec): SVGSVGElement {
   const corrs = [0, 0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 0.95, 0.99];
   const allCorrs = negative ? [...corrs.filter((c) => c > 0).map((c) => -c), ...corrs] : corrs;
   for (const c of allCorrs) {
+    // in a quarter disc the y axis itself is r = 0; its label would sit on the axis' own ticks
+    if (c === 0 && !negative) continue;
     const th = Math.acos(c);
     const x = Math.cos(th);
     const y = Math.sin(th);
@@ -80,9 +84,11 @@ export function taylorFigure(spec: DiagramSpec): SVGSVGElement {
     const ly = Y((sMax + sMax * 0.045) * y);
     svg.append(text(lx, ly + 4, String(c), { 'text-anchor': x >= 0 ? 'start' : 'end', 'font-size': 10.5, fill: MUTED }));
   }
-  const clx = X(sMax * 0.78 * Math.cos(Math.PI / 4.3));
-  const cly = Y(sMax * 0.78 * Math.sin(Math.PI / 4.3)) - radius * 0.3;
-  svg.append(text(clx + radius * 0.27, cly, 'Correlation', { 'font-size': 12, fill: INK, transform: `rotate(45 ${clx + radius * 0.27} ${cly})`, 'text-anchor': 'middle' }));
+  // the word along the outer arc, outside the correlation labels, tangent to the arc
+  const ca = negative ? Math.PI / 2 : Math.PI / 4;
+  const clx = X(sMax * 1.13 * Math.cos(ca));
+  const cly = Y(sMax * 1.13 * Math.sin(ca));
+  svg.append(text(clx, cly, 'Correlation', { 'font-size': 12, fill: INK, transform: negative ? '' : `rotate(45 ${clx} ${cly})`, 'text-anchor': 'middle' }));
   // centred RMS difference arcs around the reference point
   for (const e of [0.25, 0.5, 0.75, 1, 1.25, 1.5]) {
     for (const arc of rmsArc(e, sMax, negative)) {
@@ -95,7 +101,6 @@ export function taylorFigure(spec: DiagramSpec): SVGSVGElement {
   svg.append(text(X(sMax / 2), Y(0) + 36, `Standard deviation, normalised by the reference's (σ model / σ reference)`, { 'text-anchor': 'middle', 'font-size': 12 }));
   // reference point and the rows
   svg.append(marker('star', X(1), Y(0), '#111111', 6));
-  svg.append(text(X(1), Y(0) - 11, spec.referenceLabel, { 'text-anchor': 'middle', 'font-size': 11 }));
   const dots = s('g', { class: 'points' });
   for (const { r, p } of pts) {
     const st = styleOf(spec, r);
@@ -104,8 +109,11 @@ export function taylorFigure(spec: DiagramSpec): SVGSVGElement {
     dots.append(m);
   }
   svg.append(dots);
-  svg.append(text(spec.width - legendW - 8, spec.height - 14, "Dashed blue arcs: centred RMS difference E'/σr", { 'font-size': 10.5, fill: MUTED }));
-  legends(svg, spec, spec.width - legendW, top + 6, spec.rows.length - pts.length);
+  const used = legends(svg, spec, spec.width - legendW, top + 6, spec.rows.length - pts.length);
+  const ly = top + 6 + used + 8;
+  legend(svg, spec.width - legendW, ly, [{ label: `${spec.referenceLabel} (reference)`, colour: '#111111', marker: 'star' }]);
+  svg.append(text(spec.width - legendW, ly + 24, "Dashed blue arcs: centred RMS", { 'font-size': 10.5, fill: MUTED }));
+  svg.append(text(spec.width - legendW, ly + 38, "difference E'/σr", { 'font-size': 10.5, fill: MUTED }));
   return svg;
 }
 

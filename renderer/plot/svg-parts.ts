@@ -44,9 +44,34 @@ export function text(x: number, y: number, str: string, attrs: Record<string, st
   return s('text', { x, y, ...attrs }, str);
 }
 
-export function title(svg: SVGSVGElement, x: number, y: number, main: string, sub?: string): void {
+/** Title and subtitle; a long subtitle wraps onto a second line. Returns the number of subtitle lines. */
+export function title(svg: SVGSVGElement, x: number, y: number, main: string, sub?: string): number {
   svg.append(text(x, y, main, { 'font-size': 14, 'font-weight': 600 }));
-  if (sub) svg.append(text(x, y + 17, sub, { 'font-size': 11.5, fill: MUTED }));
+  if (!sub) return 0;
+  const width = Number((svg.getAttribute('viewBox') ?? '0 0 800 0').split(/\s+/)[2]) - x - 8;
+  const lines = wrap(sub, Math.max(30, Math.floor(width / 6.1)), 2);
+  lines.forEach((line, i) => svg.append(text(x, y + 17 + i * 14, line, { 'font-size': 11.5, fill: MUTED })));
+  return lines.length;
+}
+
+/** Words into at most `maxLines` lines of about `chars` characters; the last line ends in … when cut. */
+export function wrap(str: string, chars: number, maxLines: number): string[] {
+  const words = str.split(/\s+/);
+  const lines: string[] = [];
+  let cur = '';
+  for (const w of words) {
+    if (cur && (cur + ' ' + w).length > chars) {
+      lines.push(cur);
+      cur = w;
+    } else cur = cur ? `${cur} ${w}` : w;
+  }
+  if (cur) lines.push(cur);
+  if (lines.length > maxLines) {
+    const kept = lines.slice(0, maxLines);
+    kept[maxLines - 1] = kept[maxLines - 1].replace(/.{0,1}$/, '…');
+    return kept;
+  }
+  return lines;
 }
 
 /** A horizontal axis along the bottom of `r`, with gridlines when asked. */

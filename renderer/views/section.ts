@@ -35,16 +35,16 @@ function describe(st: AppState, data: SectionData): Built['spec'] | null {
   const who = field === 'model' ? data.run : field === 'reference' ? st.session!.reference.label : `${data.run} minus ${st.session!.reference.label}`;
   const where =
     data.kind === 'zonal'
-      ? `zonal mean over ${data.region}, area-weighted, where run and reference both have water`
+      ? `Zonal mean over ${data.region}, area-weighted, where run and reference both have water`
       : data.kind === 'meridian'
-        ? `along ${lonText(Number(data.atGrid!.toFixed(2)))} (grid column nearest to ${lonText(data.at!)})`
-        : `along ${latText(Number(data.atGrid!.toFixed(2)))} (grid row nearest to ${latText(data.at!)})`;
+        ? `Section along ${lonText(Number(data.atGrid!.toFixed(2)))} (grid column nearest to ${lonText(data.at!)})`
+        : `Section along ${latText(Number(data.atGrid!.toFixed(2)))} (grid row nearest to ${latText(data.at!)})`;
   let deepest = 0;
   for (const f of data.seafloor) if (Number.isFinite(f) && f > deepest) deepest = f;
   const depthMax = st.sel.sectionDepth ?? (deepest > 0 ? deepest : data.depthEdges[data.depthEdges.length - 1]);
   return {
     title: `${name}: ${who}`,
-    subtitle: `Section ${where}`,
+    subtitle: where,
     edges: data.edges,
     axisLabel: data.axis === 'latitude' ? 'Latitude (degrees north)' : 'Longitude (degrees east)',
     formatX: data.axis === 'latitude' ? latText : lonText,

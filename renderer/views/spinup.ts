@@ -27,11 +27,12 @@ function linePath(xs: number[], ys: number[], sx: (v: number) => number, sy: (v:
 
 function spinupFigure(r: SpinupResult, track: SpinupTrack, rmse: { year: number; rmse: number }[], width: number, height: number): SVGSVGElement {
   const svg = figureRoot(width, height, `Spin-up of ${track.tracer}, ${track.region}, ${track.layer}`);
-  title(svg, 12, 18, `Spin-up of ${r.run}: ${track.tracer}, ${track.region}, ${track.layer}`, track.verdict.sentence);
+  const lines = title(svg, 12, 18, `Spin-up of ${r.run}: ${track.tracer}, ${track.region}, ${track.layer}`, track.verdict.sentence);
   const twoPanels = rmse.length > 1;
   const gap = 90;
   const w = twoPanels ? (width - 76 - gap - 24) / 2 : width - 76 - 24 - 180;
-  const plot: Rect = { x: 76, y: 60, w, h: height - 60 - 56 };
+  const top = lines > 1 ? 72 : 60;
+  const plot: Rect = { x: 76, y: top, w, h: height - top - 56 };
   const years = r.years;
   const sx = linear(padded(Math.min(...years), Math.max(...years), 0.03), [plot.x, plot.x + plot.w]);
   const vals = track.mean.filter(Number.isFinite);
