@@ -42,6 +42,8 @@ export interface OursResult {
   lookupMs: number;
   recolourMs: number[];
   recolourWithRangeMs: number[];
+  /** the 2-98 % range alone (quantileRange of model and reference) */
+  rangeMs: number[];
   cells: number;
   pixels: number;
 }
@@ -64,6 +66,7 @@ async function ours(step: number, width: number, repeats: number): Promise<OursR
   await nextFrame();
   const recolourMs: number[] = [];
   const recolourWithRangeMs: number[] = [];
+  const rangeMs: number[] = [];
   for (let n = 0; n < repeats; n++) {
     const values = levels[(n % 3) + 1];
     let t0 = performance.now();
@@ -72,11 +75,12 @@ async function ours(step: number, width: number, repeats: number): Promise<OursR
     // as the view does when no colour range is fixed: the 2-98 % range of model and reference first
     t0 = performance.now();
     const r = quantileRange([values, levels[0]]) ?? fixed;
+    rangeMs.push(performance.now() - t0);
     paint(canvas, lut, choice(values, r));
     recolourWithRangeMs.push((await nextFrame()) - t0);
   }
   canvas.remove();
-  return { lookupMs, recolourMs, recolourWithRangeMs, cells: grid.nx * grid.ny, pixels: canvas.width * canvas.height };
+  return { lookupMs, recolourMs, recolourWithRangeMs, rangeMs, cells: grid.nx * grid.ny, pixels: canvas.width * canvas.height };
 }
 
 /** Peer: a Plotly heatmap of the same field (plate carrée only), redrawn with the next level's values. */
