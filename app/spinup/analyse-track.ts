@@ -19,6 +19,11 @@ export interface TrackInput {
   units: string;
   /** the track includes depths below 1000 m */
   deep: boolean;
+  /**
+   * added to the mean before the relative drift is taken: the zero of an interval scale (273.15 for degC,
+   * so that a temperature drift is relative to the mean in kelvin); 0 for amounts and ratios
+   */
+  scaleZero?: number;
   thresholdPercentPerKyr: number;
   tailYears?: number;
 }
@@ -45,7 +50,8 @@ export function driftRate(input: TrackInput): DriftRate {
     n: t.length,
     perKyr: perYear * 1000,
     windowMean: m,
-    percentPerKyr: m !== 0 ? ((perYear * 1000) / Math.abs(m)) * 100 : null,
+    percentPerKyr: m + (input.scaleZero ?? 0) !== 0 ? ((perYear * 1000) / Math.abs(m + (input.scaleZero ?? 0))) * 100 : null,
+    ...(input.scaleZero ? { relativeTo: 'the mean in kelvin' } : {}),
     inventoryPerKyr: linearSlope(t, inv) * 1000,
     window: tail.description,
   };
@@ -126,7 +132,7 @@ export function analyseTrack(input: TrackInput): TrackAnalysis {
   const tw = t.slice(start);
   const xw = x.slice(start);
   // the threshold is relative to the same mean as the drift rate: the tail's
-  const thresholdPerKyr = (input.thresholdPercentPerKyr / 100) * Math.abs(drift.windowMean);
+  const thresholdPerKyr = (input.thresholdPercentPerKyr / 100) * Math.abs(drift.windowMean + (input.scaleZero ?? 0));
   const range = Math.max(...x) - Math.min(...x);
   let fit: FirstOrderFit | null = null;
   let fitNote: string;
@@ -158,6 +164,7 @@ function verdictFor(
   lastYear: number,
 ): TrackVerdict {
   const over = `over model years ${yrs(drift.fromYear)}–${yrs(drift.toYear)}`;
+  const ofMean = `of ${drift.relativeTo ?? 'the mean'}`;
   const parts: string[] = [];
   let status: TrackVerdict['status'];
   if (drift.percentPerKyr === null) {
@@ -165,10 +172,10 @@ function verdictFor(
     parts.push(`Undetermined: the mean is zero, so a relative drift has no meaning; the drift is ${fmtSigned(drift.perKyr)} ${input.units} per 1000 years ${over}.`);
   } else if (Math.abs(drift.percentPerKyr) <= input.thresholdPercentPerKyr) {
     status = 'settled';
-    parts.push(`Settled: drift ${fmtSigned(drift.percentPerKyr)} % of the mean per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr)} %).`);
+    parts.push(`Settled: drift ${fmtSigned(drift.percentPerKyr)} % ${ofMean} per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr)} %).`);
   } else {
     status = 'drifting';
-    parts.push(`Still drifting: ${fmtSigned(drift.percentPerKyr)} % of the mean per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr)} %).`);
+    parts.push(`Still drifting: ${fmtSigned(drift.percentPerKyr)} % ${ofMean} per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr)} %).`);
   }
   if (turningYears.length) {
     parts.push(`The track overshoots and turns back (turning point${turningYears.length > 1 ? 's' : ''} at model year ${turningYears.map(yrs).join(', ')}), so it is not monotonic; the fit uses only the snapshots after the last turning point.`);

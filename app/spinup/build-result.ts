@@ -1,3 +1,4 @@
+import type { ParsedUnits } from '../cf/units.js';
 import { analyseTrack, DEEP_SETTLING_YEARS } from './analyse-track.js';
 import { inventoryUnits } from './inventory-units.js';
 import { isDeepLayer } from './layer-fractions.js';
@@ -5,6 +6,14 @@ import { layerLabel } from '../regions/layers.js';
 import type { SeriesSums } from './series.js';
 import { summarise } from './summary.js';
 import type { SkillPoint, SpinupResult, SpinupSettings, SpinupTrack } from './types.js';
+
+/**
+ * The zero of a temperature scale in the field's units (273.15 for degC, 0 for K): a drift relative to a
+ * mean in degC would depend on where the scale puts its zero, so temperatures are taken relative to kelvin.
+ */
+function scaleZero(u: ParsedUnits): number {
+  return u.kind === 'temperature' ? (u.offset + 273.15) / u.factor : 0;
+}
 
 /** Tracks (series + drift + fit + verdict) for every tracer x region x layer, and the run's summary. */
 export function buildResult(run: string, series: SeriesSums, settings: SpinupSettings, skill: SkillPoint[] = []): SpinupResult {
@@ -14,7 +23,7 @@ export function buildResult(run: string, series: SeriesSums, settings: SpinupSet
   const tracers = series.tracers.map((t) => {
     const inv = inventoryUnits(t.field.units, settings.nominalDensity, weightsAreAreas);
     if (inv.note) notes.push(`${t.spec.name}: ${inv.note}.`);
-    return { name: t.spec.name, variable: t.spec.variable, units: t.field.units.text, inventoryUnits: inv.units, inventoryNote: inv.note, factor: inv.factor };
+    return { name: t.spec.name, variable: t.spec.variable, units: t.field.units.text, inventoryUnits: inv.units, inventoryNote: inv.note, factor: inv.factor, perVolume: inv.perVolume ?? 0, scaleZero: scaleZero(t.field.units) };
   });
   const tracks: SpinupTrack[] = [];
   tracers.forEach((tr, j) => {
@@ -26,7 +35,7 @@ export function buildResult(run: string, series: SeriesSums, settings: SpinupSet
         });
         const inventory = series.sums.map((s) => {
           const a = s[j][r][l];
-          return a.volume > 0 ? a.sumCV * tr.factor : NaN;
+          return a.volume > 0 ? a.sumCV * tr.factor + a.volume * tr.perVolume : NaN;
         });
         const a = analyseTrack({
           years,
@@ -34,6 +43,7 @@ export function buildResult(run: string, series: SeriesSums, settings: SpinupSet
           inventory,
           units: tr.units,
           deep: isDeepLayer(layer, series.grid.vertical),
+          scaleZero: tr.scaleZero,
           thresholdPercentPerKyr: settings.thresholdPercentPerKyr,
           tailYears: settings.tailYears,
         });
@@ -64,7 +74,7 @@ export function buildResult(run: string, series: SeriesSums, settings: SpinupSet
     run,
     years,
     snapshots: series.snapshots.map((s) => ({ file: s.file, year: s.year, ...(s.timeIndex !== undefined ? { timeIndex: s.timeIndex } : {}) })),
-    tracers: tracers.map(({ factor: _f, ...t }) => t),
+    tracers: tracers.map(({ factor: _f, perVolume: _p, scaleZero: _z, ...t }) => t),
     regions: series.regions,
     layers: series.layers.map(layerLabel),
     settings,

@@ -62,8 +62,10 @@ export interface SnapshotSums {
 export interface InventoryUnits {
   /** unit of the inventory, e.g. "mol" */
   units: string;
-  /** multiply Σ c·V (field units × m³) by this to get the inventory in `units` */
+  /** inventory = factor · Σ c·V (field units × m³) + perVolume · Σ V */
   factor: number;
+  /** for scales whose zero is elsewhere (a temperature in K counted from 0 °C), per m³; default 0 */
+  perVolume?: number;
   /** a sentence when an assumption was made, e.g. the nominal density */
   note?: string;
 }
@@ -79,7 +81,9 @@ export interface DriftRate {
   perKyr: number;
   /** mean of the track over the window, field units */
   windowMean: number;
-  /** slope relative to |windowMean|, per cent per 1000 years (null when the mean is zero) */
+  /** what the relative drift is relative to, when not the mean itself (temperatures: "the mean in kelvin") */
+  relativeTo?: string;
+  /** slope relative to |windowMean| (temperatures: in kelvin), per cent per 1000 years (null when that is zero) */
   percentPerKyr: number | null;
   /** slope of the inventory, inventory units per 1000 years */
   inventoryPerKyr: number;
