@@ -1,4 +1,7 @@
-/** skill.tex: a booktabs table (needs \usepackage{booktabs}) with units, one block per variable. */
+/**
+ * skill.tex: a booktabs table with units, one block per variable, as a longtable so that a table of hundreds
+ * of rows breaks across pages (needs \usepackage{booktabs,longtable}).
+ */
 import type { ComparisonResult } from '../compare/run.js';
 import { DASH, fmtCount, fmtNumber } from './format.js';
 
@@ -12,8 +15,10 @@ export function texEscape(s: string): string {
 
 /** "umol kg-1" → "$\mu$mol\,kg$^{-1}$" */
 export function texUnits(u: string): string {
-  return u
-    .trim()
+  const t = u.trim();
+  if (t === 'degC') return '$^{\\circ}$C';
+  if (t === '1e-3') return '$10^{-3}$';
+  return t
     .split(/\s+/)
     .map((tok) => {
       const m = /^([A-Za-zµμ°]+)(-?\d+)?$/.exec(tok);
@@ -31,24 +36,32 @@ function num(x: number | null | undefined, digits = 4): string {
 }
 
 export function skillLatex(result: ComparisonResult, caption = 'Skill of the model runs against the reference'): string {
+  const head = "Run & Region & Layer & $n$ & Bias & RMSE & $E'$ & $r$ & $\\sigma_m/\\sigma_r$ & $S$ \\\\";
   const out: string[] = [
-    '% Written by stillwater. Needs \\usepackage{booktabs}.',
-    '\\begin{table}',
-    '\\centering',
-    `\\caption{${texEscape(caption)}. Bias = model $-$ reference; $E'$ the centred RMS difference; $r$ the weighted correlation; $S$ the Taylor (2001) skill score.}`,
-    '\\begin{tabular}{lllrrrrrrr}',
+    '% Written by stillwater. Needs \\usepackage{booktabs,longtable}.',
+    '\\begin{longtable}{lllrrrrrrr}',
+    `\\caption{${texEscape(caption)}. Bias = model $-$ reference; $E'$ the centred RMS difference; $r$ the weighted correlation; $S$ the Taylor (2001) skill score.} \\\\`,
     '\\toprule',
-    "Run & Region & Layer & $n$ & Bias & RMSE & $E'$ & $r$ & $\\sigma_m/\\sigma_r$ & $S$ \\\\",
+    head,
+    '\\midrule',
+    '\\endfirsthead',
+    '\\toprule',
+    head,
+    '\\midrule',
+    '\\endhead',
+    '\\bottomrule',
+    '\\endlastfoot',
   ];
-  for (const v of result.variables) {
-    out.push('\\midrule', `\\multicolumn{10}{l}{\\textbf{${texEscape(v.variable)}} (${texUnits(v.units)})} \\\\`, '\\midrule');
+  result.variables.forEach((v, i) => {
+    if (i > 0) out.push('\\midrule');
+    out.push(`\\multicolumn{10}{l}{\\textbf{${texEscape(v.variable)}} (${texUnits(v.units)})} \\\\`, '\\midrule');
     for (const r of result.rows.filter((x) => x.variable === v.variable)) {
       out.push(
         [texEscape(r.run), texEscape(r.region), texEscape(r.layer), fmtCount(r.n), num(r.bias), num(r.rmse), num(r.crmse), num(r.corr, 3), num(r.std_ratio, 3), num(r.taylor_skill, 3)].join(' & ') +
           ' \\\\',
       );
     }
-  }
-  out.push('\\bottomrule', '\\end{tabular}', '\\end{table}', '');
+  });
+  out.push('\\end{longtable}', '');
   return out.join('\n');
 }

@@ -51,8 +51,9 @@ describe('skill tables', () => {
     expect(texEscape('a_b & 50% #1 {x} $')).toBe('a\\_b \\& 50\\% \\#1 \\{x\\} \\$');
     expect(texUnits('umol kg-1')).toBe('$\\mu$mol\\,kg$^{-1}$');
     expect(texUnits('mmol m-3')).toBe('mmol\\,m$^{-3}$');
+    expect(texUnits('degC')).toBe('$^{\\circ}$C');
     const tex = skillLatex(result);
-    expect(tex).toMatch(/\\toprule[\s\S]*\\midrule[\s\S]*\\bottomrule/);
+    expect(tex).toMatch(/\\begin\{longtable\}[\s\S]*\\toprule[\s\S]*\\midrule[\s\S]*\\bottomrule[\s\S]*\\end\{longtable\}/);
     expect(tex).toMatch(/Run "A", v2 & arctic & 0-100 m & 0 & --- & ---/);
     // braces balance
     const opens = (tex.match(/(?<!\\)\{/g) ?? []).length;
