@@ -1,5 +1,6 @@
 import { fieldFromDataset } from '../cf/open-field.js';
 import { openDataset } from '../io/open.js';
+import { findVariable } from '../io/types.js';
 import type { SnapshotHandle } from './series.js';
 
 /** A snapshot file opened once; every tracer's field is read lazily from the same dataset. */
@@ -7,6 +8,7 @@ export async function openSnapshot(file: string): Promise<SnapshotHandle> {
   const ds = await openDataset(file);
   return {
     field: (variable, units) => fieldFromDataset(ds, variable, units ? { units } : {}),
+    has: (variable) => findVariable(ds, variable) !== undefined,
     close: () => ds.close(),
   };
 }

@@ -13,6 +13,8 @@ import type { SnapshotSpec, SnapshotSums, TracerSpec } from './types.js';
 export interface SnapshotHandle {
   /** throws StillwaterError E_VARIABLE when the file has no such variable */
   field(variable: string, units?: string): Promise<FieldSource>;
+  /** whether the file holds a variable, from its header alone (optional: lets the first pass skip building grids) */
+  has?(variable: string): boolean;
   close(): Promise<void>;
 }
 
@@ -50,17 +52,19 @@ export async function globalRegion(grid: HorizontalGrid): Promise<Region[]> {
   return [{ name: 'global', source: 'built-in', cells: cellsWhere(grid.nx * grid.ny, () => true) }];
 }
 
+function missingVariable(s: SnapshotSpec, tracer: TracerSpec, detail: string): StillwaterError {
+  return new StillwaterError('E_VARIABLE', `${s.file}: the snapshot at model year ${s.year}${s.origin ? ` (${s.origin})` : ''} has no variable '${tracer.variable}' (${detail})`, {
+    file: s.file,
+    variable: tracer.variable,
+    path: s.origin,
+  });
+}
+
 async function openField(h: SnapshotHandle, s: SnapshotSpec, tracer: TracerSpec, units: string | undefined): Promise<FieldSource> {
   try {
     return await h.field(tracer.variable, units);
   } catch (e) {
-    if (isStillwaterError(e) && e.code === 'E_VARIABLE') {
-      throw new StillwaterError('E_VARIABLE', `${s.file}: the snapshot at model year ${s.year}${s.origin ? ` (${s.origin})` : ''} has no variable '${tracer.variable}' (${e.message})`, {
-        file: s.file,
-        variable: tracer.variable,
-        path: s.origin,
-      });
-    }
+    if (isStillwaterError(e) && e.code === 'E_VARIABLE') throw missingVariable(s, tracer, e.message);
     throw e;
   }
 }
@@ -95,10 +99,17 @@ export async function expandSnapshots(specs: SnapshotSpec[], firstTracer: Tracer
   return out;
 }
 
+function cancelled(signal?: AbortSignal): void {
+  if (signal?.aborted) throw new StillwaterError('E_CANCELLED', 'The spin-up analysis was cancelled.');
+}
+
 /**
- * Volume-weighted sums of every tracer x region x layer for every snapshot. A first pass opens every
- * snapshot's header (cheap) and refuses bad input before any data is read: a missing variable, another
- * grid, a time step outside the file. The second pass reads level by level; memory holds one level.
+ * Volume-weighted sums of every tracer x region x layer for every snapshot. A first pass reads every
+ * snapshot's header and refuses bad input before any data is read: a missing variable, another grid, a
+ * time step outside the file (it builds the grid of the first tracer only; the others are checked for
+ * presence, and their grids and units in the second pass, which compares arrays and costs nothing).
+ * The second pass reads level by level; memory holds one level. Results are only returned, never
+ * written, so a refusal in either pass leaves nothing behind.
  */
 export async function seriesSums(input: SeriesInput): Promise<SeriesSums> {
   const { tracers, layers, open } = input;
@@ -106,60 +117,61 @@ export async function seriesSums(input: SeriesInput): Promise<SeriesSums> {
   const snapshots = await expandSnapshots(input.snapshots, tracers[0], open);
   checkSnapshotList(snapshots, input.listName);
 
-  // pass 1: headers only
   const infos: TracerInfo[] = [];
   let grid: Grid | null = null;
   let firstFile = '';
-  for (const s of snapshots) {
-    input.signal?.throwIfAborted();
+  /** the same units and grid as the first snapshot, and the time step present */
+  const check = (f: FieldSource, s: SnapshotSpec, j: number): void => {
+    const subject = { file: s.file, variable: tracers[j].variable, path: s.origin };
+    const where = `${s.file}: variable '${tracers[j].variable}' of the snapshot at model year ${s.year}`;
+    if (!infos[j]) infos[j] = { spec: tracers[j], field: { units: f.units, grid: f.grid } };
+    else if (f.units.canonical !== infos[j].field.units.canonical || f.units.factor !== infos[j].field.units.factor) {
+      throw new StillwaterError('E_UNITS', `${where} is in '${f.units.text}' but in '${infos[j].field.units.text}' in ${firstFile}; all snapshots of a run must use the same units.`, subject);
+    }
+    if (!grid) {
+      grid = f.grid;
+      firstFile = s.file;
+    } else {
+      const diff = gridDifference(grid, f.grid);
+      if (diff) throw new StillwaterError('E_GRID', `${where} is on another grid than ${firstFile} (${diff}); all snapshots of a run must share one grid.`, subject);
+    }
+    const t = s.timeIndex ?? 0;
+    if (t >= f.nt) throw new StillwaterError('E_INPUT', `${s.file}: time step ${t + 1} was asked for, but variable '${tracers[j].variable}' has ${f.nt}.`, subject);
+  };
+
+  // pass 1: headers only
+  for (let i = 0; i < snapshots.length; i++) {
+    const s = snapshots[i];
+    cancelled(input.signal);
     const h = await open(s.file);
     try {
       for (let j = 0; j < tracers.length; j++) {
-        const f = await openField(h, s, tracers[j], tracers[j].units);
-        if (!infos[j]) infos[j] = { spec: tracers[j], field: { units: f.units, grid: f.grid } };
-        else if (f.units.canonical !== infos[j].field.units.canonical || f.units.factor !== infos[j].field.units.factor) {
-          throw new StillwaterError('E_UNITS', `${s.file}: variable '${tracers[j].variable}' of the snapshot at model year ${s.year} is in '${f.units.text}' but in '${infos[j].field.units.text}' in ${firstFile}; all snapshots of a run must use the same units.`, {
-            file: s.file,
-            variable: tracers[j].variable,
-            path: s.origin,
-          });
+        if (i > 0 && j > 0 && h.has) {
+          if (!h.has(tracers[j].variable)) throw missingVariable(s, tracers[j], 'it is not in the file');
+          continue;
         }
-        if (!grid) {
-          grid = f.grid;
-          firstFile = s.file;
-        } else {
-          const diff = gridDifference(grid, f.grid);
-          if (diff) {
-            throw new StillwaterError('E_GRID', `${s.file}: variable '${tracers[j].variable}' of the snapshot at model year ${s.year} is on another grid than ${firstFile} (${diff}); all snapshots of a run must share one grid.`, {
-              file: s.file,
-              variable: tracers[j].variable,
-              path: s.origin,
-            });
-          }
-        }
-        const t = s.timeIndex ?? 0;
-        if (t >= f.nt) {
-          throw new StillwaterError('E_INPUT', `${s.file}: time step ${t + 1} was asked for, but variable '${tracers[j].variable}' has ${f.nt}.`, { file: s.file, path: s.origin });
-        }
+        check(await openField(h, s, tracers[j], tracers[j].units), s, j);
       }
     } finally {
       await h.close();
     }
   }
   if (!grid) throw new StillwaterError('E_INTERNAL', 'no grid after reading the snapshot headers');
+  const theGrid: Grid = grid;
 
-  const regions = await (input.regions ?? globalRegion)(grid.horizontal);
+  const regions = await (input.regions ?? globalRegion)(theGrid.horizontal);
   // pass 2: data, level by level
   const sums: SnapshotSums[][][][] = [];
   for (let i = 0; i < snapshots.length; i++) {
     const s = snapshots[i];
-    input.signal?.throwIfAborted();
+    cancelled(input.signal);
     input.progress?.(i / snapshots.length, `snapshot ${i + 1} of ${snapshots.length}: model year ${s.year}`);
     const h = await open(s.file);
     try {
       const perTracer: SnapshotSums[][][] = [];
-      for (const info of infos) {
-        const f = await openField(h, s, info.spec, info.spec.units);
+      for (let j = 0; j < infos.length; j++) {
+        const f = await openField(h, s, infos[j].spec, infos[j].spec.units);
+        check(f, s, j);
         perTracer.push(await snapshotSums(f, s.timeIndex ?? 0, regions, layers));
       }
       sums.push(perTracer);
@@ -168,5 +180,5 @@ export async function seriesSums(input: SeriesInput): Promise<SeriesSums> {
     }
   }
   input.progress?.(1, `${snapshots.length} snapshots read`);
-  return { snapshots, tracers: infos, regions: regions.map((r) => r.name), layers, grid, sums };
+  return { snapshots, tracers: infos, regions: regions.map((r) => r.name), layers, grid: theGrid, sums };
 }

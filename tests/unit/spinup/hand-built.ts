@@ -46,6 +46,7 @@ export function memoryOpener(files: Record<string, Record<string, FieldSource>>)
         if (!f) throw new StillwaterError('E_VARIABLE', `${file}: there is no variable '${variable}'.`, { file, variable });
         return f;
       },
+      has: (variable: string) => variable in vars,
       async close() {
         open--;
       },

@@ -4,7 +4,7 @@ import { buildResult } from '../../../app/spinup/build-result.js';
 import { DEFAULT_SETTINGS, type LayerSpec, type SnapshotSpec } from '../../../app/spinup/types.js';
 import { StillwaterError } from '../../../app/errors.js';
 import type { FieldSource } from '../../../app/cf/field.js';
-import { handField, handGrid, memoryOpener } from './hand-built.js';
+import { handField, handGrid, memoryOpener, UMOL_KG } from './hand-built.js';
 
 const grid = handGrid([0, 10, 20, 30], [-10, 0, 10], [0, 50, 150, 400]);
 const layers: LayerSpec[] = [
@@ -107,6 +107,16 @@ describe('spin-up series over snapshot files', () => {
     expect(e.message).toMatch(/^year-200\.nc: the snapshot at model year 200 .*has no variable 'PO4'/);
     expect(levelsRead).toBe(0);
     expect(open.openCount()).toBe(0);
+  });
+
+  it('refuses a second tracer in other units in a later snapshot, naming the file (checked while reading, before any result)', async () => {
+    const { specs, files } = demoFiles([100, 200, 300]);
+    for (const [name, vars] of Object.entries(files)) vars.NO3 = snapshotField(name, 1, 'NO3');
+    const f = files['year-300.nc'].NO3;
+    files['year-300.nc'].NO3 = handField('year-300.nc', 'NO3', f.grid, new Float32Array(6 * 3), UMOL_KG);
+    const e = await refusal(seriesSums({ snapshots: specs, listName: 'runs[0].snapshots', tracers: [...tracers, { name: 'nitrate', variable: 'NO3' }], layers, open: memoryOpener(files) }));
+    expect(e.code).toBe('E_UNITS');
+    expect(e.message).toMatch(/^year-300\.nc: variable 'NO3' .* is in 'umol kg-1' but in 'mmol m-3' in year-100\.nc/);
   });
 
   it('takes model years from a CF time axis when the list gives none (one file, several time steps)', async () => {
