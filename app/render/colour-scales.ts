@@ -59,21 +59,68 @@ export function lightness(r: number, g: number, b: number): number {
   return 116 * f - 16;
 }
 
-/** Value range of a data array, ignoring NaN, between two quantiles (robust to a few extreme cells). */
+/**
+ * The k-th smallest value of a[0..n) (0-based), rearranging `a` in place: selection in linear expected time
+ * (Hoare's FIND with a median-of-three pivot), so that a robust range costs far less than a full sort.
+ */
+export function selectKth(a: Float64Array, n: number, k: number): number {
+  let lo = 0;
+  let hi = n - 1;
+  while (hi > lo) {
+    const mid = (lo + hi) >> 1;
+    // median of three as the pivot
+    let p = a[mid];
+    const x = a[lo];
+    const z = a[hi];
+    if ((x <= p && p <= z) || (z <= p && p <= x)) {
+      /* p is the median */
+    } else if ((p <= x && x <= z) || (z <= x && x <= p)) p = x;
+    else p = z;
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (a[i] < p) i++;
+      while (a[j] > p) j--;
+      if (i <= j) {
+        const t = a[i];
+        a[i] = a[j];
+        a[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else return a[k];
+  }
+  return a[k];
+}
+
+/** Value range of data arrays, ignoring NaN, between two quantiles (robust to a few extreme cells). */
 export function quantileRange(values: ArrayLike<number>[], lowQ = 0.02, highQ = 0.98): [number, number] | null {
   let n = 0;
   for (const a of values) for (let i = 0; i < a.length; i++) if (a[i] === a[i]) n++;
   if (n === 0) return null;
   const all = new Float64Array(n);
   let p = 0;
-  for (const a of values) for (let i = 0; i < a.length; i++) if (a[i] === a[i]) all[p++] = a[i];
-  all.sort();
-  const at = (q: number): number => all[Math.min(n - 1, Math.max(0, Math.round(q * (n - 1))))];
-  let lo = at(lowQ);
-  let hi = at(highQ);
+  let min = Infinity;
+  let max = -Infinity;
+  for (const a of values) {
+    for (let i = 0; i < a.length; i++) {
+      const v = a[i];
+      if (v !== v) continue;
+      all[p++] = v;
+      if (v < min) min = v;
+      if (v > max) max = v;
+    }
+  }
+  const kLo = Math.min(n - 1, Math.max(0, Math.round(lowQ * (n - 1))));
+  const kHi = Math.min(n - 1, Math.max(0, Math.round(highQ * (n - 1))));
+  let lo = selectKth(all, n, kLo);
+  let hi = selectKth(all, n, kHi);
   if (!(hi > lo)) {
-    lo = all[0];
-    hi = all[n - 1];
+    lo = min;
+    hi = max;
   }
   if (!(hi > lo)) {
     const d = Math.abs(lo) > 0 ? Math.abs(lo) * 0.01 : 1;

@@ -50,14 +50,29 @@ export interface MapProjection {
   inverse(x: number, y: number): [number, number] | null;
 }
 
-const LONLAT = `+proj=longlat +R=${R} +no_defs`;
+const D2R = Math.PI / 180;
+
+/** proj4's projection object itself: radians in, metres out. Both ends are on the same sphere, so no datum step. */
+interface RawProjection {
+  forward(p: { x: number; y: number }): { x: number; y: number } | null | undefined;
+  inverse(p: { x: number; y: number }): { x: number; y: number } | null | undefined;
+}
 
 export function makeProjection(id: ProjectionId): MapProjection {
   const info = projectionInfo(id);
-  const conv = proj4(LONLAT, info.definition);
+  // the projection object without proj4's per-point wrapper (array handling, datum checks): several times faster
+  // for the pixel lookup, and the same numbers (the fixture test holds it against pyproj)
+  const raw = new (proj4.Proj as unknown as new (def: string) => RawProjection)(info.definition);
   const limit = info.latitudeLimit;
   const inView = (lat: number): boolean => (limit === null ? true : limit > 0 ? lat >= limit : lat <= limit);
-  const rawForward = (lon: number, lat: number): [number, number] => conv.forward([lon, lat]) as [number, number];
+  const rawForward = (lon: number, lat: number): [number, number] => {
+    const p = raw.forward({ x: lon * D2R, y: lat * D2R });
+    return p ? [p.x, p.y] : [NaN, NaN];
+  };
+  const rawInverse = (x: number, y: number): [number, number] => {
+    const q = raw.inverse({ x, y });
+    return q ? [q.x / D2R, q.y / D2R] : [NaN, NaN];
+  };
 
   // extent: world views from the equator and central meridian (just inside the poles and the
   // antimeridian, where proj4's round trips are exact); polar views a square around the limit circle
@@ -83,9 +98,7 @@ export function makeProjection(id: ProjectionId): MapProjection {
       return Number.isFinite(p[0]) && Number.isFinite(p[1]) ? p : null;
     },
     inverse(x, y) {
-      const q = conv.inverse([x, y]) as [number, number];
-      const lon = q[0];
-      const lat = q[1];
+      const [lon, lat] = rawInverse(x, y);
       if (!Number.isFinite(lon) || !Number.isFinite(lat) || lat < -90 || lat > 90) return null;
       if (!inView(lat)) return null;
       // proj4 clamps some points that lie off the globe onto its edge: a round trip exposes them

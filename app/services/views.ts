@@ -8,7 +8,6 @@ import { randomUUID } from 'node:crypto';
 import { rename, writeFile } from 'node:fs/promises';
 import { basename, dirname, join } from 'node:path';
 import { z } from 'zod';
-import { openField } from '../cf/open-field.js';
 import { parseUnits, type ParsedUnits } from '../cf/units.js';
 import { commonGridFor } from '../compare/common-grid.js';
 import { densityProvider, type DensityProvider } from '../compare/density.js';
@@ -19,7 +18,7 @@ import { skillCsv, skillJson, skillLatex, skillMarkdown, type Provenance } from 
 import { StillwaterError } from '../errors.js';
 import type { Grid } from '../grid/types.js';
 import { openDataset } from '../io/open.js';
-import { attrString } from '../io/types.js';
+import { attrString, findVariable, type RawDataset } from '../io/types.js';
 import { loadRecipe, recipeToJson, validateRecipe } from '../recipe/index.js';
 import { parseExpression } from '../ocean/expression.js';
 import type { Recipe } from '../recipe/types.js';
@@ -36,7 +35,8 @@ interface Pair {
   variable: string;
   units: string;
   reference: LevelReader;
-  runs: Map<string, LevelReader>;
+  /** run readers, opened (and regridded) when first asked for */
+  runs: Map<string, () => Promise<LevelReader>>;
   density: DensityProvider;
 }
 
@@ -132,16 +132,33 @@ function tableUnits(u: ParsedUnits): string {
   return u.kind === 'other' ? u.text.trim() : u.canonical;
 }
 
-async function describeSource(spec: Recipe['reference']): Promise<SourceInfo> {
+/**
+ * Variables and units of a source as its files declare them (the recipe's units win). Only headers are read,
+ * each file once: the fields themselves are opened when a view asks for them.
+ */
+async function describeSource(spec: Recipe['reference'], headers: Map<string, Promise<RawDataset | Error>>): Promise<SourceInfo> {
+  const header = (file: string): Promise<RawDataset | Error> => {
+    let h = headers.get(file);
+    if (!h) {
+      h = openDataset(file).catch((e: unknown) => (e instanceof Error ? e : new Error(String(e))));
+      headers.set(file, h);
+    }
+    return h;
+  };
   const variables: SourceInfo['variables'] = [];
   for (const [key, v] of Object.entries(spec.variables)) {
-    try {
-      const f = await openField(v.file, v.name, v.units ? { units: v.units } : undefined);
-      variables.push({ key, file: v.file, name: v.name, units: f.units.text, longName: f.longName ?? f.standardName });
-      await f.close?.();
-    } catch (e) {
-      variables.push({ key, file: v.file, name: v.name, units: '?', longName: e instanceof Error ? e.message : String(e) });
+    const ds = await header(v.file);
+    if (ds instanceof Error) {
+      variables.push({ key, file: v.file, name: v.name, units: '?', longName: ds.message });
+      continue;
     }
+    const raw = findVariable(ds, v.name);
+    if (!raw) {
+      variables.push({ key, file: v.file, name: v.name, units: '?', longName: `${v.file} has no variable '${v.name}'.` });
+      continue;
+    }
+    const longName = attrString(raw.attrs, 'long_name') ?? attrString(raw.attrs, 'standard_name');
+    variables.push({ key, file: v.file, name: v.name, units: v.units ?? attrString(raw.attrs, 'units') ?? '', ...(longName ? { longName } : {}) });
   }
   return { label: spec.label, variables, snapshots: spec.snapshots };
 }
@@ -203,11 +220,22 @@ async function buildSession(recipe: Recipe, recipePath: string, ctx: ServiceCont
   const first = recipe.variables.find((v) => recipe.reference.variables[v]);
   if (!first) throw new StillwaterError('E_RECIPE', `${recipePath}: reference.variables: the reference has no variables to compare.`, { path: 'reference.variables' });
   const refSpec = recipe.reference.variables[first];
-  const refField = await prefixed(refSpec.path, () => openField(refSpec.file, refSpec.name, refSpec.units ? { units: refSpec.units } : undefined));
+  const refField = await openSpec(refSpec);
   const grid = commonGridFor(recipe.options.commonGrid, refField.grid);
   await refField.close?.();
-  const reference = await describeSource(recipe.reference);
-  const runs = await Promise.all(recipe.runs.map((r) => describeSource(r)));
+  const headers = new Map<string, Promise<RawDataset | Error>>();
+  let reference: SourceInfo;
+  let runs: SourceInfo[];
+  try {
+    reference = await describeSource(recipe.reference, headers);
+    runs = [];
+    for (const r of recipe.runs) runs.push(await describeSource(r, headers));
+  } finally {
+    for (const h of headers.values()) {
+      const ds = await h;
+      if (!(ds instanceof Error)) await ds.close().catch(() => undefined);
+    }
+  }
   const variables = recipe.variables
     .filter((key) => recipe.reference.variables[key] || recipe.options.derived[key])
     .map((key) => {
@@ -269,13 +297,23 @@ async function openPair(s: Session, variable: string): Promise<Pair> {
   };
   let target: ParsedUnits;
   let reference: LevelReader;
-  const runs = new Map<string, LevelReader>();
+  const runs = new Map<string, () => Promise<LevelReader>>();
+  const lazy = (open: () => Promise<LevelReader>): (() => Promise<LevelReader>) => {
+    let p: Promise<LevelReader> | null = null;
+    return () => {
+      if (!p) {
+        p = open();
+        p.catch(() => (p = null));
+      }
+      return p;
+    };
+  };
   if (derived) {
     target = await prefixed(`options.derived.${variable}.units`, async () => parseUnits(derived.units));
     reference = await derivedReader(variable, derived.expression, recipe.reference, unitsOf, ctx);
     const needs = parseExpression(derived.expression).variables;
     for (const run of recipe.runs) {
-      if (needs.every((k) => run.variables[k])) runs.set(run.label, await derivedReader(variable, derived.expression, run, unitsOf, ctx));
+      if (needs.every((k) => run.variables[k])) runs.set(run.label, lazy(() => derivedReader(variable, derived.expression, run, unitsOf, ctx)));
     }
   } else {
     const refField = await openSpec(refSpec);
@@ -283,7 +321,7 @@ async function openPair(s: Session, variable: string): Promise<Pair> {
     reference = await plainReader(variable, refSpec, target, ctx, refField);
     for (const run of recipe.runs) {
       const spec = run.variables[variable];
-      if (spec) runs.set(run.label, await plainReader(variable, spec, target, ctx));
+      if (spec) runs.set(run.label, lazy(() => plainReader(variable, spec, target, ctx)));
     }
   }
   return { variable, units: tableUnits(target), reference, runs, density };
@@ -307,10 +345,10 @@ function refOf(s: Session, pair: Pair): Source {
   return { label: s.recipe.reference.label, role: 'ref', reader: pair.reference };
 }
 
-function runOf(pair: Pair, run: string): Source {
-  const r = pair.runs.get(run);
-  if (!r) throw new StillwaterError('E_INPUT', `The run '${run}' has no variable '${pair.variable}'.`, { variable: pair.variable });
-  return { label: run, role: 'run', reader: r };
+async function runOf(pair: Pair, run: string): Promise<Source> {
+  const open = pair.runs.get(run);
+  if (!open) throw new StillwaterError('E_INPUT', `The run '${run}' has no variable '${pair.variable}'.`, { variable: pair.variable });
+  return { label: run, role: 'run', reader: await open() };
 }
 
 async function allLevels(s: Session, pair: Pair, source: Source, ctx: ServiceContext, what: string, share: [number, number] = [0, 1]): Promise<Float32Array[]> {
@@ -345,7 +383,7 @@ async function levelData(s: Session, variable: string, run: string, layerId: str
   const layer = s.info.layers.find((l) => l.id === layerId);
   if (!layer) throw new StillwaterError('E_INPUT', `There is no depth choice '${layerId}' in this session.`);
   const pair = await pairOf(s, variable);
-  const model = runOf(pair, run);
+  const model = await runOf(pair, run);
   const g = s.info.grid;
   const base = { variable, run, layer, units: pair.units };
   if (layer.kind === 'level') {
@@ -386,7 +424,7 @@ async function sectionData(
   ctx: ServiceContext,
 ): Promise<SectionData> {
   const pair = await pairOf(s, input.variable);
-  const model = runOf(pair, input.run);
+  const model = await runOf(pair, input.run);
   const g = s.info.grid;
   const ms = await allLevels(s, pair, model, ctx, `${input.variable}, ${input.run}`, [0, 0.5]);
   const rs = await allLevels(s, pair, refOf(s, pair), ctx, `${input.variable}, ${s.recipe.reference.label}`, [0.5, 1]);
@@ -457,7 +495,8 @@ async function profileData(s: Session, variable: string, regionName: string, ctx
   const pair = await pairOf(s, variable);
   const region = await regionNamed(s, regionName);
   const g = s.info.grid;
-  const sources: Source[] = [refOf(s, pair), ...[...pair.runs.keys()].map((label) => runOf(pair, label))];
+  const sources: Source[] = [refOf(s, pair)];
+  for (const label of pair.runs.keys()) sources.push(await runOf(pair, label));
   const levels: Float32Array[][] = [];
   for (let q = 0; q < sources.length; q++) {
     levels.push(await allLevels(s, pair, sources[q], ctx, `${variable}, ${sources[q].label}`, [q / sources.length, (q + 1) / sources.length]));

@@ -55,6 +55,19 @@ export interface MapChoice {
   units: string;
 }
 
+/** Automatic ranges are worked out once per level that arrives. */
+const autoRanges = new WeakMap<LevelData, { field: [number, number] | null; diff: [number, number] | null }>();
+
+function autoRange(data: LevelData, difference: boolean): [number, number] | null {
+  let r = autoRanges.get(data);
+  if (!r) {
+    r = { field: null, diff: null };
+    autoRanges.set(data, r);
+  }
+  if (difference) return (r.diff ??= symmetricRange([data.difference]));
+  return (r.field ??= quantileRange([data.model, data.reference]));
+}
+
 /** What the view shows for a level: which array, which range, which words. */
 export function mapChoice(st: AppState, data: LevelData, difference: boolean): MapChoice | null {
   const session = st.session!;
@@ -62,7 +75,7 @@ export function mapChoice(st: AppState, data: LevelData, difference: boolean): M
   const name = v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : data.variable;
   const where = `${data.layer.label}; ${projectionOf(st.sel.projection).info.label}`;
   if (difference) {
-    const r = st.sel.diffRange ?? symmetricRange([data.difference]);
+    const r = st.sel.diffRange ?? autoRange(data, true);
     if (!r) return null;
     return {
       values: data.difference,
@@ -75,7 +88,7 @@ export function mapChoice(st: AppState, data: LevelData, difference: boolean): M
       units: data.units,
     };
   }
-  const r = st.sel.fieldRange ?? quantileRange([data.model, data.reference]);
+  const r = st.sel.fieldRange ?? autoRange(data, false);
   if (!r) return null;
   const showModel = st.sel.mapField === 'model';
   return {

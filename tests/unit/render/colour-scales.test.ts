@@ -2,7 +2,7 @@
 // tests/fixtures/render/make_render_fixtures.py); CIE L* against littleCMS (via Pillow's ImageCms, 8-bit Lab).
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { DIVERGING, SEQUENTIAL, formatTick, lightness, niceTicks, quantileRange, symmetricRange } from '../../../app/render/colour-scales.js';
+import { DIVERGING, SEQUENTIAL, formatTick, lightness, niceTicks, quantileRange, selectKth, symmetricRange } from '../../../app/render/colour-scales.js';
 import { paletteIndex } from '../../../app/render/recolour.js';
 
 const maps = (JSON.parse(readFileSync(new URL('../../fixtures/render/colour-maps.json', import.meta.url), 'utf8')) as {
@@ -66,6 +66,13 @@ describe('diverging scale', () => {
 });
 
 describe('ranges and ticks', () => {
+  it('selection finds the k-th smallest value as a full sort does', () => {
+    let seed = 7;
+    const rnd = (): number => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648) * 100 - 50;
+    const a = Float64Array.from({ length: 5001 }, () => Math.round(rnd() * 10) / 10); // with many ties
+    const sorted = Float64Array.from(a).sort();
+    for (const k of [0, 1, 100, 2500, 4900, 5000]) expect(selectKth(Float64Array.from(a), a.length, k)).toBe(sorted[k]);
+  });
   it('quantile range ignores NaN and the extreme tails', () => {
     const a = new Float32Array(1001);
     for (let i = 0; i < 1001; i++) a[i] = i;
