@@ -128,7 +128,8 @@ export function pairMoments(model: Values, ref: Values, weight: Values, cells?: 
 /**
  * Two-pass weighted moments for every label of a partition at once (labels[c] in 0..nLabels-1, or −1 for
  * cells in no region): two passes over the level whatever the number of labels. Also sums, per label,
- * the weight of the cells where the reference is valid (for the compared share).
+ * the weight of the cells where the reference is valid (for the compared share). Labels come in long runs
+ * (a basin is contiguous along a row), so sums are kept in locals and flushed when the label changes.
  */
 export function labelledMoments(
   model: Values,
@@ -143,20 +144,32 @@ export function labelledMoments(
   const swr = new Float64Array(nLabels);
   const refWeight = new Float64Array(nLabels);
   const n = labels.length;
+  let cur = -1;
+  let c0 = 0, w0 = 0, m0 = 0, r0 = 0, f0 = 0;
   for (let c = 0; c < n; c++) {
     const L = labels[c];
+    if (L !== cur) {
+      if (cur >= 0) {
+        cnt[cur] += c0; sw[cur] += w0; swm[cur] += m0; swr[cur] += r0; refWeight[cur] += f0;
+      }
+      cur = L;
+      c0 = 0; w0 = 0; m0 = 0; r0 = 0; f0 = 0;
+    }
     if (L < 0) continue;
     const r = ref[c];
     if (r - r !== 0) continue;
     const w = weight[c];
     if (!(w > 0 && w < Infinity)) continue;
-    refWeight[L] += w;
+    f0 += w;
     const m = model[c];
     if (m - m !== 0) continue;
-    cnt[L]++;
-    sw[L] += w;
-    swm[L] += w * m;
-    swr[L] += w * r;
+    c0++;
+    w0 += w;
+    m0 += w * m;
+    r0 += w * r;
+  }
+  if (cur >= 0) {
+    cnt[cur] += c0; sw[cur] += w0; swm[cur] += m0; swr[cur] += r0; refWeight[cur] += f0;
   }
   const mMean = new Float64Array(nLabels);
   const rMean = new Float64Array(nLabels);
@@ -172,23 +185,39 @@ export function labelledMoments(
   const srr = new Float64Array(nLabels);
   const smr = new Float64Array(nLabels);
   const sdd = new Float64Array(nLabels);
+  cur = -1;
+  let mm = 0, rm = 0, a1 = 0, b1 = 0, aa = 0, bb = 0, ab = 0, dd = 0;
   for (let c = 0; c < n; c++) {
     const L = labels[c];
+    if (L !== cur) {
+      if (cur >= 0) {
+        em[cur] += a1; er[cur] += b1; smm[cur] += aa; srr[cur] += bb; smr[cur] += ab; sdd[cur] += dd;
+      }
+      cur = L;
+      a1 = 0; b1 = 0; aa = 0; bb = 0; ab = 0; dd = 0;
+      if (L >= 0) {
+        mm = mMean[L];
+        rm = rMean[L];
+      }
+    }
     if (L < 0) continue;
     const m = model[c];
     const r = ref[c];
     const w = weight[c];
     if (m - m === 0 && r - r === 0 && w > 0 && w < Infinity) {
-      const a = m - mMean[L];
-      const b = r - rMean[L];
+      const a = m - mm;
+      const b = r - rm;
       const d = a - b;
-      em[L] += w * a;
-      er[L] += w * b;
-      smm[L] += w * a * a;
-      srr[L] += w * b * b;
-      smr[L] += w * a * b;
-      sdd[L] += w * d * d;
+      a1 += w * a;
+      b1 += w * b;
+      aa += w * a * a;
+      bb += w * b * b;
+      ab += w * a * b;
+      dd += w * d * d;
     }
+  }
+  if (cur >= 0) {
+    em[cur] += a1; er[cur] += b1; smm[cur] += aa; srr[cur] += bb; smr[cur] += ab; sdd[cur] += dd;
   }
   const moments: PairMoments[] = [];
   for (let L = 0; L < nLabels; L++) {
