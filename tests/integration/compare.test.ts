@@ -180,6 +180,16 @@ describe('runComparison against numpy', () => {
     expect(row(res.rows, 'Same grid', 'southern', 'all').n).toBeLessThan(r.n);
   });
 
+  it('a mask variable without CF flags, or an unknown flag: one sentence naming the recipe path and the file', async () => {
+    const base = { ...recipe(), runs: [recipe().runs[0]], layers: ['all'] };
+    await expect(runComparison(validateRecipe({ ...base, regions: [{ mask: 'ref.nc', variable: 'p_mean' }] }, fx), { cacheDir: cache })).rejects.toThrow(
+      /^regions\[0\]: .*ref\.nc, variable 'p_mean': a region mask needs the attributes flag_values and flag_meanings\.$/,
+    );
+    await expect(runComparison(validateRecipe({ ...base, regions: [{ mask: 'mask.nc', variable: 'basin', flags: ['north'] }] }, fx), { cacheDir: cache })).rejects.toThrow(
+      /^regions\[0\]: .*mask\.nc: no flag meaning 'north' \(it has west, east\)\.$/,
+    );
+  });
+
   it('a region with no compared cells is a row with n = 0 and a note, not a crash', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'sw-empty-'));
     for (const f of ['ref.nc', 'run_same.nc']) writeFileSync(join(dir, f), readFileSync(join(fx, f)));
