@@ -99,7 +99,9 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
     // 2. Origin: when present, it must be our own page
     const origin = req.headers.origin;
     if (origin !== undefined && !allowedOrigins().includes(origin)) return refuse(res, 403, `Refused: requests from '${origin}' are not accepted.`);
-    if (req.headers['sec-fetch-site'] === 'cross-site') return refuse(res, 403, 'Refused: cross-site requests are not accepted.');
+    // another port on this machine is the "same site" to a browser and gets SameSite cookies: refuse it too
+    const site = req.headers['sec-fetch-site'];
+    if (site === 'cross-site' || site === 'same-site') return refuse(res, 403, `Refused: ${site} requests are not accepted.`);
     // 3. token: from the address once, then the cookie or the header
     const url = new URL(req.url ?? '/', `http://${BIND_ADDRESS}:${port}`);
     const fromQuery = url.searchParams.get('token') ?? undefined;

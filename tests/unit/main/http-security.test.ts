@@ -164,6 +164,9 @@ describe('Host and Origin (DNS rebinding, cross-site pages)', () => {
     expect((await api('files.roots', {}, { origin: `http://127.0.0.1:${port + 1}` })).status).toBe(403);
     expect((await api('files.roots', {}, { origin: 'null' })).status).toBe(403);
     expect((await api('files.roots', {}, { 'sec-fetch-site': 'cross-site' })).status).toBe(403);
+    // a page on another port of 127.0.0.1 is "same-site" and would carry the SameSite cookie
+    expect((await raw(port, { path: '/start-recipe', headers: { 'x-stillwater-token': token, 'sec-fetch-site': 'same-site' } })).status).toBe(403);
+    expect((await raw(port, { path: '/start-recipe', headers: { 'x-stillwater-token': token, 'sec-fetch-site': 'same-origin' } })).status).toBe(200);
     expect((await api('files.roots', {}, { origin: `http://127.0.0.1:${port}` })).status).toBe(200);
   });
   it('takes services only as POST with a JSON body (no form or image tag can call them)', async () => {
