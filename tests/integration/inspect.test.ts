@@ -2,9 +2,10 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { build } from 'esbuild';
 import { beforeAll, describe, expect, it } from 'vitest';
 
-// `stillwater inspect` end to end: a real process, real files written by netCDF4-python
+// `stillwater inspect` end to end: a real process (the CLI bundled from main/cli.ts), real files written by netCDF4-python
 // (tests/fixtures/cf/make_fixtures.py), expected values from netCDF4-python's own decoding.
 const root = join(__dirname, '../..');
 const fixtures = join(root, 'tests/fixtures/cf');
@@ -12,14 +13,27 @@ const expected = JSON.parse(readFileSync(join(fixtures, 'expected.json'), 'utf8'
   fields: { file: string; variable: string; times: string[]; points: { lat: number; lon: number; value: number | null; depth?: number }[] }[];
 };
 
+// The command line bundled as main/build.mjs does, but into a private file: other test files rebuild
+// dist/ while these run, and a half-written bundle must not be what a test spawns.
+const cli = join(root, 'node_modules', '.cache', 'stillwater-inspect-test', 'cli.mjs');
+
 function inspect(...args: string[]) {
-  const r = spawnSync(process.execPath, [join(root, 'main/launch.mjs'), 'inspect', ...args], { cwd: root, encoding: 'utf8', timeout: 60_000 });
+  const r = spawnSync(process.execPath, [cli, 'inspect', ...args], { cwd: root, encoding: 'utf8', timeout: 60_000 });
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
-beforeAll(() => {
-  const b = spawnSync(process.execPath, [join(root, 'main/build.mjs')], { cwd: root, encoding: 'utf8' });
-  if (b.status !== 0) throw new Error(b.stderr);
+beforeAll(async () => {
+  await build({
+    entryPoints: [join(root, 'main/cli.ts')],
+    outfile: cli,
+    bundle: true,
+    platform: 'node',
+    target: 'node20',
+    format: 'esm',
+    packages: 'external',
+    logLevel: 'error',
+    banner: { js: "import { createRequire as __swRequire } from 'node:module'; const require = __swRequire(import.meta.url);" },
+  });
 });
 
 describe('stillwater inspect --json --stats on netCDF4-python files', () => {
