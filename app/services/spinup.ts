@@ -2,6 +2,8 @@
  * The spin-up for the workbench: follow a run through its snapshots (heavy: in a worker), the one-line
  * verdict for the banner on the scores view, and reading a spinup.json written by the command line.
  * Thin over app/spinup; every file a recipe names passes ctx.resolvePath. Output types: app/spinup/types.ts.
+ * Results are kept in ctx.cacheDir keyed by the request and the files' sizes and times, so the banner of the
+ * scores view costs one computation per recipe state, not one per visit.
  */
 import { readFile } from 'node:fs/promises';
 import { z } from 'zod';
@@ -10,6 +12,7 @@ import type { Recipe } from '../recipe/types.js';
 import { validateRecipe } from '../recipe/validate.js';
 import { spinupFromRecipe } from '../spinup/run-spinup.js';
 import type { SpinupResult, SpinupSummary } from '../spinup/types.js';
+import { cacheKey, readCachedResult, restoreNaN, writeCachedResult } from '../spinup/result-cache.js';
 import { entry, type ServiceContext, type ServiceEntry } from './types.js';
 
 const spinupInput = z.object({
@@ -41,15 +44,27 @@ function guardedRecipe(input: SpinupInput, ctx: ServiceContext): Recipe {
   return recipe;
 }
 
-/** Results of this process, so that the banner asks again for free (keyed by the whole input). */
+/** Results of this thread, so that the banner asks again for free (keyed like the disk cache). */
 const recent = new Map<string, SpinupResult>();
 const RECENT_MAX = 8;
 
+function recipeFiles(recipe: Recipe): string[] {
+  return [
+    ...[recipe.reference, ...recipe.runs].flatMap((s) => [...Object.values(s.variables).map((v) => v.file), ...(s.snapshots ?? []).map((x) => x.file)]),
+    ...recipe.regions.flatMap((r) => (r.kind === 'built-in' ? [] : [r.file])),
+  ];
+}
+
 async function follow(input: SpinupInput, ctx: ServiceContext, skill: boolean): Promise<SpinupResult> {
-  const key = JSON.stringify({ ...input, skill });
-  const hit = recent.get(key) ?? (!skill ? recent.get(JSON.stringify({ ...input, skill: true })) : undefined);
-  if (hit) return hit;
   const recipe = guardedRecipe(input, ctx);
+  const files = recipeFiles(recipe);
+  const keyOf = (withSkill: boolean) => cacheKey({ ...input, baseDir: recipe.baseDir, skill: withSkill }, files);
+  const key = await keyOf(skill);
+  // a result with skill also answers a request without it
+  for (const k of skill ? [key] : [key, await keyOf(true)]) {
+    const hit = recent.get(k) ?? (await readCachedResult(ctx.cacheDir, k));
+    if (hit) return hit;
+  }
   const result = await spinupFromRecipe(recipe, {
     run: input.run,
     variables: input.variables,
@@ -64,6 +79,7 @@ async function follow(input: SpinupInput, ctx: ServiceContext, skill: boolean): 
   });
   recent.set(key, result);
   if (recent.size > RECENT_MAX) recent.delete(recent.keys().next().value!);
+  await writeCachedResult(ctx.cacheDir, key, result);
   return result;
 }
 
@@ -105,9 +121,7 @@ export const spinupServices: ServiceEntry[] = [
       if (!r || !Array.isArray(r.tracks) || !Array.isArray(r.years) || !r.summary) {
         throw new StillwaterError('E_FORMAT', `${path}: this is not a spinup.json (no tracks, years and summary).`, { file: path });
       }
-      // JSON has no NaN: missing values come back as null; restore NaN for the typed contract
-      for (const t of r.tracks) for (const k of ['mean', 'inventory', 'meanDeviation', 'inventoryDeviation'] as const) t[k] = t[k].map((v) => (v === null ? NaN : v));
-      return r as SpinupResult;
+      return restoreNaN(r as SpinupResult);
     },
   }),
 ];

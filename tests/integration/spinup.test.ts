@@ -4,12 +4,13 @@
  * bottom values come from numpy on exact spherical cell areas; expected fits from scipy.optimize.curve_fit.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { isAbsolute, join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { SpinupResult, SpinupSummary, SpinupTrack } from '../../app/spinup/types.js';
 import { spinupServices } from '../../app/services/spinup.js';
+import { cacheKey } from '../../app/spinup/result-cache.js';
 import { StillwaterError } from '../../app/errors.js';
 
 const root = join(__dirname, '../..');
@@ -215,6 +216,17 @@ describe('spin-up services for the workbench', () => {
     expect(v.sentence).toMatch(/has not settled|England 1995/);
     // PO4 and o2 were followed on the command line; the service follows the run's own variables (PO4)
     expect(v.tracks).toBe(cli.tracks.filter((t) => t.tracer === 'PO4').length);
+    // kept on disk for the next worker thread that asks
+    expect(readdirSync(join(dir, 'cache', 'spinup')).filter((f) => f.endsWith('.json')).length).toBeGreaterThanOrEqual(1);
+  });
+
+  it('the cache key changes when a snapshot file changes', async () => {
+    const file = join(dir, 'year-0100.nc');
+    const before = await cacheKey({ a: 1 }, [file]);
+    expect(await cacheKey({ a: 1 }, [file])).toBe(before);
+    utimesSync(file, new Date(), new Date(Date.now() + 5000));
+    expect(await cacheKey({ a: 1 }, [file])).not.toBe(before);
+    expect(await cacheKey({ a: 2 }, [file])).not.toBe(await cacheKey({ a: 1 }, [file]));
   });
 
   it('spinup.verdict is null for a run without snapshots (no banner)', async () => {

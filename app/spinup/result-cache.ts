@@ -1,0 +1,50 @@
+import { createHash } from 'node:crypto';
+import { mkdir, readFile, rename, stat, writeFile } from 'node:fs/promises';
+import { join } from 'node:path';
+import type { SpinupResult } from './types.js';
+
+/**
+ * Spin-up results kept on disk between requests of the workbench (worker threads do not share memory):
+ * keyed by the request and by the size and modification time of every file it reads, so a changed
+ * snapshot is never answered from the cache. A damaged or missing entry is simply recomputed.
+ */
+export async function cacheKey(request: unknown, files: string[]): Promise<string> {
+  const h = createHash('sha256');
+  h.update(JSON.stringify(request));
+  for (const f of [...new Set(files)].sort()) {
+    try {
+      const st = await stat(f);
+      h.update(`\n${f} ${st.size} ${st.mtimeMs}`);
+    } catch {
+      h.update(`\n${f} absent`);
+    }
+  }
+  return h.digest('hex');
+}
+
+/** JSON has no NaN: missing values come back as null; restore NaN for the typed contract. */
+export function restoreNaN(r: SpinupResult): SpinupResult {
+  for (const t of r.tracks) for (const k of ['mean', 'inventory', 'meanDeviation', 'inventoryDeviation'] as const) t[k] = t[k].map((v) => (v === null ? NaN : v));
+  return r;
+}
+
+export async function readCachedResult(dir: string, key: string): Promise<SpinupResult | undefined> {
+  try {
+    const r = JSON.parse(await readFile(join(dir, 'spinup', `${key}.json`), 'utf8')) as SpinupResult;
+    return Array.isArray(r.tracks) && Array.isArray(r.years) && r.summary ? restoreNaN(r) : undefined;
+  } catch {
+    return undefined;
+  }
+}
+
+export async function writeCachedResult(dir: string, key: string, r: SpinupResult): Promise<void> {
+  try {
+    const folder = join(dir, 'spinup');
+    await mkdir(folder, { recursive: true });
+    const tmp = join(folder, `${key}.json.tmp-${process.pid}-${Date.now()}`);
+    await writeFile(tmp, JSON.stringify(r));
+    await rename(tmp, join(folder, `${key}.json`));
+  } catch {
+    // a cache that cannot be written only costs time
+  }
+}
