@@ -14,8 +14,12 @@ export interface OrderedAxis {
 
 /** Why an axis could not be ordered: the index where monotonicity breaks. */
 export class NotMonotonic extends Error {
-  constructor(readonly index: number) {
-    super(`not monotonic at index ${index}`);
+  constructor(
+    readonly index: number,
+    /** true when the value there is missing rather than out of order */
+    readonly missing = false,
+  ) {
+    super(missing ? `missing value at index ${index}` : `not monotonic at index ${index}`);
   }
 }
 
@@ -28,7 +32,7 @@ function identityAxis(values: Float64Array): OrderedAxis {
 /** Strictly increasing or strictly decreasing values → increasing (flipped if needed). */
 export function orderMonotonic(values: Float64Array): OrderedAxis {
   const n = values.length;
-  for (let i = 0; i < n; i++) if (!Number.isFinite(values[i])) throw new NotMonotonic(i);
+  for (let i = 0; i < n; i++) if (!Number.isFinite(values[i])) throw new NotMonotonic(i, true);
   if (n < 2) return identityAxis(values);
   const up = values[1] > values[0];
   for (let i = 1; i < n; i++) if (up ? !(values[i] > values[i - 1]) : !(values[i] < values[i - 1])) throw new NotMonotonic(i);
@@ -50,9 +54,8 @@ export function orderLongitudes(values: Float64Array): OrderedAxis {
   try {
     return orderMonotonic(values);
   } catch (e) {
-    if (!(e instanceof NotMonotonic)) throw e;
+    if (!(e instanceof NotMonotonic) || e.missing) throw e;
     const n = values.length;
-    for (let i = 0; i < n; i++) if (!Number.isFinite(values[i])) throw e;
     // one descent, everything else increasing, and the whole spanning less than a turn
     const drops: number[] = [];
     for (let i = 1; i < n; i++) if (!(values[i] > values[i - 1])) drops.push(i);

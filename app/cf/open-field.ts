@@ -140,6 +140,9 @@ async function readCoordinate(ds: RawDataset, c: RawVariable): Promise<Float64Ar
 }
 
 function notMonotonic(file: string, variable: string, what: string, c: RawVariable, e: unknown): never {
+  if (e instanceof NotMonotonic && e.missing) {
+    throw fileError('E_COORDS', file, `its ${what} '${c.name}' has a missing value at index ${e.index}.`, variable);
+  }
   if (e instanceof NotMonotonic) {
     throw fileError('E_COORDS', file, `its ${what} '${c.name}' is not monotonic (it breaks at index ${e.index}).`, variable);
   }

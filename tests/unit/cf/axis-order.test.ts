@@ -18,7 +18,8 @@ describe('axis order', () => {
     } catch (e) {
       expect((e as NotMonotonic).index).toBe(2);
     }
-    expect(() => orderMonotonic(f([0, NaN]))).toThrow(NotMonotonic);
+    expect(() => orderMonotonic(f([0, NaN]))).toThrow(/missing value at index 1/);
+    expect(() => orderLongitudes(f([0, NaN]))).toThrow(/missing value at index 1/);
   });
   it('longitudes wrapped once are rotated, keeping the file range', () => {
     const a = orderLongitudes(f([180, 270, 0, 90]));
