@@ -83,176 +83,287 @@ const SURFACE_ONLY: VerticalAxis = {
   boundsDerived: true,
 };
 
+/**
+ * Stations are worked on in queue order: depth stations grouped by their deeper level (so each is
+ * finished as soon as that level has been read), then seafloor stations and stations below the grid.
+ * Everything the level loop needs is laid out in that order, front to back: for 100 000 stations,
+ * jumping about in memory costs more than the arithmetic.
+ */
+interface Queue {
+  /** queue position → station */
+  station: Int32Array;
+  /** queue positions of the stations finished at level k: [start[k], start[k + 1]); the rest from start[nz] */
+  start: Int32Array;
+  /** 1 where both depth levels are the same one */
+  single: Uint8Array;
+  frac: Float64Array;
+  /** station depth, m (NaN at the seafloor) */
+  z: Float64Array;
+  /** the deepest depth the upper level's value may stand for (the bottom edge of its layer) */
+  reach: Float64Array;
+  /** upper level per queue position (-1: none) */
+  kLo: Int32Array;
+  seafloor: Uint8Array;
+  /** the last level any station needs */
+  lastLevel: number;
+}
+
+/** Which levels each station needs, how to weigh them, and the order to work in. */
+function makeQueue(st: StationPositions, axis: VerticalAxis, method: StationMethod): Queue {
+  const { nz, centres, edges } = axis;
+  const n = st.lon.length;
+  const nearest = method === 'nearest';
+  // first pass, in station order: the level bracket (nearest: the layer) and the sort key
+  const bracket = new Int32Array(n);
+  const key = new Int32Array(n);
+  let deepest = 0;
+  let anyFloor = false;
+  for (let r = 0; r < n; r++) {
+    if (st.seafloor[r]) {
+      anyFloor = true;
+      bracket[r] = -2;
+      key[r] = nz;
+      continue;
+    }
+    const k = nearest ? layerOf(edges, st.depth[r]) : bracketCentres(centres, st.depth[r]);
+    bracket[r] = k;
+    // the deeper level of the pair; the nearest layer itself; nz (last in the queue) below the grid
+    const hi = nearest ? k : k === -1 ? 0 : k === nz - 1 ? k : k + 1;
+    key[r] = hi;
+    // below the grid: read every level, so that the seafloor it lies below is known
+    const need = hi < nz - 1 ? hi : nz - 1;
+    if (need > deepest) deepest = need;
+  }
+  // within a level, neighbours next to each other (by 1° box), so that each level is read in runs
+  const box = new Int32Array(n);
+  const boxStart = new Int32Array(180 * 360 + 1);
+  for (let r = 0; r < n; r++) {
+    const j = Math.min(179, Math.max(0, Math.floor(st.lat[r] + 90)));
+    const i = ((Math.floor(st.lon[r] + 180) % 360) + 360) % 360;
+    box[r] = j * 360 + i;
+    boxStart[box[r] + 1]++;
+  }
+  for (let b = 0; b < 180 * 360; b++) boxStart[b + 1] += boxStart[b];
+  const byBox = new Int32Array(n);
+  for (let r = 0; r < n; r++) byBox[boxStart[box[r]]++] = r;
+  // then a stable counting sort by the deeper level; seafloor and below-grid stations (key nz) last
+  const start = new Int32Array(nz + 2);
+  for (let r = 0; r < n; r++) start[key[r] + 1]++;
+  for (let k = 0; k <= nz; k++) start[k + 1] += start[k];
+  const fill = start.slice(0, nz + 1);
+  const station = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    const r = byBox[i];
+    station[fill[key[r]]++] = r;
+  }
+  // second pass, in queue order: weights of the two levels
+  const single = new Uint8Array(n);
+  const frac = new Float64Array(n);
+  const z = new Float64Array(n);
+  const reach = new Float64Array(n);
+  const kLo = new Int32Array(n);
+  const seafloor = new Uint8Array(n);
+  for (let q = 0; q < n; q++) {
+    const r = station[q];
+    const k = bracket[r];
+    if (k === -2) {
+      seafloor[q] = 1;
+      z[q] = NaN;
+      kLo[q] = -1;
+      single[q] = 1;
+      continue;
+    }
+    const d = st.depth[r];
+    z[q] = d;
+    if (nearest) {
+      kLo[q] = k; // k = nz: below the grid, never read
+      single[q] = 1;
+      reach[q] = k < nz ? edges[k + 1] : -Infinity;
+    } else if (k === -1) {
+      single[q] = 1;
+      reach[q] = Infinity;
+    } else if (k === nz - 1) {
+      kLo[q] = k;
+      single[q] = 1;
+      reach[q] = edges[nz];
+    } else {
+      kLo[q] = k;
+      frac[q] = (d - centres[k]) / (centres[k + 1] - centres[k]);
+      reach[q] = edges[k + 1];
+    }
+  }
+  return { station, start, single, frac, z, reach, kLo, seafloor, lastLevel: anyFloor ? nz - 1 : deepest };
+}
+
+interface Stencils {
+  rowPtr: Int32Array;
+  col: Int32Array;
+  w: Float64Array;
+}
+
+/** Per queue position: results and bookkeeping. */
+interface Work {
+  value: Float64Array;
+  valueDepth: Float64Array;
+  /** entry of the station's own column: the nearest candidate, or the largest bilinear weight (-1 off the grid) */
+  ownAt: Int32Array;
+  ownOk: Uint8Array;
+}
+
+/**
+ * The stations whose deeper level is k, now that levels k - 1 (prev) and k (cur) are at hand: the value
+ * in each surrounding column (linear in depth between the two, or the upper one held down to the bottom
+ * edge of its layer), then across the columns (bilinear over the wet ones, or the first wet candidate).
+ */
+function evaluate(Q: Queue, W: Stencils, out: Work, k: number, prev: Float32Array | null, cur: Float32Array, nearest: boolean): void {
+  const { rowPtr, col, w } = W;
+  const { single, frac, z, reach } = Q;
+  const { value, valueDepth, ownAt, ownOk } = out;
+  for (let q = Q.start[k], end = Q.start[k + 1]; q < end; q++) {
+    const upper = single[q] || prev === null ? cur : prev;
+    const f = frac[q];
+    let num = 0, den = 0;
+    for (let p = rowPtr[q], e = rowPtr[q + 1]; p < e; p++) {
+      const c = col[p];
+      const a = upper[c];
+      if (a !== a) continue;
+      const bv = cur[c];
+      const v = bv === bv ? a + f * (bv - a) : z[q] <= reach[q] ? a : NaN;
+      if (v !== v) continue;
+      if (p === ownAt[q]) ownOk[q] = 1;
+      if (nearest) {
+        num = v;
+        den = 1;
+        break;
+      }
+      num += w[p] * v;
+      den += w[p];
+    }
+    if (den > 0) {
+      value[q] = num / den;
+      valueDepth[q] = z[q];
+    }
+  }
+}
+
+/** Remember the deepest wet level (and its value) of the columns of queue positions [from, to) or a list. */
+function trackBottom(level: Float32Array, k: number, rows: ArrayLike<number>, W: Stencils, bottomK: Int16Array, bottomV: Float32Array): void {
+  const { rowPtr, col } = W;
+  for (let i = 0; i < rows.length; i++) {
+    const q = rows[i];
+    for (let p = rowPtr[q], e = rowPtr[q + 1]; p < e; p++) {
+      const v = level[col[p]];
+      if (v === v) {
+        bottomK[p] = k;
+        bottomV[p] = v;
+      }
+    }
+  }
+}
+
 export async function sampleStations(field: FieldSource, st: StationPositions, opts: StationSampleOptions = {}): Promise<StationSamples> {
   const method = opts.method ?? 'trilinear';
+  const nearest = method === 'nearest';
   const t = opts.t ?? 0;
   const grid: HorizontalGrid = field.grid.horizontal;
   const axis = field.grid.vertical ?? SURFACE_ONLY;
   const { nz, centres, edges } = axis;
   const n = st.lon.length;
-  const W = pointWeights(grid, st.lon, st.lat, method === 'trilinear' ? 'bilinear' : 'nearest');
+  const Q = makeQueue(st, axis, method);
+  // horizontal weights built in queue order, so that the level loop reads them front to back
+  const lonQ = new Float64Array(n), latQ = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    lonQ[i] = st.lon[Q.station[i]];
+    latQ[i] = st.lat[Q.station[i]];
+  }
+  const W = pointWeights(grid, lonQ, latQ, nearest ? 'nearest' : 'bilinear');
   const { rowPtr, col, w } = W;
   const nnz = col.length;
-
-  // vertical plan per station: levels kLo, kHi, fraction f, and the deepest depth kLo may stand for
-  const kLo = new Int32Array(n);
-  const kHi = new Int32Array(n);
-  const frac = new Float64Array(n);
-  const loReach = new Float64Array(n);
-  let deepest = 0;
-  let anySeafloor = false;
-  for (let r = 0; r < n; r++) {
-    if (st.seafloor[r]) {
-      anySeafloor = true;
-      kLo[r] = kHi[r] = -1;
-      continue;
-    }
-    const z = st.depth[r];
-    if (method === 'nearest') {
-      const k = layerOf(edges, z);
-      kLo[r] = kHi[r] = k; // k = nz: below the grid, never read
-      frac[r] = 0;
-      loReach[r] = k < nz ? edges[k + 1] : -Infinity;
-    } else {
-      const k = bracketCentres(centres, z);
-      if (k === -1) {
-        kLo[r] = kHi[r] = 0;
-        frac[r] = 0;
-        loReach[r] = Infinity;
-      } else if (k === nz - 1) {
-        kLo[r] = kHi[r] = k;
-        frac[r] = 0;
-        loReach[r] = edges[nz];
-      } else {
-        kLo[r] = k;
-        kHi[r] = k + 1;
-        frac[r] = (z - centres[k]) / (centres[k + 1] - centres[k]);
-        loReach[r] = edges[k + 1];
-      }
-    }
-    // below the grid: read every level, so that the seafloor it lies below is known
-    deepest = Math.max(deepest, Math.min(kHi[r], nz - 1));
+  const out: Work = { value: new Float64Array(n).fill(NaN), valueDepth: new Float64Array(n).fill(NaN), ownAt: new Int32Array(n).fill(-1), ownOk: new Uint8Array(n) };
+  for (let q = 0; q < n; q++) {
+    const b = rowPtr[q], e = rowPtr[q + 1];
+    if (b === e) continue;
+    let o = b;
+    if (!nearest) for (let p = b + 1; p < e; p++) if (w[p] > w[o]) o = p;
+    out.ownAt[q] = o;
   }
-  const lastLevel = anySeafloor ? nz - 1 : deepest;
 
-  // stations by the level they need, so that each level touches only its own stations
-  const byLo = bucket(kLo, nz);
-  const byHi = bucket(kHi, nz);
+  // the seafloor stations are a run of the queue's tail
   const floorRows: number[] = [];
-  for (let r = 0; r < n; r++) if (st.seafloor[r]) floorRows.push(r);
-
-  // per weight entry (station × column): values at kLo and kHi, wet at the surface, deepest wet level
-  const lo = new Float32Array(nnz).fill(NaN);
-  const hi = new Float32Array(nnz).fill(NaN);
+  for (let q = Q.start[nz]; q < n; q++) if (Q.seafloor[q]) floorRows.push(q);
   const surfaceWet = new Uint8Array(nnz);
   const bottomK = new Int16Array(nnz).fill(-1);
-  const bottomV = new Float32Array(nnz).fill(NaN);
-  const track = (level: Float32Array, k: number, rows: ArrayLike<number>): void => {
-    for (let q = 0; q < rows.length; q++) {
-      const r = rows[q];
-      for (let p = rowPtr[r], e = rowPtr[r + 1]; p < e; p++) {
-        const v = level[col[p]];
-        if (v === v) {
-          bottomK[p] = k;
-          bottomV[p] = v;
-        }
-      }
-    }
-  };
-  for (let k = 0; k <= lastLevel; k++) {
-    const level = await field.readLevel(t, k);
-    if (k === 0) for (let p = 0; p < nnz; p++) surfaceWet[p] = level[col[p]] === level[col[p]] ? 1 : 0;
-    for (let q = byLo.start[k]; q < byLo.start[k + 1]; q++) {
-      const r = byLo.rows[q];
-      for (let p = rowPtr[r], e = rowPtr[r + 1]; p < e; p++) lo[p] = level[col[p]];
-    }
-    for (let q = byHi.start[k]; q < byHi.start[k + 1]; q++) {
-      const r = byHi.rows[q];
-      for (let p = rowPtr[r], e = rowPtr[r + 1]; p < e; p++) hi[p] = level[col[p]];
-    }
-    track(level, k, floorRows);
-    opts.progress?.((k + 1) / (lastLevel + 1));
+  const bottomV = new Float32Array(floorRows.length ? nnz : 0).fill(NaN);
+  let prev: Float32Array | null = null;
+  for (let k = 0; k <= Q.lastLevel; k++) {
+    const cur = await field.readLevel(t, k);
+    if (k === 0) for (let p = 0; p < nnz; p++) surfaceWet[p] = cur[col[p]] === cur[col[p]] ? 1 : 0;
+    evaluate(Q, W, out, k, prev, cur, nearest);
+    if (floorRows.length) trackBottom(cur, k, floorRows, W, bottomK, bottomV);
+    prev = cur;
+    opts.progress?.((k + 1) / (Q.lastLevel + 1));
   }
 
-  const model = new Float64Array(n).fill(NaN);
-  const seafloorM = new Float64Array(n).fill(NaN);
-  const modelDepthM = new Float64Array(n).fill(NaN);
-  const status: StationStatus[] = new Array<StationStatus>(n);
-  const own = new Int32Array(n).fill(-1);
-  for (let r = 0; r < n; r++) {
-    const b = rowPtr[r], e = rowPtr[r + 1];
-    if (b === e) {
-      status[r] = 'outside_grid';
-      continue;
-    }
-    // the station's own column: the nearest candidate, or the largest bilinear weight
-    let o = b;
-    if (method !== 'nearest') for (let p = b + 1; p < e; p++) if (w[p] > w[o]) o = p;
-    own[r] = o;
-    let anyWet = false;
-    for (let p = b; p < e; p++) if (surfaceWet[p]) anyWet = true;
+  // seafloor stations: the bottom wet cell of each surrounding column
+  for (const q of floorRows) {
     let num = 0, den = 0, zNum = 0;
-    let ownHasValue = false;
-    for (let p = b; p < e; p++) {
-      let v: number;
-      let zc: number;
-      if (st.seafloor[r]) {
-        v = bottomV[p];
-        zc = bottomK[p] >= 0 ? centres[bottomK[p]] : NaN;
-      } else {
-        const a = lo[p], c = hi[p];
-        if (a !== a) v = NaN;
-        else if (c === c) v = a + frac[r] * (c - a);
-        else v = st.depth[r] <= loReach[r] ? a : NaN;
-        zc = st.depth[r];
-      }
-      if (v !== v) continue;
-      if (p === o) ownHasValue = true;
-      if (method === 'nearest') {
-        num = v;
-        zNum = zc;
-        den = 1;
-        break;
-      }
-      num += w[p] * v;
-      zNum += w[p] * zc;
-      den += w[p];
+    for (let p = rowPtr[q], e = rowPtr[q + 1]; p < e; p++) {
+      if (bottomK[p] < 0) continue;
+      if (p === out.ownAt[q]) out.ownOk[q] = 1;
+      const ww = nearest ? 1 : w[p];
+      num += ww * bottomV[p];
+      zNum += ww * centres[bottomK[p]];
+      den += ww;
+      if (nearest) break;
     }
     if (den > 0) {
-      model[r] = num / den;
-      modelDepthM[r] = zNum / den;
-      status[r] = ownHasValue ? 'ok' : 'from_neighbour';
-    } else {
-      status[r] = anyWet ? 'below_seafloor' : 'on_land';
+      out.value[q] = num / den;
+      out.valueDepth[q] = zNum / den;
     }
-    if (!surfaceWet[o]) seafloorM[r] = 0;
   }
 
-  // the seafloor of the own column where it explains a status, or where the station is at the seafloor:
-  // a second pass over the levels above, only for the stations whose own column is dry at their depth
+  // statuses, and the seafloor of the own column where it explains one (a second pass over the
+  // levels above, only for the stations whose own column is dry at their depth)
+  const statusQ = new Array<StationStatus>(n);
+  const floorQ = new Float64Array(n).fill(NaN);
   const explain: number[] = [];
   let explainTo = -1;
-  for (let r = 0; r < n; r++) {
-    if (own[r] < 0 || !surfaceWet[own[r]]) continue;
-    if (st.seafloor[r]) {
-      seafloorM[r] = bottomK[own[r]] >= 0 ? edges[bottomK[own[r]] + 1] : 0;
-    } else if (status[r] === 'from_neighbour' || status[r] === 'below_seafloor') {
-      explain.push(r);
-      explainTo = Math.max(explainTo, Math.min(kLo[r], nz - 1));
+  for (let q = 0; q < n; q++) {
+    const o = out.ownAt[q];
+    if (o < 0) {
+      statusQ[q] = 'outside_grid';
+      continue;
+    }
+    let anyWet = false;
+    for (let p = rowPtr[q], e = rowPtr[q + 1]; p < e; p++) if (surfaceWet[p]) anyWet = true;
+    const v = out.value[q];
+    if (v === v) statusQ[q] = out.ownOk[q] ? 'ok' : 'from_neighbour';
+    else statusQ[q] = anyWet ? 'below_seafloor' : 'on_land';
+    if (!surfaceWet[o]) floorQ[q] = 0;
+    else if (Q.seafloor[q]) floorQ[q] = bottomK[o] >= 0 ? edges[bottomK[o] + 1] : 0;
+    else if (statusQ[q] === 'from_neighbour' || statusQ[q] === 'below_seafloor') {
+      explain.push(q);
+      explainTo = Math.max(explainTo, Math.min(Q.kLo[q], nz - 1));
     }
   }
-  for (let k = 0; k <= explainTo; k++) track(await field.readLevel(t, k), k, explain);
-  for (const r of explain) seafloorM[r] = bottomK[own[r]] >= 0 ? edges[bottomK[own[r]] + 1] : 0;
-  return { model, status, seafloorM, modelDepthM };
-}
+  if (explain.length) {
+    const k2 = new Int16Array(nnz).fill(-1);
+    const v2 = new Float32Array(nnz);
+    for (let k = 0; k <= explainTo; k++) trackBottom(await field.readLevel(t, k), k, explain, W, k2, v2);
+    for (const q of explain) floorQ[q] = k2[out.ownAt[q]] >= 0 ? edges[k2[out.ownAt[q]] + 1] : 0;
+  }
 
-/** Rows grouped by a level key (counting sort); keys outside 0..nz-1 are left out. */
-function bucket(keys: Int32Array, nz: number): { start: Int32Array; rows: Int32Array } {
-  const start = new Int32Array(nz + 1);
-  for (let r = 0; r < keys.length; r++) if (keys[r] >= 0 && keys[r] < nz) start[keys[r] + 1]++;
-  for (let k = 0; k < nz; k++) start[k + 1] += start[k];
-  const fill = start.slice(0, nz);
-  const rows = new Int32Array(start[nz]);
-  for (let r = 0; r < keys.length; r++) if (keys[r] >= 0 && keys[r] < nz) rows[fill[keys[r]]++] = r;
-  return { start, rows };
+  // back to the stations' own order
+  const model = new Float64Array(n);
+  const modelDepthM = new Float64Array(n);
+  const seafloorM = new Float64Array(n);
+  const status = new Array<StationStatus>(n);
+  for (let q = 0; q < n; q++) {
+    const r = Q.station[q];
+    model[r] = out.value[q];
+    modelDepthM[r] = out.valueDepth[q];
+    seafloorM[r] = floorQ[q];
+    status[r] = statusQ[q];
+  }
+  return { model, status, seafloorM, modelDepthM };
 }

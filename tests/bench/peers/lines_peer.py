@@ -5,7 +5,8 @@ person would write it. The field is built from the same formula, held in memory 
 
 usage: lines_peer.py transect|stations POINTS.f64 OUT.f64 REPEATS
 POINTS.f64 holds lon, lat, depth (float64, three arrays one after another).
-Prints one JSON line: best time of the sampling in ms (interpolator built and called) and peak RSS.
+Prints one JSON line: best CPU time (process_time) and elapsed time of the sampling in ms
+(interpolator built and called), and peak RSS.
 """
 import json
 import resource
@@ -42,9 +43,11 @@ def main():
     pts = np.fromfile(points_file, dtype=np.float64).reshape(3, -1)
     plon, plat, pz = pts
     best = float("inf")
+    best_wall = float("inf")
     out = None
     for _ in range(repeats):
         t0 = time.perf_counter()
+        c0 = time.process_time()
         lon_p = np.concatenate([lon, [lon[0] + 360.0]])
         v_p = np.concatenate([v, v[:, :, :1]], axis=2)
         rgi = RegularGridInterpolator((z, lat, lon_p), v_p, method="linear", bounds_error=False, fill_value=np.nan)
@@ -55,10 +58,11 @@ def main():
         else:
             q = np.column_stack([pz, plat, x])
         out = rgi(q)
-        best = min(best, (time.perf_counter() - t0) * 1000.0)
+        best = min(best, (time.process_time() - c0) * 1000.0)
+        best_wall = min(best_wall, (time.perf_counter() - t0) * 1000.0)
     out.astype(np.float64).tofile(out_file)
     peak_mb = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
-    print(json.dumps({"ms": best, "peak_mb": peak_mb, "n": int(out.size)}))
+    print(json.dumps({"ms": best, "wall_ms": best_wall, "peak_mb": peak_mb, "n": int(out.size)}))
 
 
 if __name__ == "__main__":
