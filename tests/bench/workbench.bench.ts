@@ -11,7 +11,7 @@
  * Run: npm run bench -- workbench
  */
 import { build } from 'esbuild';
-import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { chromium } from 'playwright-core';
 import { CHROMIUM, PROJECT, SAMPLE_DATA, openWorkbench, prepare, startServe } from '../e2e/harness.js';
@@ -134,6 +134,7 @@ async function syntheticFields(): Promise<Row[]> {
   } finally {
     await browser.close();
     await served.stop();
+    rmSync(outDir, { recursive: true, force: true }); // the bench page is not part of the workbench
   }
 }
 
