@@ -28,15 +28,11 @@ export function contiguousStrides(shape: number[], elementSize: number): number[
 /** Ranges larger than this are read straight into place; smaller ones may be gathered from one larger read. */
 const DIRECT_RUN_BYTES = 256 * 1024;
 
-/**
- * Fill `out` (C order, the slab's own shape) with the slab [start, start+count) of the layout.
- * Bytes land as stored; the caller fixes byte order afterwards.
- */
-export async function readStrided(source: ByteSource, layout: StridedLayout, start: number[], count: number[], out: Uint8Array): Promise<void> {
+/** The contiguous byte ranges of a slab, in the slab's C order: their offsets and common length. */
+export function planRuns(layout: StridedLayout, start: number[], count: number[]): { offsets: number[]; runBytes: number } {
   const { base, elementSize } = layout;
   let { shape, strides } = layout;
-  if (out.byteLength === 0) return;
-  if (shape.length === 0) return readIntoFrom(source, base, out);
+  if (shape.length === 0) return { offsets: [base], runBytes: elementSize };
   if (strides[strides.length - 1] !== elementSize) {
     // e.g. a 1-D record variable: its only dimension steps by the record size; add a packed unit dimension.
     shape = [...shape, 1];
@@ -66,7 +62,17 @@ export async function readStrided(source: ByteSource, layout: StridedLayout, sta
       idx[d] = 0;
     }
   }
+  return { offsets, runBytes };
+}
 
+/**
+ * Fill `out` (C order, the slab's own shape) with the slab [start, start+count) of the layout.
+ * Bytes land as stored; the caller fixes byte order afterwards.
+ */
+export async function readStrided(source: ByteSource, layout: StridedLayout, start: number[], count: number[], out: Uint8Array): Promise<void> {
+  if (out.byteLength === 0) return;
+  const { offsets, runBytes } = planRuns(layout, start, count);
+  const nRuns = offsets.length;
   if (nRuns === 1) return readIntoFrom(source, offsets[0], out);
   const first = offsets[0];
   const span = offsets[nRuns - 1] + runBytes - first;

@@ -12,6 +12,7 @@ import type { ChunkEntry } from './chunk-index.js';
 import { decodeChunk, decodeChunkAsync } from './filters.js';
 import type { FilterStep } from './layout.js';
 import { UNDEFINED_ADDRESS } from './superblock.js';
+import { slabAhead, stepDimension, type SlabRecord } from '../sequential.js';
 
 export interface ChunkedVariable {
   shape: number[];
@@ -21,7 +22,7 @@ export interface ChunkedVariable {
   fill?: Uint8Array;
   chunks: Map<string, ChunkEntry>;
   /** the previous slab read, to notice reading level after level */
-  last?: { start: number[]; count: number[] };
+  last?: SlabRecord;
 }
 
 export function chunkMap(entries: ChunkEntry[], chunk: number[]): Map<string, ChunkEntry> {
@@ -118,19 +119,6 @@ function chunksOf(v: ChunkedVariable, start: number[], count: number[]): number[
   }
 }
 
-/** The dimension along which this slab follows the previous one (same count, start moved by count), if any. */
-function stepDimension(last: ChunkedVariable['last'], start: number[], count: number[]): number {
-  if (!last || last.count.length !== count.length) return -1;
-  let dim = -1;
-  for (let i = 0; i < count.length; i++) {
-    if (last.count[i] !== count[i]) return -1;
-    if (last.start[i] === start[i]) continue;
-    if (dim >= 0 || start[i] !== last.start[i] + count[i]) return -1;
-    dim = i;
-  }
-  return dim;
-}
-
 export async function readChunked(
   store: ChunkStore, v: ChunkedVariable, start: number[], count: number[], out: Uint8Array,
 ): Promise<void> {
@@ -143,9 +131,8 @@ export async function readChunked(
   v.last = { start: start.slice(), count: count.slice() };
   if (dim >= 0) {
     for (let k = 1; k <= READ_AHEAD_SLABS; k++) {
-      const next = start.slice();
-      next[dim] += k * count[dim];
-      if (next[dim] + count[dim] > v.shape[dim]) break;
+      const next = slabAhead(start, count, dim, k, v.shape);
+      if (!next) break;
       for (const c of chunksOf(v, next, count)) {
         const key = c.join(',');
         const entry = v.chunks.get(key);
