@@ -99,25 +99,22 @@ export function selectKth(a: Float64Array, n: number, k: number): number {
 /** Value range of data arrays, ignoring NaN, between two quantiles (robust to a few extreme cells). */
 export function quantileRange(values: ArrayLike<number>[], lowQ = 0.02, highQ = 0.98): [number, number] | null {
   let n = 0;
-  for (const a of values) for (let i = 0; i < a.length; i++) if (a[i] === a[i]) n++;
-  if (n === 0) return null;
-  const all = new Float64Array(n);
-  let p = 0;
   let min = Infinity;
   let max = -Infinity;
   for (const a of values) {
     for (let i = 0; i < a.length; i++) {
       const v = a[i];
       if (v !== v) continue;
-      all[p++] = v;
+      n++;
       if (v < min) min = v;
       if (v > max) max = v;
     }
   }
+  if (n === 0) return null;
   const kLo = Math.min(n - 1, Math.max(0, Math.round(lowQ * (n - 1))));
   const kHi = Math.min(n - 1, Math.max(0, Math.round(highQ * (n - 1))));
-  let lo = selectKth(all, n, kLo);
-  let hi = selectKth(all, n, kHi);
+  let lo = orderStatistic(values, n, min, max, kLo);
+  let hi = orderStatistic(values, n, min, max, kHi);
   if (!(hi > lo)) {
     lo = min;
     hi = max;
@@ -127,6 +124,36 @@ export function quantileRange(values: ArrayLike<number>[], lowQ = 0.02, highQ = 
     return [lo - d, hi + d];
   }
   return [lo, hi];
+}
+
+/**
+ * The k-th smallest of the non-NaN values: a histogram finds the bin that holds it, then selection among the
+ * few values of that bin gives it exactly (the same number a full sort would).
+ */
+function orderStatistic(values: ArrayLike<number>[], n: number, min: number, max: number, k: number): number {
+  if (n <= 65536 || !(max > min)) {
+    const all = new Float64Array(n);
+    let p = 0;
+    for (const a of values) for (let i = 0; i < a.length; i++) if (a[i] === a[i]) all[p++] = a[i];
+    return selectKth(all, n, k);
+  }
+  const bins = 4096;
+  const scale = bins / (max - min);
+  const count = new Uint32Array(bins);
+  const binOf = (v: number): number => Math.min(bins - 1, Math.floor((v - min) * scale));
+  for (const a of values) for (let i = 0; i < a.length; i++) if (a[i] === a[i]) count[binOf(a[i])]++;
+  let b = 0;
+  let below = 0;
+  while (below + count[b] <= k) below += count[b++];
+  const inBin = new Float64Array(count[b]);
+  let p = 0;
+  for (const a of values) {
+    for (let i = 0; i < a.length; i++) {
+      const v = a[i];
+      if (v === v && binOf(v) === b) inBin[p++] = v;
+    }
+  }
+  return selectKth(inBin, p, k - below);
 }
 
 /** Symmetric range about zero for a difference field: ±(the larger magnitude of its robust bounds). */

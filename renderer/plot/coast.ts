@@ -6,14 +6,21 @@ import { projectRings, type Ring } from '../../app/render/coastline.js';
 import { makeProjection, type ProjectionId } from '../../app/render/projections.js';
 import { vendorUrl } from '../bridge.js';
 
-let rings: Promise<Ring[]> | null = null;
-const projected = new Map<ProjectionId, Promise<Float64Array[]>>();
+export type CoastDetail = 'screen' | 'print';
 
-/** Land rings (lon/lat) of Natural Earth 1:50m land, loaded from the workbench's own files. */
-export function landRings(): Promise<Ring[]> {
-  if (!rings) {
-    rings = (async () => {
-      const res = await fetch(vendorUrl('land50m'), { credentials: 'same-origin' });
+const rings = new Map<CoastDetail, Promise<Ring[]>>();
+const projected = new Map<string, Promise<Float64Array[]>>();
+const ready = new Map<string, Float64Array[]>();
+
+/**
+ * Land rings (lon/lat) of Natural Earth land, loaded from the workbench's own files: 1:110m on screen
+ * (a pixel is coarser than its detail), 1:50m for figures printed at 300 dpi.
+ */
+export function landRings(detail: CoastDetail): Promise<Ring[]> {
+  let r = rings.get(detail);
+  if (!r) {
+    r = (async () => {
+      const res = await fetch(vendorUrl(detail === 'print' ? 'land50m' : 'land110m'), { credentials: 'same-origin' });
       if (!res.ok) throw new Error(`The coastline file could not be loaded (${res.status}).`);
       const topo = (await res.json()) as Topology;
       const land = feature(topo, topo.objects.land) as unknown as { features?: { geometry: Polygon | MultiPolygon }[]; geometry?: Polygon | MultiPolygon };
@@ -25,17 +32,27 @@ export function landRings(): Promise<Ring[]> {
       }
       return out;
     })();
-    rings.catch(() => (rings = null));
+    rings.set(detail, r);
+    r.catch(() => rings.delete(detail));
   }
-  return rings;
+  return r;
 }
 
-export function coastlines(id: ProjectionId): Promise<Float64Array[]> {
-  let p = projected.get(id);
+export function coastlines(id: ProjectionId, detail: CoastDetail = 'screen'): Promise<Float64Array[]> {
+  const key = `${id}|${detail}`;
+  let p = projected.get(key);
   if (!p) {
-    p = landRings().then((r) => projectRings(makeProjection(id), r));
-    projected.set(id, p);
-    p.catch(() => projected.delete(id));
+    p = landRings(detail).then((r) => projectRings(makeProjection(id), r));
+    projected.set(key, p);
+    p.then((lines) => ready.set(key, lines)).catch(() => projected.delete(key));
   }
   return p;
+}
+
+/** The coastlines if they are already projected, otherwise null (and their loading starts). */
+export function coastlinesIfReady(id: ProjectionId, detail: CoastDetail = 'screen'): Float64Array[] | null {
+  const hit = ready.get(`${id}|${detail}`);
+  if (hit) return hit;
+  void coastlines(id, detail).catch(() => undefined);
+  return null;
 }

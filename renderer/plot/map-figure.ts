@@ -35,19 +35,24 @@ export interface MapFigure {
 const TOP = 50;
 const BAR_SPACE = 104;
 
-export function mapFigure(spec: MapFigureSpec): MapFigure {
-  const e = spec.projection.extent;
+/** Where the map itself goes in a figure of this width (and at most this height). */
+export function mapPlotRect(projection: MapProjection, width: number, maxHeight?: number): Rect {
+  const e = projection.extent;
   const aspect = (e.ymax - e.ymin) / (e.xmax - e.xmin);
-  let pw = spec.width - 16 - BAR_SPACE;
+  let pw = width - 16 - BAR_SPACE;
   let ph = pw * aspect;
-  if (spec.maxHeight && TOP + ph + 16 > spec.maxHeight) {
-    ph = Math.max(120, spec.maxHeight - TOP - 16);
+  if (maxHeight && TOP + ph + 16 > maxHeight) {
+    ph = Math.max(120, maxHeight - TOP - 16);
     pw = ph / aspect;
   }
-  pw = Math.round(pw);
-  ph = Math.round(ph);
+  return { x: 12, y: TOP, w: Math.round(pw), h: Math.round(ph) };
+}
+
+export function mapFigure(spec: MapFigureSpec): MapFigure {
+  const e = spec.projection.extent;
+  const plot = mapPlotRect(spec.projection, spec.width, spec.maxHeight);
+  const ph = plot.h;
   const height = TOP + ph + 16;
-  const plot: Rect = { x: 12, y: TOP, w: pw, h: ph };
   const svg = figureRoot(spec.width, height, `${spec.title}. ${spec.subtitle}`);
   title(svg, 12, 18, spec.title, spec.subtitle);
 

@@ -10,8 +10,8 @@ import { packRgba, recolour } from '../../app/render/recolour.js';
 import type { LevelData, ViewGrid } from '../../app/render/view-types.js';
 import { getLevel } from '../data.js';
 import { h, s } from '../dom.js';
-import { coastlines } from '../plot/coast.js';
-import { mapFigure, type MapFigure } from '../plot/map-figure.js';
+import { coastlines, coastlinesIfReady } from '../plot/coast.js';
+import { mapFigure, mapPlotRect, type MapFigure } from '../plot/map-figure.js';
 import { choose, currentVariable, setProbe, state, type AppState } from '../state.js';
 import { EXPORT_WIDTH, errorText, note, type ViewFactory, type ViewHandle } from './view.js';
 
@@ -208,10 +208,18 @@ export function mapView(difference: boolean): ViewFactory {
       for (const b of fieldButtons) b.setAttribute('aria-pressed', String(b.dataset.field === st.sel.mapField));
       const my = ++token;
       const needData = !data || changed.has('session') || changed.has('variable') || changed.has('run') || changed.has('layer') || data.variable !== st.sel.variable || data.run !== st.sel.run || data.layer.id !== st.sel.layer;
+      const width = Math.max(360, Math.floor(stage.clientWidth || el.clientWidth || 900));
+      const maxHeight = Math.max(260, Math.floor(stage.clientHeight || 600));
+      const dpr = Math.min(2, window.devicePixelRatio || 1);
+      const proj = projectionOf(st.sel.projection);
+      const canvasWidth = Math.round(mapPlotRect(proj, width, maxHeight).w * dpr);
       if (needData) {
         if (!fig) note(stage, 'Loading the field…', 'busy');
+        const pending = getLevel(session.session, st.sel.variable, st.sel.run, st.sel.layer);
+        // while the server reads the level, build the pixel lookup this drawing will need
+        lookupFor(proj, session.grid, canvasWidth, canvasHeightFor(proj, canvasWidth));
         try {
-          const d = await getLevel(session.session, st.sel.variable, st.sel.run, st.sel.layer);
+          const d = await pending;
           if (my !== token) return;
           data = d;
         } catch (e) {
@@ -233,17 +241,21 @@ export function mapView(difference: boolean): ViewFactory {
       minIn.value = String(Number(choice.min.toPrecision(4)));
       maxIn.value = String(Number(choice.max.toPrecision(4)));
 
-      const proj = projectionOf(st.sel.projection);
-      const width = Math.max(360, Math.floor(stage.clientWidth || el.clientWidth || 900));
-      const maxHeight = Math.max(260, Math.floor(stage.clientHeight || 600));
-      const coast = await coastlines(proj.info.id).catch(() => [] as Float64Array[]);
-      if (my !== token) return;
+      // the field first; the coastlines join when they are loaded (a redraw, with the same canvas)
+      let coast = coastlinesIfReady(proj.info.id);
+      if (!coast) {
+        coast = [];
+        void coastlines(proj.info.id)
+          .then(() => {
+            if (my === token) void draw(state, new Set(['coast']));
+          })
+          .catch(() => undefined);
+      }
       const key = JSON.stringify([proj.info.id, width, maxHeight, choice.min, choice.max, choice.units, choice.title, choice.subtitle, choice.caption, coast.length]);
       if (key !== figKey) {
         fig = mapFigure({ width, maxHeight, projection: proj, title: choice.title, subtitle: choice.subtitle, scale: choice.diverging ? DIVERGING : SEQUENTIAL, min: choice.min, max: choice.max, units: choice.units, caption: choice.caption, coast });
         figKey = key;
-        const dpr = Math.min(2, window.devicePixelRatio || 1);
-        const cw = Math.round(fig.plot.w * dpr);
+        const cw = canvasWidth;
         const ch = canvasHeightFor(proj, cw);
         if (!canvas || canvas.width !== cw || canvas.height !== ch) {
           canvas = h('canvas', { class: 'map-canvas', width: cw, height: ch, 'aria-label': 'Map raster; move the pointer to probe values' });
@@ -289,7 +301,7 @@ export function mapView(difference: boolean): ViewFactory {
         const choice = mapChoice(state, data, difference);
         if (!choice) return null;
         const proj = projectionOf(state.sel.projection);
-        const coast = await coastlines(proj.info.id).catch(() => [] as Float64Array[]);
+        const coast = await coastlines(proj.info.id, 'print').catch(() => [] as Float64Array[]);
         const f = mapFigure({ width: EXPORT_WIDTH, projection: proj, title: choice.title, subtitle: choice.subtitle, scale: choice.diverging ? DIVERGING : SEQUENTIAL, min: choice.min, max: choice.max, units: choice.units, caption: choice.caption, coast });
         // the raster at print resolution: 300 dpi over the plot's width (1 unit = 0.25 mm)
         const cw = Math.round((f.plot.w * 0.25 * 300) / 25.4);

@@ -73,6 +73,17 @@ describe('ranges and ticks', () => {
     const sorted = Float64Array.from(a).sort();
     for (const k of [0, 1, 100, 2500, 4900, 5000]) expect(selectKth(Float64Array.from(a), a.length, k)).toBe(sorted[k]);
   });
+  it('quantile range on a large array gives the order statistics a full sort gives', () => {
+    let seed = 11;
+    const rnd = (): number => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
+    const a = Float32Array.from({ length: 200_003 }, (_, i) => (i % 97 === 0 ? NaN : Math.exp(6 * rnd()) - 20));
+    const b = Float32Array.from({ length: 1000 }, () => 1e6 * rnd());
+    const valid = Float64Array.from([...a, ...b].filter((v) => v === v)).sort();
+    const n = valid.length;
+    const [lo, hi] = quantileRange([a, b], 0.02, 0.98)!;
+    expect(lo).toBe(valid[Math.round(0.02 * (n - 1))]);
+    expect(hi).toBe(valid[Math.round(0.98 * (n - 1))]);
+  });
   it('quantile range ignores NaN and the extreme tails', () => {
     const a = new Float32Array(1001);
     for (let i = 0; i < 1001; i++) a[i] = i;
