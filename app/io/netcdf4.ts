@@ -104,7 +104,12 @@ export class Netcdf4Dataset implements RawDataset {
       if (plan.address === UNDEFINED_ADDRESS) fillBytes(bytes, size, plan.fill);
       else await readStrided(this.source, { base: plan.address, elementSize: size, shape: v.shape, strides: contiguousStrides(v.shape, size) }, s, c, bytes);
     } else {
-      await readChunked(this.store, plan.chunked, s, c, bytes);
+      try {
+        await readChunked(this.store, plan.chunked, s, c, bytes);
+      } catch (e) {
+        if (e instanceof StillwaterError) throw e;
+        throw fileError('E_FORMAT', this.path, `a stored chunk is damaged and cannot be decoded (${(e as Error).message}).`, name);
+      }
     }
     if (v.littleEndian) littleEndianToHost(bytes, size);
     else bigEndianToHost(bytes, size);

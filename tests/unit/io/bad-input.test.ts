@@ -127,3 +127,31 @@ describe('openDataset on bad input', () => {
     expect(readFileSync(fixture('classic_cdf1.nc')).equals(before)).toBe(true);
   });
 });
+
+describe('damaged data inside a NetCDF-4 file whose metadata are intact', () => {
+  /** Byte ranges of the chunks of o2 in python_nc4.nc, as our reader found them. */
+  async function o2Chunks(path: string): Promise<{ address: number; size: number }[]> {
+    const ds = (await openDataset(path)) as unknown as {
+      planFor(v: unknown): Promise<{ kind: string; chunked?: { chunks: Map<string, { address: number; size: number }> } }>;
+      h5vars: { name: string }[];
+      close(): Promise<void>;
+    };
+    const plan = await ds.planFor(ds.h5vars.find((v) => v.name === 'o2'));
+    await ds.close();
+    return [...(plan.chunked?.chunks.values() ?? [])];
+  }
+
+  it('a deflated chunk overwritten with other bytes: E_FORMAT naming file and variable', async () => {
+    const bytes = new Uint8Array(readFileSync(fixture('python_nc4.nc')));
+    const [first] = await o2Chunks(fixture('python_nc4.nc'));
+    bytes.fill(0xa5, first.address, first.address + first.size);
+    const path = write('bad-chunk.nc', bytes);
+    const ds = await openDataset(path);
+    const err = await ds.read('o2').then(() => undefined, (e: unknown) => e);
+    await ds.close();
+    expect(err).toBeInstanceOf(StillwaterError);
+    expect((err as StillwaterError).code).toBe('E_FORMAT');
+    expect((err as StillwaterError).message).toContain(`${path}, variable 'o2'`);
+    expect((err as StillwaterError).message).toMatch(/damaged/);
+  });
+});
