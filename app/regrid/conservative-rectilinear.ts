@@ -1,11 +1,11 @@
 import { EARTH_RADIUS_M, type HorizontalGrid } from '../grid/types.js';
 import { ascendingEdges, cellRange } from './axis-order.js';
-import { TripletBuilder, type SparseWeights } from './csr.js';
+import type { SparseWeights } from './csr.js';
 import { lonOverlap } from './overlap1d.js';
 
 const RAD = Math.PI / 180;
 
-interface AxisOverlap {
+export interface AxisOverlap {
   /** per target cell (original index): source cells (original index) and overlap measure */
   start: Int32Array;
   src: Int32Array;
@@ -17,23 +17,44 @@ interface AxisOverlap {
  * cells is R² × (longitude overlap in radians, periodic) × (overlap in sin latitude).
  */
 export function conservativeRectilinear(source: HorizontalGrid, target: HorizontalGrid, radius = EARTH_RADIUS_M): SparseWeights {
-  const sa = source.axes!, ta = target.axes!;
-  const lon = lonOverlaps(sa.lonEdges, ta.lonEdges);
-  const lat = latOverlaps(sa.latEdges, ta.latEdges);
+  const { lon, lat } = separableFactors(source, target);
   const snx = source.nx, tnx = target.nx, tny = target.ny;
-  const b = new TripletBuilder(tnx * tny * 4);
+  const nRows = tnx * tny;
+  // each target cell's entries are (its source rows) x (its source columns): the CSR is filled directly
+  const rowPtr = new Int32Array(nRows + 1);
+  for (let j = 0; j < tny; j++) {
+    const nLat = lat.start[j + 1] - lat.start[j];
+    for (let i = 0; i < tnx; i++) rowPtr[j * tnx + i + 1] = nLat * (lon.start[i + 1] - lon.start[i]);
+  }
+  for (let r = 0; r < nRows; r++) rowPtr[r + 1] += rowPtr[r];
+  const col = new Int32Array(rowPtr[nRows]);
+  const w = new Float64Array(rowPtr[nRows]);
   const r2 = radius * radius;
   for (let j = 0; j < tny; j++) {
     for (let i = 0; i < tnx; i++) {
-      const row = j * tnx + i;
+      let q = rowPtr[j * tnx + i];
       for (let p = lat.start[j]; p < lat.start[j + 1]; p++) {
         const base = lat.src[p] * snx;
         const ds = lat.len[p] * r2;
-        for (let q = lon.start[i]; q < lon.start[i + 1]; q++) b.push(row, base + lon.src[q], ds * lon.len[q]);
+        for (let m = lon.start[i]; m < lon.start[i + 1]; m++) {
+          col[q] = base + lon.src[m];
+          w[q++] = ds * lon.len[m];
+        }
       }
     }
   }
-  return b.toCsr('conservative', tnx * tny, snx * source.ny);
+  return { method: 'conservative', nRows, nCols: snx * source.ny, rowPtr, col, w };
+}
+
+/** The weights as two factors, one per axis: w[(jt, it), (js, is)] = R² · lat[jt → js] · lon[it → is]. */
+export interface SeparableFactors {
+  lon: AxisOverlap;
+  lat: AxisOverlap;
+}
+
+export function separableFactors(source: HorizontalGrid, target: HorizontalGrid): SeparableFactors {
+  const sa = source.axes!, ta = target.axes!;
+  return { lon: lonOverlaps(sa.lonEdges, ta.lonEdges), lat: latOverlaps(sa.latEdges, ta.latEdges) };
 }
 
 function lonOverlaps(srcEdges: Float64Array, tgtEdges: Float64Array): AxisOverlap {

@@ -86,15 +86,13 @@ export function columnSums(m: SparseWeights): Float64Array {
 export function applySums(m: SparseWeights, n: Float64Array, d: Float64Array, num: Float64Array, den: Float64Array): void {
   const { rowPtr, col, w } = m;
   for (let r = 0; r < m.nRows; r++) {
+    // missing source values have n = d = 0, so no test is needed inside the loop
     let a = 0, b = 0;
     for (let p = rowPtr[r], e = rowPtr[r + 1]; p < e; p++) {
       const s = col[p];
-      const ds = d[s];
-      if (ds > 0) {
-        const wp = w[p];
-        a += wp * n[s];
-        b += wp * ds;
-      }
+      const wp = w[p];
+      a += wp * n[s];
+      b += wp * d[s];
     }
     num[r] = a;
     den[r] = b;

@@ -70,25 +70,25 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
   // what the weights of a fully covered target cell add up to
   const rowRef = method === 'conservative' ? th.area : method === 'bilinear' ? rowSums(weights) : rowsPresent(weights);
   const n = new Float64Array(nSrc), d = new Float64Array(nSrc);
-  const scratch = { num: new Float64Array(nTgt), den: new Float64Array(nTgt) };
+  const scratch = method === 'nearest' ? { num: new Float64Array(nTgt), den: new Float64Array(nTgt) } : { num: new Float64Array(0), den: new Float64Array(0) };
   const rule = { threshold, normalise };
   const stats = { sourceValues: 0, sourceValid: 0 };
-  const levels = new LevelCache(src, 4, stats);
+  const levels = new LevelCache(src, 4);
   const lastCoverage = new Map<number, Float32Array>();
 
   async function readOne(t: number, k: number): Promise<{ values: Float32Array; coverage: Float32Array }> {
     if (!(k >= 0 && k < vw.nz)) throw new StillwaterError('E_INPUT', `${where}: level ${k} is outside the target's ${vw.nz} levels.`, subject);
-    n.fill(0);
-    d.fill(0);
-    for (let p = vw.start[k]; p < vw.start[k + 1]; p++) {
-      const level = await levels.get(t, vw.src[p]);
-      const h = vw.h[p];
-      for (let s = 0; s < nSrc; s++) {
-        const v = level[s];
-        if (v === v) {
-          n[s] += h * v;
-          d[s] += h;
-        }
+    const p0 = vw.start[k], p1 = vw.start[k + 1];
+    if (p0 === p1) {
+      n.fill(0);
+      d.fill(0);
+    }
+    for (let p = p0; p < p1; p++) {
+      const { level, fresh } = await levels.get(t, vw.src[p]);
+      const valid = accumulate(level, vw.h[p], n, d, p === p0);
+      if (fresh) {
+        stats.sourceValues += level.length;
+        stats.sourceValid += valid;
       }
     }
     const values = new Float32Array(nTgt);
@@ -134,6 +134,37 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
   };
 }
 
+/**
+ * n += h·v and d += h where v is valid; the first layer of a target level sets instead of adding.
+ * (A plain function, so the engine optimises the loop.)
+ */
+function accumulate(level: Float32Array, h: number, n: Float64Array, d: Float64Array, first: boolean): number {
+  let valid = 0;
+  if (first) {
+    for (let s = 0; s < level.length; s++) {
+      const v = level[s];
+      if (v === v) {
+        n[s] = h * v;
+        d[s] = h;
+        valid++;
+      } else {
+        n[s] = 0;
+        d[s] = 0;
+      }
+    }
+    return valid;
+  }
+  for (let s = 0; s < level.length; s++) {
+    const v = level[s];
+    if (v === v) {
+      n[s] += h * v;
+      d[s] += h;
+      valid++;
+    }
+  }
+  return valid;
+}
+
 /** 1 for target cells with any nearest-wet candidate, else 0. */
 function rowsPresent(w: SparseWeights): Float64Array {
   const out = new Float64Array(w.nRows);
@@ -164,23 +195,19 @@ class LevelCache {
   constructor(
     private readonly src: FieldSource,
     private readonly size: number,
-    private readonly stats: { sourceValues: number; sourceValid: number },
   ) {}
-  async get(t: number, k: number): Promise<Float32Array> {
+  /** the level, and whether it was just read (not from the cache) */
+  async get(t: number, k: number): Promise<{ level: Float32Array; fresh: boolean }> {
     const key = `${t}:${k}`;
     const hit = this.map.get(key);
     if (hit) {
       this.map.delete(key);
       this.map.set(key, hit);
-      return hit;
+      return { level: hit, fresh: false };
     }
     const level = await this.src.readLevel(t, k);
-    let valid = 0;
-    for (let i = 0; i < level.length; i++) if (level[i] === level[i]) valid++;
-    this.stats.sourceValues += level.length;
-    this.stats.sourceValid += valid;
     this.map.set(key, level);
     if (this.map.size > this.size) this.map.delete(this.map.keys().next().value as string);
-    return level;
+    return { level, fresh: true };
   }
 }

@@ -1,4 +1,4 @@
-import { applyFirstValid, applySums, type SparseWeights } from './csr.js';
+import { applyFirstValid, type SparseWeights } from './csr.js';
 
 export interface LevelRule {
   /** minimum covered fraction; below it the target is NaN */
@@ -24,15 +24,66 @@ export function remapLevel(
   coverage: Float32Array | Float64Array,
   scratch: { num: Float64Array; den: Float64Array },
 ): void {
-  const { num, den } = scratch;
-  if (weights.method === 'nearest') applyFirstValid(weights, n, d, num, den);
-  else applySums(weights, n, d, num, den);
-  const normalise = rule.normalise || weights.method === 'nearest';
   const floor = rule.threshold - 1e-12;
-  for (let r = 0; r < weights.nRows; r++) {
+  if (weights.method === 'nearest') {
+    const { num, den } = scratch;
+    applyFirstValid(weights, n, d, num, den);
+    finish(num, den, rowRef, ref, true, floor, values, coverage);
+  } else {
+    fusedSums(weights.rowPtr, weights.col, weights.w, n, d, rowRef, ref, rule.normalise, floor, values, coverage);
+  }
+}
+
+/** Σ w·n and Σ w·d per row, then coverage and value, in one pass (the hot loop of every level). */
+function fusedSums(
+  rowPtr: Int32Array,
+  col: Int32Array,
+  w: Float64Array,
+  n: Float64Array,
+  d: Float64Array,
+  rowRef: Float64Array,
+  ref: number,
+  normalise: boolean,
+  floor: number,
+  values: Float32Array | Float64Array,
+  coverage: Float32Array | Float64Array,
+): void {
+  const nRows = rowRef.length;
+  let p = rowPtr[0];
+  for (let r = 0; r < nRows; r++) {
+    // missing source values have n = d = 0, so no test is needed inside the loop
+    let a = 0, b = 0;
+    const e = rowPtr[r + 1];
+    for (; p < e; p++) {
+      const s = col[p];
+      const wp = w[p];
+      a += wp * n[s];
+      b += wp * d[s];
+    }
+    const full = rowRef[r] * ref;
+    let c = full > 0 ? b / full : 0;
+    if (c > 1) c = 1;
+    coverage[r] = c;
+    values[r] = b > 0 && c >= floor ? (normalise ? a / b : a / full) : NaN;
+  }
+}
+
+/** Coverage and value per target cell from the two sums. */
+function finish(
+  num: Float64Array,
+  den: Float64Array,
+  rowRef: Float64Array,
+  ref: number,
+  normalise: boolean,
+  floor: number,
+  values: Float32Array | Float64Array,
+  coverage: Float32Array | Float64Array,
+): void {
+  for (let r = 0; r < num.length; r++) {
     const full = rowRef[r] * ref;
     const b = den[r];
-    const c = full > 0 ? Math.min(1, b / full) : 0;
+    let c = full > 0 ? b / full : 0;
+    if (c > 1) c = 1;
     coverage[r] = c;
     values[r] = b > 0 && c >= floor ? (normalise ? num[r] / b : num[r] / full) : NaN;
   }
