@@ -71,3 +71,13 @@ describe.each(fx.cases)('overlaps of curvilinear cells with lat-lon cells: $name
     for (let s = 0; s < sums.length; s++) expect(Math.abs(sums[s] / src.area[s] - 1)).toBeLessThan(1e-12);
   });
 });
+
+describe('cell areas agree with the grid model', () => {
+  it('frame areas equal the spherical-excess areas of app/grid/curvilinear.ts (Van Oosterom & Strackee 1983)', async () => {
+    const { quadArea } = await import('../../../app/grid/curvilinear.js');
+    for (const c of fx.cases) {
+      const g = sourceGrid(c);
+      for (let s = 0; s < g.nx * g.ny; s++) expect(Math.abs(g.area[s] / quadArea(g.cornerLon, g.cornerLat, 4 * s) - 1)).toBeLessThan(1e-10);
+    }
+  });
+});
