@@ -2,6 +2,8 @@ import { resolve } from 'node:path';
 import { StillwaterError } from '../../app/errors.js';
 import { parseRange, parseWaypoints } from '../../app/lines/waypoints.js';
 import { runLine, writeLineFiles, type LineSpec } from '../../app/lines/run-line.js';
+import { writeFilesAtomic } from '../../app/lines/write-files.js';
+import { runZonalMean, zonalCsv, zonalJson } from '../../app/lines/zonal-mean.js';
 import { loadRecipe } from '../../app/recipe/index.js';
 import { allowOnly, optional, optionalNumber, parseArgs, required } from '../args.js';
 import type { Command } from '../command.js';
@@ -18,6 +20,9 @@ and DIR/column-means.csv, DIR/column-means.json (thickness-weighted column means
   --path "lon,lat;..."   two or more waypoints in degrees, joined by great circles
   --meridian LON         instead of --path: a section along a meridian (--lat-range S,N, default -90,90)
   --parallel LAT         instead of --path: a section eastwards along a parallel (--lon-range W,E, default -180,180)
+  --zonal-mean BASIN     instead of a line: the zonal mean of a basin (atlantic, pacific, indian, southern,
+                         arctic, global, or a region of the recipe) per latitude and depth; writes
+                         DIR/zonal.csv and DIR/zonal.json
   --spacing-km 50        distance between samples (waypoints are always samples too)
   --depth-range 0,6000   depth range of the column means, metres (default: the whole column)
   --method bilinear      bilinear (default) or nearest (nearest wet cell)
@@ -29,7 +34,7 @@ function lineSpec(args: ReturnType<typeof parseArgs>): LineSpec {
   const meridian = optionalNumber(args, 'meridian');
   const parallel = optionalNumber(args, 'parallel');
   const given = [path !== undefined, meridian !== undefined, parallel !== undefined].filter(Boolean).length;
-  if (given !== 1) throw new StillwaterError('E_INPUT', 'Give exactly one of --path, --meridian or --parallel.');
+  if (given !== 1) throw new StillwaterError('E_INPUT', 'Give exactly one of --path, --meridian, --parallel or --zonal-mean.');
   if (path !== undefined) return { kind: 'waypoints', points: parseWaypoints(path) };
   if (meridian !== undefined) {
     const r = optional(args, 'lat-range');
@@ -51,10 +56,23 @@ export const lineCommand: Command = {
   usage,
   async run(argv: string[]): Promise<number> {
     const args = parseArgs(argv, ['json']);
-    allowOnly(args, 'line', ['recipe', 'var', 'path', 'meridian', 'parallel', 'lat-range', 'lon-range', 'spacing-km', 'depth-range', 'method', 'out', 'json']);
+    allowOnly(args, 'line', ['recipe', 'var', 'path', 'meridian', 'parallel', 'zonal-mean', 'lat-range', 'lon-range', 'spacing-km', 'depth-range', 'method', 'out', 'json']);
     const recipePath = required(args, 'recipe');
     const variable = required(args, 'var');
     const outDir = resolve(required(args, 'out'));
+    const basin = optional(args, 'zonal-mean');
+    if (basin !== undefined) {
+      if (['path', 'meridian', 'parallel'].some((k) => args.options.has(k))) throw new StillwaterError('E_INPUT', 'Give exactly one of --path, --meridian, --parallel or --zonal-mean.');
+      const z = await runZonalMean(await loadRecipe(recipePath), variable, basin);
+      const files = writeFilesAtomic(outDir, { 'zonal.csv': zonalCsv(z), 'zonal.json': JSON.stringify(zonalJson(z)) + '\n' });
+      if (args.switches.has('json')) out(JSON.stringify({ variable, units: z.units, basin, latitudes: z.lat.length, levels: z.depthCentres.length, files, notes: z.notes }, null, 1));
+      else {
+        out(`${variable} (${z.units}): zonal mean of ${basin} over ${z.lat.length} latitudes and ${z.depthCentres.length} levels`);
+        for (const note of z.notes) err(`note: ${note}`);
+        for (const f of files) err(`wrote ${f}`);
+      }
+      return 0;
+    }
     const line = lineSpec(args);
     const spacingKm = optionalNumber(args, 'spacing-km');
     const dr = optional(args, 'depth-range');

@@ -89,6 +89,26 @@ describe('stillwater line', () => {
   });
 });
 
+describe('stillwater line --zonal-mean', () => {
+  it('the zonal mean of a field that does not vary along longitude is the field itself, land left out', () => {
+    const out = join(dir, 'zonal');
+    const r = stillwater(['line', '--recipe', join(dir, 'recipe.json'), '--var', 'PO4', '--zonal-mean', 'global', '--out', out, '--json']);
+    expect(r.stderr).not.toMatch(/internal fault/);
+    expect(r.code).toBe(0);
+    const rows = csv(join(out, 'zonal.csv'));
+    expect(rows).toHaveLength(18 * 4);
+    for (const row of rows) {
+      expect(Number(row.climatology)).toBeCloseTo(truth(Number(row.lat), Number(row.depth_m)), 5);
+      expect(Number(row['plus-half minus reference'])).toBeCloseTo(0.5, 5);
+    }
+  });
+  it('an unknown basin', () => {
+    const r = stillwater(['line', '--recipe', join(dir, 'recipe.json'), '--var', 'PO4', '--zonal-mean', 'mediterranean', '--out', join(dir, 'zonal-bad')]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/--zonal-mean mediterranean: no basin or recipe region has that name/);
+  });
+});
+
 describe('stillwater line refuses bad input with one sentence and exit 2, writing nothing', () => {
   const cases: [string, string[], RegExp][] = [
     ['a path with one point', ['--path', '10,0'], /a line needs at least two waypoints, got 1\./],
