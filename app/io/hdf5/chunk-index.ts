@@ -1,7 +1,7 @@
 /**
  * Where each chunk of a chunked dataset is stored. Version-1 B-trees (layout message v3, what
- * netCDF-4 files written with the 1.8 format bounds use), single-chunk and implicit indexes are
- * read here (HDF5 File Format Specification III.A.1 and VII); other index kinds return undefined
+ * netCDF-4 files written with the 1.8 format bounds use), single-chunk, implicit and (unpaged)
+ * fixed-array indexes (newer file formats, fixed-size datasets) are read here (HDF5 File Format Specification III.A.1 and VII); other index kinds return undefined
  * and the caller falls back to the HDF5 library.
  */
 import type { ByteSource } from '../byte-source.js';
@@ -42,9 +42,55 @@ export async function readChunkIndex(
       }
       return out;
     }
+    case 'fixed-array':
+      return readFixedArray(source, sb, layout.address, layout.chunk, shape, chunkBytes);
     default:
       return undefined;
   }
+}
+
+/**
+ * Fixed-array chunk index (HDF5 File Format Specification VII.B, "Fixed Array Header" / "Data Block"):
+ * one entry per chunk in C order of the chunk grid. Paged data blocks (more chunks than one page holds)
+ * are left to the library.
+ */
+async function readFixedArray(
+  source: ByteSource, sb: Superblock, address: number, chunk: number[], shape: number[], chunkBytes: number,
+): Promise<ChunkEntry[] | undefined> {
+  const O = sb.sizeOfOffsets;
+  const L = sb.sizeOfLengths;
+  const head = await source.read(sb.baseAddress + address, 8 + L + O);
+  if (String.fromCharCode(head[0], head[1], head[2], head[3]) !== 'FAHD') throw new Error('no fixed array header');
+  const hv = new DataView(head.buffer, head.byteOffset, head.byteLength);
+  const clientId = head[5];
+  const entrySize = head[6];
+  const pageBits = head[7];
+  const nEntries = readUint(hv, 8, L);
+  const blockAddress = readUint(hv, 8 + L, O);
+  if (nEntries > 2 ** pageBits) return undefined; // paged
+  const prefix = 6 + O; // signature, version, client id, header address
+  const body = await source.read(sb.baseAddress + blockAddress, prefix + nEntries * entrySize);
+  if (String.fromCharCode(body[0], body[1], body[2], body[3]) !== 'FADB') throw new Error('no fixed array data block');
+  const v = new DataView(body.buffer, body.byteOffset, body.byteLength);
+  const grid = shape.map((n, i) => Math.ceil(n / chunk[i]));
+  const out: ChunkEntry[] = [];
+  const idx = new Array<number>(shape.length).fill(0);
+  for (let e = 0; e < nEntries; e++) {
+    const at = prefix + e * entrySize;
+    const addr = readUint(v, at, O);
+    let size = chunkBytes;
+    let filterMask = 0;
+    if (clientId === 1) {
+      size = readUint(v, at + O, entrySize - O - 4);
+      filterMask = v.getUint32(at + entrySize - 4, true);
+    }
+    out.push({ offset: idx.map((x, i) => x * chunk[i]), address: addr, size, filterMask });
+    for (let d = shape.length - 1; d >= 0; d--) {
+      if (++idx[d] < grid[d]) break;
+      idx[d] = 0;
+    }
+  }
+  return out;
 }
 
 async function readBtree1(source: ByteSource, sb: Superblock, root: number, rank: number): Promise<ChunkEntry[]> {
