@@ -1,0 +1,51 @@
+// The workbench's line and station services, over the same scenario as the command tests
+// (tests/integration/lines-fixture.ts: a field linear in latitude and depth), through the path guard
+// of browser mode.
+import { mkdtempSync, readFileSync, realpathSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { linesServices, type LineData, type PointsData, type StationsData } from '../../../app/services/lines.js';
+import type { ServiceContext } from '../../../app/services/types.js';
+import { PathGuard } from '../../../main/path-guard.js';
+import { makeLineScenario, truth } from '../../integration/lines-fixture.js';
+
+let dir = '';
+let ctx: ServiceContext;
+let recipe: unknown;
+beforeAll(() => {
+  dir = realpathSync(makeLineScenario());
+  const g = new PathGuard([dir]);
+  ctx = { resolvePath: (p) => g.resolve(p), roots: g.roots, cacheDir: join(dir, 'cache'), progress: () => undefined, signal: new AbortController().signal };
+  recipe = JSON.parse(readFileSync(join(dir, 'recipe.json'), 'utf8'));
+});
+const svc = (name: string) => linesServices.find((e) => e.name === name)!;
+
+describe('line and station services', () => {
+  it('line.sample takes typed waypoints and returns sections and column means', async () => {
+    const input = svc('line.sample').input.parse({ recipe, baseDir: dir, variable: 'PO4', line: { kind: 'waypoints', points: '-40,-30; -20,30' }, spacingKm: 250 });
+    const d = (await svc('line.sample').run(input, ctx)) as LineData;
+    expect(d.fields.map((f) => f.role)).toEqual(['reference', 'run', 'difference']);
+    expect(d.lon).toBeInstanceOf(Float64Array);
+    for (let s = 0; s < d.lat.length; s++) expect(d.fields[0].columnMean[s]).toBeCloseTo(truth(d.lat[s], 500), 4);
+    expect(d.skill[0].bias).toBeCloseTo(0.5, 5);
+  });
+  it('points.stations and points.compare', async () => {
+    writeFileSync(join(dir, 'st.csv'), '# units: umol kg-1\nid,lon,lat,depth,value\nA,-28,18,200,1.5\nB,0,0,10,1\n');
+    const st = (await svc('points.stations').run(svc('points.stations').input.parse({ file: join(dir, 'st.csv') }), ctx)) as StationsData;
+    expect(st.id).toEqual(['A', 'B']);
+    expect(st.units).toBe('umol kg-1');
+    const input = svc('points.compare').input.parse({ recipe, baseDir: dir, variable: 'PO4', stations: join(dir, 'st.csv') });
+    const p = (await svc('points.compare').run(input, ctx)) as PointsData;
+    expect(p.sources[0].model[0]).toBeCloseTo(truth(18, 200), 5);
+    expect(p.sources[0].status).toEqual(['ok', 'on_land']);
+    expect(p.problems).toHaveLength(1);
+    expect(p.problems[0]).toMatch(/line 4 \(station B at 0, 0, 10 m\): on land in climatology, plus-half/);
+  });
+  it('files outside the allowed folders are refused', async () => {
+    const other = mkdtempSync(join(tmpdir(), 'sw-outside-'));
+    writeFileSync(join(other, 'st.csv'), 'lon,lat,depth,value\n1,2,3,4\n');
+    await expect(svc('points.stations').run({ file: join(other, 'st.csv') }, ctx)).rejects.toThrow();
+    await expect(svc('line.sample').run(svc('line.sample').input.parse({ recipe, baseDir: other, variable: 'PO4', line: { kind: 'meridian', lon: 0 } }), ctx)).rejects.toThrow();
+  });
+});
