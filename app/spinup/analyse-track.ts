@@ -140,7 +140,7 @@ export function analyseTrack(input: TrackInput): TrackAnalysis {
     fitNote = 'no fit: the track does not change';
   } else if (tw.length < MIN_FIT_POINTS) {
     fitNote = lastTurn !== null
-      ? `no fit: only ${tw.length} snapshots follow the last turning point (model year ${yrs(t[lastTurn])}); a first-order fit needs ${MIN_FIT_POINTS}`
+      ? `no fit: only ${tw.length} snapshots from the last turning point (model year ${yrs(t[lastTurn])}) on; a first-order fit needs ${MIN_FIT_POINTS}`
       : `no fit: ${tw.length} snapshots; a first-order fit needs ${MIN_FIT_POINTS}`;
   } else {
     fit = describeFit(tw, xw, drift, thresholdPerKyr);

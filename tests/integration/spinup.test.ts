@@ -162,6 +162,14 @@ describe('stillwater spinup with --snapshots', () => {
     expect(o.years).toEqual([100, 200, 300]);
   });
 
+  it('replaces the recipe run’s snapshots and still scores them against the reference', () => {
+    const j = stillwater('--recipe', 'recipe.json', '--snapshots', 'year-0500.nc:500,year-1000.nc:1000,year-1500.nc:1500', '--out', 'out-override');
+    expect(j.code, j.stderr).toBe(0);
+    const saved: SpinupResult = JSON.parse(readFileSync(join(dir, 'out-override/spinup.json'), 'utf8'));
+    expect(saved.years).toEqual([500, 1000, 1500]);
+    expect([...new Set(saved.skill.map((p) => p.year))]).toEqual([500, 1000, 1500]);
+  });
+
   it('reads file:year lists', () => {
     const j = stillwater('--snapshots', 'year-0100.nc:100,year-0200.nc:200,year-0300.nc:300', '--variables', 'po4', '--out', 'out-list', '--json');
     expect(j.code, j.stderr).toBe(0);

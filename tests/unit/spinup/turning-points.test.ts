@@ -40,6 +40,16 @@ describe('non-monotonic trajectories', () => {
     expect(Math.abs(a.fit!.xInf / 2.2 - 1)).toBeLessThan(0.005);
   });
 
+  it('gives no fit, and says why, when fewer than four snapshots remain from the last turning point on', () => {
+    const t = years(10, 100);
+    const x = [1, 2, 3, 4, 5, 6, 7, 8, 7, 6];
+    const a = analyseTrack({ years: t, mean: x, inventory: x, units: 'mmol m-3', deep: false, thresholdPercentPerKyr: 0.1 });
+    expect(a.turningYears).toEqual([800]);
+    expect(a.fit).toBeNull();
+    expect(a.fitNote).toMatch(/only 3 snapshots from the last turning point \(model year 800\) on; a first-order fit needs 4/);
+    expect(a.verdict.status).toBe('drifting');
+  });
+
   it('does not flag a monotonic first-order series, with or without noise', () => {
     const t = years(30, 100);
     expect(turningPoints(firstOrderSeries(t, 1, 2, 600))).toEqual([]);
