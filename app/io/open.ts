@@ -2,14 +2,20 @@
  * One entry for every format we read: look at the first bytes, hand over to the reader.
  * The caller never names the format.
  */
-import { fileError } from '../errors.js';
+import { fileError, StillwaterError } from '../errors.js';
 import { FileSource, type ByteSource } from './byte-source.js';
 import { sniffMagic } from './magic.js';
 import { Netcdf3Dataset } from './netcdf3.js';
 import type { RawDataset } from './types.js';
 
 export async function openDataset(path: string): Promise<RawDataset> {
-  const source = await FileSource.open(path);
+  let source: FileSource;
+  try {
+    source = await FileSource.open(path);
+  } catch (e) {
+    if (e instanceof StillwaterError) throw e;
+    throw fileError('E_FILE', path, `cannot be opened for reading (${(e as NodeJS.ErrnoException).code ?? (e as Error).message}).`);
+  }
   try {
     return await openSource(source, path);
   } catch (e) {
