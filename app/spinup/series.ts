@@ -52,8 +52,8 @@ export async function globalRegion(grid: HorizontalGrid): Promise<Region[]> {
   return [{ name: 'global', source: 'built-in', cells: cellsWhere(grid.nx * grid.ny, () => true) }];
 }
 
-function missingVariable(s: SnapshotSpec, tracer: TracerSpec, detail: string): StillwaterError {
-  return new StillwaterError('E_VARIABLE', `${s.file}: the snapshot at model year ${s.year}${s.origin ? ` (${s.origin})` : ''} has no variable '${tracer.variable}' (${detail})`, {
+function missingVariable(s: SnapshotSpec, tracer: TracerSpec, held?: string): StillwaterError {
+  return new StillwaterError('E_VARIABLE', `${s.file}: the snapshot at model year ${s.year}${s.origin ? ` (${s.origin})` : ''} has no variable '${tracer.variable}'${held ? ` (${held})` : ''}.`, {
     file: s.file,
     variable: tracer.variable,
     path: s.origin,
@@ -64,7 +64,7 @@ async function openField(h: SnapshotHandle, s: SnapshotSpec, tracer: TracerSpec,
   try {
     return await h.field(tracer.variable, units);
   } catch (e) {
-    if (isStillwaterError(e) && e.code === 'E_VARIABLE') throw missingVariable(s, tracer, e.message);
+    if (isStillwaterError(e) && e.code === 'E_VARIABLE') throw missingVariable(s, tracer, /\((variables: [^)]*)\)/.exec(e.message)?.[1]);
     throw e;
   }
 }
@@ -147,7 +147,7 @@ export async function seriesSums(input: SeriesInput): Promise<SeriesSums> {
     try {
       for (let j = 0; j < tracers.length; j++) {
         if (i > 0 && j > 0 && h.has) {
-          if (!h.has(tracers[j].variable)) throw missingVariable(s, tracers[j], 'it is not in the file');
+          if (!h.has(tracers[j].variable)) throw missingVariable(s, tracers[j]);
           continue;
         }
         check(await openField(h, s, tracers[j], tracers[j].units), s, j);
