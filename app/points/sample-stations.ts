@@ -134,28 +134,13 @@ function makeQueue(st: StationPositions, axis: VerticalAxis, method: StationMeth
     const need = hi < nz - 1 ? hi : nz - 1;
     if (need > deepest) deepest = need;
   }
-  // within a level, neighbours next to each other (by 1° box), so that each level is read in runs
-  const box = new Int32Array(n);
-  const boxStart = new Int32Array(180 * 360 + 1);
-  for (let r = 0; r < n; r++) {
-    const j = Math.min(179, Math.max(0, Math.floor(st.lat[r] + 90)));
-    const i = ((Math.floor(st.lon[r] + 180) % 360) + 360) % 360;
-    box[r] = j * 360 + i;
-    boxStart[box[r] + 1]++;
-  }
-  for (let b = 0; b < 180 * 360; b++) boxStart[b + 1] += boxStart[b];
-  const byBox = new Int32Array(n);
-  for (let r = 0; r < n; r++) byBox[boxStart[box[r]]++] = r;
-  // then a stable counting sort by the deeper level; seafloor and below-grid stations (key nz) last
+  // a stable counting sort by the deeper level; seafloor and below-grid stations (key nz) last
   const start = new Int32Array(nz + 2);
   for (let r = 0; r < n; r++) start[key[r] + 1]++;
   for (let k = 0; k <= nz; k++) start[k + 1] += start[k];
   const fill = start.slice(0, nz + 1);
   const station = new Int32Array(n);
-  for (let i = 0; i < n; i++) {
-    const r = byBox[i];
-    station[fill[key[r]]++] = r;
-  }
+  for (let r = 0; r < n; r++) station[fill[key[r]]++] = r;
   // second pass, in queue order: weights of the two levels
   const single = new Uint8Array(n);
   const frac = new Float64Array(n);
@@ -323,25 +308,35 @@ export async function sampleStations(field: FieldSource, st: StationPositions, o
   }
 
   // statuses, and the seafloor of the own column where it explains one (a second pass over the
-  // levels above, only for the stations whose own column is dry at their depth)
-  const statusQ = new Array<StationStatus>(n);
-  const floorQ = new Float64Array(n).fill(NaN);
+  // levels above, only for the stations whose own column is dry at their depth); written straight
+  // back into the stations' own order
+  const model = new Float64Array(n);
+  const modelDepthM = new Float64Array(n);
+  const seafloorM = new Float64Array(n).fill(NaN);
+  const status = new Array<StationStatus>(n);
   const explain: number[] = [];
   let explainTo = -1;
   for (let q = 0; q < n; q++) {
+    const r = Q.station[q];
+    const v = out.value[q];
+    model[r] = v;
+    modelDepthM[r] = out.valueDepth[q];
     const o = out.ownAt[q];
     if (o < 0) {
-      statusQ[q] = 'outside_grid';
+      status[r] = 'outside_grid';
       continue;
+    }
+    if (v === v && out.ownOk[q]) {
+      status[r] = 'ok';
+      if (!Q.seafloor[q]) continue;
     }
     let anyWet = false;
     for (let p = rowPtr[q], e = rowPtr[q + 1]; p < e; p++) if (surfaceWet[p]) anyWet = true;
-    const v = out.value[q];
-    if (v === v) statusQ[q] = out.ownOk[q] ? 'ok' : 'from_neighbour';
-    else statusQ[q] = anyWet ? 'below_seafloor' : 'on_land';
-    if (!surfaceWet[o]) floorQ[q] = 0;
-    else if (Q.seafloor[q]) floorQ[q] = bottomK[o] >= 0 ? edges[bottomK[o] + 1] : 0;
-    else if (statusQ[q] === 'from_neighbour' || statusQ[q] === 'below_seafloor') {
+    if (v === v) status[r] = out.ownOk[q] ? 'ok' : 'from_neighbour';
+    else status[r] = anyWet ? 'below_seafloor' : 'on_land';
+    if (!surfaceWet[o]) seafloorM[r] = 0;
+    else if (Q.seafloor[q]) seafloorM[r] = bottomK[o] >= 0 ? edges[bottomK[o] + 1] : 0;
+    else {
       explain.push(q);
       explainTo = Math.max(explainTo, Math.min(Q.kLo[q], nz - 1));
     }
@@ -350,20 +345,7 @@ export async function sampleStations(field: FieldSource, st: StationPositions, o
     const k2 = new Int16Array(nnz).fill(-1);
     const v2 = new Float32Array(nnz);
     for (let k = 0; k <= explainTo; k++) trackBottom(await field.readLevel(t, k), k, explain, W, k2, v2);
-    for (const q of explain) floorQ[q] = k2[out.ownAt[q]] >= 0 ? edges[k2[out.ownAt[q]] + 1] : 0;
-  }
-
-  // back to the stations' own order
-  const model = new Float64Array(n);
-  const modelDepthM = new Float64Array(n);
-  const seafloorM = new Float64Array(n);
-  const status = new Array<StationStatus>(n);
-  for (let q = 0; q < n; q++) {
-    const r = Q.station[q];
-    model[r] = out.value[q];
-    modelDepthM[r] = out.valueDepth[q];
-    seafloorM[r] = floorQ[q];
-    status[r] = statusQ[q];
+    for (const q of explain) seafloorM[Q.station[q]] = k2[out.ownAt[q]] >= 0 ? edges[k2[out.ownAt[q]] + 1] : 0;
   }
   return { model, status, seafloorM, modelDepthM };
 }
