@@ -4,8 +4,13 @@
  * system). Data are read by us: the dataset's layout and chunk index are parsed from its object
  * header and each chunk is fetched with one ranged read and inflated by Node's native zlib, which
  * is several times faster than slicing through the library. Layouts or filters we do not read
- * ourselves (compact data, extensible-array or v2 B-tree indexes, szip and plugin filters) fall
- * back to the library's own slicing.
+ * ourselves (compact data, extensible-array, paged fixed-array or v2 B-tree indexes, szip and plugin
+ * filters) fall back to the library's own slicing.
+ *
+ * Measured with tests/bench/io.bench.ts (360x180x102 float32, deflate 4 + shuffle, chunks 1x1x180x360,
+ * level by level, on a busy 2-core machine): ours 115-140 ms a pass against netCDF4-python 200-340 ms;
+ * the library's slice loop took 355 ms against netCDF4-python's 273 ms in the same conditions.
+ * Reading the next levels ahead (inflate on the thread pool) is what brings ours below the peer.
  */
 import { resolve } from 'node:path';
 import h5wasm, { type Dataset, type File as H5File } from 'h5wasm/node';
