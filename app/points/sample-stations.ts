@@ -276,13 +276,14 @@ export async function sampleStations(field: FieldSource, st: StationPositions, o
   // the seafloor stations are a run of the queue's tail
   const floorRows: number[] = [];
   for (let q = Q.start[nz]; q < n; q++) if (Q.seafloor[q]) floorRows.push(q);
-  const surfaceWet = new Uint8Array(nnz);
+  // the surface level is kept, to tell land from seafloor for the few stations without a value
+  let surface: Float32Array = new Float32Array(0);
   const bottomK = new Int16Array(nnz).fill(-1);
   const bottomV = new Float32Array(floorRows.length ? nnz : 0).fill(NaN);
   let prev: Float32Array | null = null;
   for (let k = 0; k <= Q.lastLevel; k++) {
     const cur = await field.readLevel(t, k);
-    if (k === 0) for (let p = 0; p < nnz; p++) surfaceWet[p] = cur[col[p]] === cur[col[p]] ? 1 : 0;
+    if (k === 0) surface = cur;
     evaluate(Q, W, out, k, prev, cur, nearest);
     if (floorRows.length) trackBottom(cur, k, floorRows, W, bottomK, bottomV);
     prev = cur;
@@ -331,10 +332,10 @@ export async function sampleStations(field: FieldSource, st: StationPositions, o
       if (!Q.seafloor[q]) continue;
     }
     let anyWet = false;
-    for (let p = rowPtr[q], e = rowPtr[q + 1]; p < e; p++) if (surfaceWet[p]) anyWet = true;
+    for (let p = rowPtr[q], e = rowPtr[q + 1]; p < e; p++) if (surface[col[p]] === surface[col[p]]) anyWet = true;
     if (v === v) status[r] = out.ownOk[q] ? 'ok' : 'from_neighbour';
     else status[r] = anyWet ? 'below_seafloor' : 'on_land';
-    if (!surfaceWet[o]) seafloorM[r] = 0;
+    if (surface[col[o]] !== surface[col[o]]) seafloorM[r] = 0;
     else if (Q.seafloor[q]) seafloorM[r] = bottomK[o] >= 0 ? edges[bottomK[o] + 1] : 0;
     else {
       explain.push(q);
