@@ -1,12 +1,12 @@
 import { fmt, fmtSigned, years } from './format.js';
-import type { SpinupResult } from './types.js';
+import type { SpinupResult, SpinupTrack } from './types.js';
 
 /**
- * The compact verdict table the command prints: one line per tracer x region x layer.
+ * The full verdict table (--full-table): one line per tracer x region x layer.
  * Marks: ~ non-monotonic (fit after the last turning point), ! deep layer of a run shorter than a few
  * thousand years, ? fit not constrained (the tail still looks straight).
  */
-export function verdictTable(r: SpinupResult): string {
+export function fullVerdictTable(r: SpinupResult): string {
   const rows = r.tracks.map((t) => [
     t.tracer,
     t.region,
@@ -35,5 +35,55 @@ export function verdictTable(r: SpinupResult): string {
   if (r.tracks.some((t) => t.verdict.deepCaution)) marks.push('! deep ocean of a run shorter than a few thousand years: not settled whatever the drift says (England 1995)');
   if (r.tracks.some((t) => t.fit && !t.fit.constrained)) marks.push('? the fit cannot place x_inf yet');
   if (marks.length) lines.push('', ...marks);
+  return lines.join('\n');
+}
+
+/**
+ * The compact verdict table the command prints: drift in per cent of the mean per 1000 years, one row per
+ * tracer and layer, one column per region, each value marked settled (.) or drifting (*), then one line per
+ * tracer for the whole ocean and column with the fit. Details are in spinup.csv and spinup.json.
+ */
+export function verdictTable(r: SpinupResult): string {
+  const mark = (t: SpinupTrack): string =>
+    (t.verdict.status === 'settled' ? '.' : t.verdict.status === 'drifting' ? '*' : '?') + (t.monotonic ? '' : '~') + (t.verdict.deepCaution ? '!' : '');
+  const cell = (t: SpinupTrack | undefined): string => {
+    if (!t) return '';
+    const p = t.drift?.percentPerKyr;
+    return `${p == null ? '-' : Math.abs(p) < 0.005 ? '0' : fmtSigned(p, 2)} ${mark(t).padEnd(3)}`;
+  };
+  const tracers = [...new Set(r.tracks.map((t) => t.tracer))];
+  const layers = [...new Set(r.tracks.map((t) => t.layer))];
+  const find = (tracer: string, region: string, layer: string) => r.tracks.find((t) => t.tracer === tracer && t.region === region && t.layer === layer);
+  const head = ['tracer', 'layer', ...r.regions];
+  const rows = tracers.flatMap((tr) => layers.map((l) => [tr, l, ...r.regions.map((g) => cell(find(tr, g, l)))]));
+  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((row) => row[i].length)));
+  const line = (cells: string[]): string => cells.map((c, i) => (i < 2 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('  ').trimEnd();
+  const whole = r.layers[0];
+  const fits = tracers.map((tr) => {
+    const t = find(tr, r.regions[0], whole);
+    if (!t) return '';
+    const f = t.fit;
+    const fitText = !f
+      ? t.fitNote
+      : !f.constrained
+        ? 'the fit cannot place its end yet (the tail still looks straight)'
+        : `heading for ${fmt(f.xInf, 4)} ${t.units}, τ ${years(f.tau)} yr` +
+          (t.verdict.status === 'drifting' ? (f.yearsToSettle == null ? ', time to settle not estimable' : `, about ${years(f.yearsToSettle)} more years to settle`) : '');
+    return `  ${tr}: ${t.verdict.status}${t.drift?.percentPerKyr != null ? ` (${fmtSigned(t.drift.percentPerKyr)} %/kyr)` : ''}; ${fitText}`;
+  });
+  const lines = [
+    r.summary.sentence,
+    `Snapshots: ${r.years.length}, model years ${years(r.years[0])}–${years(r.years[r.years.length - 1])}. Drift over the tail in % of the mean per 1000 years; settled below ${fmt(r.settings.thresholdPercentPerKyr)}.`,
+    '',
+    line(head),
+    ...rows.map(line),
+    '',
+    '. settled  * still drifting  ? undetermined',
+    ...(r.tracks.some((t) => !t.monotonic) ? ['~ overshoots and turns back (fitted after the last turning point)'] : []),
+    ...(r.tracks.some((t) => t.verdict.deepCaution) ? ['! deep ocean of a run shorter than a few thousand years: not settled whatever the drift says (England 1995; common practice)'] : []),
+    '',
+    `${r.regions[0]}, ${whole}:`,
+    ...fits.filter((f) => f.length > 0),
+  ];
   return lines.join('\n');
 }

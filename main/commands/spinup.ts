@@ -3,7 +3,7 @@ import { StillwaterError } from '../../app/errors.js';
 import { loadRecipe } from '../../app/recipe/index.js';
 import { spinupFromFiles, spinupFromRecipe } from '../../app/spinup/run-spinup.js';
 import { parseSnapshotOption } from '../../app/spinup/snapshot-list.js';
-import { verdictTable } from '../../app/spinup/verdict-table.js';
+import { fullVerdictTable, verdictTable } from '../../app/spinup/verdict-table.js';
 import { writeSpinupOutputs } from '../../app/spinup/write-output.js';
 import type { SpinupResult } from '../../app/spinup/types.js';
 import { allowOnly, optional, optionalNumber, parseArgs, required } from '../args.js';
@@ -30,6 +30,7 @@ with skill, DIR/spinup-skill.csv; prints a verdict table.
                          series, at least 3 snapshots)
   --density 1025         nominal seawater density for amounts per kg, kg m-3 (default: the recipe's, else 1025)
   --no-skill             do not score the snapshots against the reference
+  --full-table           print one line per tracer x region x layer with the fit, instead of the compact table
   --out DIR              output folder (created if needed)
   --json                 print spinup.json's summary and verdicts on stdout`;
 
@@ -43,8 +44,8 @@ export const spinupCommand: Command = {
   summary: 'drift, approach to equilibrium and skill over a spin-up',
   usage,
   async run(argv: string[]): Promise<number> {
-    const args = parseArgs(argv, ['json', 'no-skill']);
-    allowOnly(args, 'spinup', ['recipe', 'run', 'snapshots', 'variables', 'threshold', 'tail-years', 'density', 'no-skill', 'out', 'json']);
+    const args = parseArgs(argv, ['json', 'no-skill', 'full-table']);
+    allowOnly(args, 'spinup', ['recipe', 'run', 'snapshots', 'variables', 'threshold', 'tail-years', 'density', 'no-skill', 'full-table', 'out', 'json']);
     const outDir = resolve(required(args, 'out'));
     const recipePath = optional(args, 'recipe');
     const snapshotText = optional(args, 'snapshots');
@@ -91,7 +92,7 @@ export const spinupCommand: Command = {
       }));
       out(JSON.stringify({ summary: result.summary, years: result.years, verdicts, notes: result.notes, files }, null, 1));
     } else {
-      out(verdictTable(result));
+      out(args.switches.has('full-table') ? fullVerdictTable(result) : verdictTable(result));
       for (const note of result.notes) err(`note: ${note}`);
       for (const f of files) err(`wrote ${f}`);
     }

@@ -72,7 +72,9 @@ describe('stillwater spinup on a recipe', () => {
 
   it('exits 0, prints the verdict table and writes spinup.json, spinup.csv and spinup-skill.csv', () => {
     expect(run.code, run.stderr).toBe(0);
-    expect(run.stdout).toMatch(/tracer\s+region\s+layer\s+verdict/);
+    // compact: tracer x layer rows, region columns, drift marked settled (.) or drifting (*)
+    expect(run.stdout).toMatch(/tracer\s+layer\s+global\n/);
+    expect(run.stdout).toMatch(/\nPO4\s+all\s+[-+]?[\d.]+ [.*][~!]*\n/);
     expect(readdirSync(join(dir, 'out')).sort()).toEqual(['spinup-skill.csv', 'spinup.csv', 'spinup.json']);
     const csv = readFileSync(join(dir, 'out/spinup.csv'), 'utf8').trim().split('\n');
     expect(csv).toHaveLength(r.tracks.length + 1);
@@ -151,6 +153,9 @@ describe('stillwater spinup on a recipe', () => {
     expect(saved.settings.thresholdPercentPerKyr).toBe(0.5);
     expect(saved.tracks[0].drift!.fromYear).toBe(1500);
     expect(saved.skill).toEqual([]);
+    const full = stillwater('--recipe', 'recipe.json', '--variables', 'PO4', '--out', 'out-json', '--no-skill', '--full-table');
+    expect(full.stdout).toMatch(/tracer\s+region\s+layer\s+verdict/);
+    expect(full.stdout.trim().split('\n').filter((l) => l.startsWith('PO4 '))).toHaveLength(3);
   });
 });
 
