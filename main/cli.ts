@@ -9,11 +9,13 @@ import { lineCommand } from './commands/line.js';
 import { pointsCommand } from './commands/points.js';
 import { serveCommand, startCommand } from './commands/serve.js';
 import { makeDemoCommand } from './commands/make-demo.js';
+import { mergeCommand } from './commands/merge.js';
 
 const commands: Command[] = [
   inspectCommand,
   regridCommand,
   compareCommand,
+  mergeCommand,
   spinupCommand,
   lineCommand,
   pointsCommand,

@@ -17,3 +17,12 @@ export function packageRoot(): string {
 export function sampleDataDir(): string {
   return join(packageRoot(), 'sample-data');
 }
+
+/** The version in package.json, for provenance. */
+export function toolVersion(): string {
+  try {
+    return (JSON.parse(readFileSync(join(packageRoot(), 'package.json'), 'utf8')) as { version: string }).version;
+  } catch {
+    return 'unknown';
+  }
+}

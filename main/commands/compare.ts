@@ -1,5 +1,4 @@
-import { readFileSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { resolve } from 'node:path';
 import { runComparison, type ComparisonResult } from '../../app/compare/run.js';
 import { layerLabel } from '../../app/regions/layers.js';
 import { loadRecipe } from '../../app/recipe/load.js';
@@ -12,15 +11,7 @@ import { writeSkillTables } from '../../app/report/write.js';
 import { allowOnly, optional, parseArgs, required } from '../args.js';
 import type { Command } from '../command.js';
 import { err, out } from '../command.js';
-import { packageRoot } from '../paths.js';
-
-function toolVersion(): string {
-  try {
-    return (JSON.parse(readFileSync(join(packageRoot(), 'package.json'), 'utf8')) as { version: string }).version;
-  } catch {
-    return 'unknown';
-  }
-}
+import { toolVersion } from '../paths.js';
 
 /** A one-line bar redrawn in place; only when stderr is a terminal. */
 function progressBar(): { update(f: number, msg: string): void; done(): void } {
