@@ -5,6 +5,18 @@ import type { LayerSpec } from '../regions/layers.js';
  * Spin-up analysis: what it takes and what it returns. The output types are the contract with the
  * workbench views (renderer/views) and with spinup.json; extra fields are welcome, renames are not.
  *
+ * Services (app/services/spinup.ts), all with input { recipe, baseDir, run?, ... } like compare.run:
+ * - 'spinup.run' (heavy)      -> SpinupResult: tracks (series, drift, fit, verdict), skill per snapshot, summary
+ *                               options: variables?: string[], threshold?: number, tailYears?: number, skill?: boolean
+ * - 'spinup.verdict' (heavy)  -> SpinupSummary | null (null: the run lists no snapshots; no banner)
+ * - 'spinup.open' { path }    -> SpinupResult read from a spinup.json written by `stillwater spinup`
+ * Results are cached on disk by request and file times, so asking again is cheap.
+ *
+ * Recipe: runs[i].snapshots = [{ file, year? }], model years strictly increasing. A snapshot without a year
+ * takes it from the file's CF time axis (one snapshot per time step). Tracers are the run's variables (same
+ * in-file names as in runs[i].variables) that the first snapshot holds, or those named; regions and layers
+ * are the recipe's, with the whole column ("all") always first.
+ *
  * Words used throughout:
  * - snapshot: the state of one run at one model year (one file, or one time step of a file);
  * - track: one tracer x region x layer followed over all snapshots;
