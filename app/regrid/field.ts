@@ -24,7 +24,10 @@ export interface RegriddedField extends FieldSource {
   verticalMethod: 'overlap' | 'linear' | 'none';
   weights: SparseWeights;
   weightOrigin: 'memory' | 'disk' | 'built';
-  /** covered fraction (0..1) of each target cell in the most recently read level k */
+  /**
+   * covered fraction (0..1) of each target cell in the most recently read level k (kept for the last
+   * few levels read; copy it to keep it longer, or use readLevelWithCoverage, whose arrays are yours)
+   */
   coverage(k: number): Float32Array;
   readLevelWithCoverage(t: number, k: number): Promise<{ values: Float32Array; coverage: Float32Array }>;
   /** source values read so far, and how many of them were valid */
@@ -74,9 +77,9 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
   const rule = { threshold, normalise };
   const stats = { sourceValues: 0, sourceValid: 0 };
   const levels = new LevelCache(src, 4);
-  const lastCoverage = new Map<number, Float32Array>();
+  const lastCoverage = new Map<number, { data: Float32Array; recyclable: boolean }>();
 
-  async function readOne(t: number, k: number): Promise<{ values: Float32Array; coverage: Float32Array }> {
+  async function readOne(t: number, k: number, ownCoverage: boolean): Promise<{ values: Float32Array; coverage: Float32Array }> {
     if (!(k >= 0 && k < vw.nz)) throw new StillwaterError('E_INPUT', `${where}: level ${k} is outside the target's ${vw.nz} levels.`, subject);
     const p0 = vw.start[k], p1 = vw.start[k + 1];
     if (p0 === p1) {
@@ -92,18 +95,35 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
       }
     }
     const values = new Float32Array(nTgt);
-    const coverage = new Float32Array(nTgt);
+    const coverage = ownCoverage ? new Float32Array(nTgt) : coverageBuffer(k);
     remapLevel(weights, rowRef, vw.ref[k], n, d, rule, values, coverage, scratch);
     lastCoverage.delete(k);
-    lastCoverage.set(k, coverage);
+    lastCoverage.set(k, { data: coverage, recyclable: !ownCoverage });
     if (lastCoverage.size > 4) lastCoverage.delete(lastCoverage.keys().next().value as number);
     return { values, coverage };
   }
 
+  /**
+   * A coverage buffer for readLevel, which hands out only values: the oldest of the last few levels'
+   * buffers is reused (coverage(k) arrays are valid until a few more levels are read), so reading
+   * level after level allocates one array a level, not two.
+   */
+  function coverageBuffer(k: number): Float32Array {
+    const own = lastCoverage.get(k);
+    if (own?.recyclable) return own.data;
+    if (lastCoverage.size >= 4) {
+      const oldest = lastCoverage.keys().next().value as number;
+      const e = lastCoverage.get(oldest)!;
+      lastCoverage.delete(oldest);
+      if (e.recyclable) return e.data;
+    }
+    return new Float32Array(nTgt);
+  }
+
   // the work buffers are shared, so levels are computed one after another even when asked for at once
   let queue: Promise<unknown> = Promise.resolve();
-  function readLevelWithCoverage(t: number, k: number): Promise<{ values: Float32Array; coverage: Float32Array }> {
-    const next = queue.then(() => readOne(t, k));
+  function queued(t: number, k: number, ownCoverage: boolean): Promise<{ values: Float32Array; coverage: Float32Array }> {
+    const next = queue.then(() => readOne(t, k, ownCoverage));
     queue = next.catch(() => undefined);
     return next;
   }
@@ -123,13 +143,13 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
     weightOrigin: origin,
     stats,
     async readLevel(t: number, k: number): Promise<Float32Array> {
-      return (await readLevelWithCoverage(t, k)).values;
+      return (await queued(t, k, false)).values;
     },
-    readLevelWithCoverage,
+    readLevelWithCoverage: (t: number, k: number) => queued(t, k, true),
     coverage(k: number): Float32Array {
       const c = lastCoverage.get(k);
       if (!c) throw new StillwaterError('E_INTERNAL', `coverage of level ${k} is asked for before that level was read.`);
-      return c;
+      return c.data;
     },
   };
 }

