@@ -11,6 +11,7 @@ import { openField } from '../../app/cf/open-field.js';
 import { readLevelAt, timeIndex } from '../../app/compare/read-level.js';
 import { loadRecipe } from '../../app/recipe/index.js';
 import { regridField } from '../../app/regrid/field.js';
+import { gswDensity } from '../unit/render/gsw.js';
 import { SAMPLE_DATA, canRunBrowser, openWorkbench, type Workbench } from './harness.js';
 
 const SLOW = 240_000;
@@ -96,8 +97,8 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     });
 
     // the data layer, read here on its own: the reference on its grid (the common grid of the demo), the run
-    // regridded conservatively onto it, then mmol m-3 to umol kg-1 with the nominal density 1025 kg m-3
-    // (umol kg-1 = mmol m-3 × 1000 / ρ; common practice)
+    // regridded conservatively onto it, then mmol m-3 to umol kg-1 (umol kg-1 = mmol m-3 × 1000 / ρ; common
+    // practice) with ρ by TEOS-10 (python3-gsw) from the reference's temperature and salinity, as the recipe asks
     const recipe = await loadRecipe(join(SAMPLE_DATA, 'demo-recipe.json'));
     const k = Number(layer.slice(2));
     const refSpec = recipe.reference.variables.PO4;
@@ -110,11 +111,18 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     const c = j * ref.grid.horizontal.nx + i;
     expect(shown.cell).toBe(c);
     const refValue = (await readLevelAt(ref, timeIndex(ref, refSpec.time), k))[c];
-    const runValue = ((await readLevelAt(run, timeIndex(run, runSpec.time), k))[c] * 1000) / recipe.options.nominalDensity;
+    const tSpec = recipe.reference.variables.T;
+    const sSpec = recipe.reference.variables.S;
+    const t = (await readLevelAt(await openField(tSpec.file, tSpec.name), 0, k))[c];
+    const s = (await readLevelAt(await openField(sSpec.file, sSpec.name), 0, k))[c];
+    const [rho] = gswDensity([[t, s, ref.grid.vertical!.centres[k], ref.grid.horizontal.lon[c], ref.grid.horizontal.lat[c]]]);
+    const runValue = ((await readLevelAt(run, timeIndex(run, runSpec.time), k))[c] * 1000) / rho;
     expect(Number.isFinite(refValue)).toBe(true);
     expect(shown.reference).toBeCloseTo(refValue, 5);
-    expect(Math.abs(shown.model - runValue)).toBeLessThan(1e-5 * Math.abs(runValue) + 1e-6);
-    expect(Math.abs(shown.difference - (runValue - refValue))).toBeLessThan(1e-5 * Math.abs(runValue) + 1e-6);
+    // within the 5e-4 that separates the app's TEOS-10 density (Absolute Salinity from the reference composition,
+    // pressure at 45° latitude) from gsw's (with the Absolute Salinity anomaly, pressure at the cell's latitude)
+    expect(shown.model / runValue).toBeCloseTo(1, 3);
+    expect(Math.abs(shown.difference - (shown.model - shown.reference))).toBeLessThan(1e-6);
     // cell volume = cell area × layer thickness
     const v = ref.grid.vertical!;
     expect(shown.volume / (ref.grid.horizontal.area[c] * v.thickness[k])).toBeCloseTo(1, 6);
