@@ -25,8 +25,11 @@ export interface SampledLine {
 }
 
 export const DEFAULT_SPACING_KM = 50;
-/** More samples than this is almost certainly a typo in the spacing. */
-const MAX_SAMPLES = 5_000_000;
+/**
+ * More samples than this is almost certainly a typo in the spacing (and the section files would run to
+ * gigabytes): 10 000 samples is a 5 000 km line every 500 m.
+ */
+export const MAX_SAMPLES = 10_000;
 
 export function checkSpacing(spacingKm: number): void {
   if (!(spacingKm > 0) || !Number.isFinite(spacingKm)) {
@@ -36,7 +39,7 @@ export function checkSpacing(spacingKm: number): void {
 
 function checkCount(n: number, spacingKm: number): void {
   if (n > MAX_SAMPLES) {
-    throw new StillwaterError('E_INPUT', `A spacing of ${spacingKm} km gives ${Math.round(n)} samples along this line; choose a larger spacing.`);
+    throw new StillwaterError('E_INPUT', `--spacing-km ${spacingKm} gives ${Math.round(n)} samples along this line, more than the ${MAX_SAMPLES} a line may have; choose a larger spacing.`);
   }
 }
 

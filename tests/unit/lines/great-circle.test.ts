@@ -107,6 +107,10 @@ describe('bad lines are refused with one clear sentence', () => {
   it('antipodal waypoints', () => {
     expect(() => sampleGreatCircles([{ lon: 0, lat: 0 }, { lon: 180, lat: 0 }])).toThrow(/antipodal/);
   });
+  it('a spacing so small that the line would have more than 10 000 samples', () => {
+    expect(() => sampleGreatCircles([{ lon: 0, lat: 0 }, { lon: 1, lat: 1 }], 0.0001)).toThrow(/--spacing-km 0\.0001 gives 1572\d\d\d samples along this line, more than the 10000/);
+    expect(() => sampleParallel(0, -180, 180, 0.001)).toThrow(/more than the 10000/);
+  });
   it('a line of zero length and a spacing that is not positive', () => {
     expect(() => sampleGreatCircles([{ lon: 5, lat: 5 }, { lon: 5, lat: 5 }])).toThrow(/no length/);
     expect(() => sampleGreatCircles([{ lon: 5, lat: 5 }, { lon: 6, lat: 5 }], 0)).toThrow(/--spacing-km must be a positive number/);
