@@ -39,20 +39,24 @@ const BAR_SPACE = 104;
 export function mapPlotRect(projection: MapProjection, width: number, maxHeight?: number): Rect {
   const e = projection.extent;
   const aspect = (e.ymax - e.ymin) / (e.xmax - e.xmin);
-  let pw = width - 16 - BAR_SPACE;
+  // the equirectangular map carries longitude and latitude ticks: room for them left and below
+  const left = projection.info.id === 'plate' ? 44 : 12;
+  const below = projection.info.id === 'plate' ? 34 : 16;
+  let pw = width - left - 4 - BAR_SPACE;
   let ph = pw * aspect;
-  if (maxHeight && TOP + ph + 16 > maxHeight) {
-    ph = Math.max(120, maxHeight - TOP - 16);
+  if (maxHeight && TOP + ph + below > maxHeight) {
+    ph = Math.max(120, maxHeight - TOP - below);
     pw = ph / aspect;
   }
-  return { x: 12, y: TOP, w: Math.round(pw), h: Math.round(ph) };
+  return { x: left, y: TOP, w: Math.round(pw), h: Math.round(ph) };
 }
 
 export function mapFigure(spec: MapFigureSpec): MapFigure {
   const e = spec.projection.extent;
   const plot = mapPlotRect(spec.projection, spec.width, spec.maxHeight);
   const ph = plot.h;
-  const height = TOP + ph + 16;
+  const plate = spec.projection.info.id === 'plate';
+  const height = TOP + ph + (plate ? 34 : 16);
   const svg = figureRoot(spec.width, height, `${spec.title}. ${spec.subtitle}`);
   title(svg, 12, 18, spec.title, spec.subtitle);
 
@@ -82,6 +86,20 @@ export function mapFigure(spec: MapFigureSpec): MapFigure {
   svg.append(coast);
 
   svg.append(s('path', { d: outlinePath(spec.projection, toFigure), fill: 'none', stroke: INK, 'stroke-width': 0.9 }));
+  if (plate) {
+    const ticks = s('g', { 'font-size': 11, fill: INK });
+    for (let lon = -180; lon <= 180; lon += 60) {
+      const [x] = toFigure(spec.projection.forward(Math.max(-179.9999, Math.min(179.9999, lon)), 0)![0], 0);
+      ticks.append(s('line', { x1: x, x2: x, y1: plot.y + ph, y2: plot.y + ph + 4, stroke: INK }));
+      ticks.append(s('text', { x, y: plot.y + ph + 16, 'text-anchor': 'middle' }, lon === 0 ? '0°' : `${Math.abs(lon)}°${lon < 0 ? 'W' : 'E'}`));
+    }
+    for (let lat = -90; lat <= 90; lat += 30) {
+      const [, y] = toFigure(0, spec.projection.forward(0, Math.max(-89.9999, Math.min(89.9999, lat)))![1]);
+      ticks.append(s('line', { x1: plot.x - 4, x2: plot.x, y1: y, y2: y, stroke: INK }));
+      ticks.append(s('text', { x: plot.x - 6, y: y + 4, 'text-anchor': 'end' }, lat === 0 ? '0°' : `${Math.abs(lat)}°${lat < 0 ? 'S' : 'N'}`));
+    }
+    svg.append(ticks);
+  }
   const overlay = s('g', { class: 'overlay' });
   svg.append(overlay);
 
