@@ -11,6 +11,9 @@ import { checkSlab } from './slab.js';
 import { contiguousStrides, readStrided } from './strided-read.js';
 import type { Attributes, DatasetFormat, RawArray, RawDataset, RawDimension, RawVariable } from './types.js';
 
+/** Slabs up to this size are read through the staging buffer; larger ones straight into the result. */
+const STAGING_LIMIT = 16 * 1024 * 1024;
+
 const FORMATS: Record<1 | 2 | 5, DatasetFormat> = { 1: 'netcdf3-classic', 2: 'netcdf3-64bit-offset', 5: 'netcdf3-cdf5' };
 
 export class Netcdf3Dataset implements RawDataset {
@@ -19,6 +22,8 @@ export class Netcdf3Dataset implements RawDataset {
   readonly attrs: Attributes;
   readonly variables: RawVariable[];
   private readonly byName = new Map<string, Cdf3Variable>();
+  /** reused for every read up to STAGING_LIMIT bytes (one level of a large grid) */
+  private staging: Uint8Array | undefined;
 
   private constructor(readonly path: string, private readonly source: ByteSource, private readonly header: Cdf3Header) {
     this.format = FORMATS[header.version];
@@ -58,14 +63,40 @@ export class Netcdf3Dataset implements RawDataset {
     if (!v) throw fileError('E_VARIABLE', this.path, `there is no variable '${name}'.`, name);
     const { s, c } = checkSlab(this.path, v, start, count);
     const size = DTYPE_SIZE[v.dtype];
-    // every byte is overwritten by the read below
+    // every byte is overwritten below
     const out = allocArrayForOverwrite(v.dtype, c.reduce((a, b) => a * b, 1));
     const bytes = new Uint8Array(out.buffer, out.byteOffset, out.byteLength);
     const strides = contiguousStrides(v.shape, size);
     if (v.isRecord) strides[0] = this.header.recsize;
-    await readStrided(this.source, { base: v.begin, elementSize: size, shape: v.shape, strides }, s, c, bytes);
+    const layout = { base: v.begin, elementSize: size, shape: v.shape, strides };
+    const staging = bytes.byteLength <= STAGING_LIMIT ? this.takeStaging(bytes.byteLength) : undefined;
+    if (staging) {
+      // Read into memory already mapped by an earlier read, then copy: on the VMs we measured, letting the
+      // kernel fill never-touched pages and then touching them to swap costs more than this one copy.
+      try {
+        await readStrided(this.source, layout, s, c, staging);
+        bytes.set(staging);
+      } finally {
+        this.giveBackStaging(staging);
+      }
+    } else {
+      await readStrided(this.source, layout, s, c, bytes);
+    }
     bigEndianToHost(bytes, size);
     return out;
+  }
+
+  /** The staging buffer (grown to `n` bytes), taken out while in use so that overlapping reads never share it. */
+  private takeStaging(n: number): Uint8Array {
+    let buf = this.staging;
+    this.staging = undefined;
+    if (!buf || buf.byteLength < n) buf = new Uint8Array(Buffer.allocUnsafeSlow(n).buffer);
+    return buf.subarray(0, n);
+  }
+
+  private giveBackStaging(view: Uint8Array): void {
+    const whole = new Uint8Array(view.buffer);
+    if (!this.staging || this.staging.byteLength < whole.byteLength) this.staging = whole;
   }
 
   async close(): Promise<void> {
