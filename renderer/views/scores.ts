@@ -5,6 +5,7 @@ import type { TableFormat } from '../../app/render/view-types.js';
 import { getSkill, getTable } from '../data.js';
 import { fmt, h, saveBlob } from '../dom.js';
 import { state, type AppState } from '../state.js';
+import { spinupBanner } from './spinup.js';
 import { errorText, note, type ViewFactory } from './view.js';
 
 const COLUMNS: { key: keyof SkillRow; label: string; text?: boolean; title: string }[] = [
@@ -30,7 +31,9 @@ export const scoresView: ViewFactory = (el) => {
   const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Table options' });
   const wrap = h('div', { class: 'scores-table-wrap' });
   const count = h('span', { class: 'toolbar-hint', id: 'scores-count' });
-  el.append(toolbar, wrap);
+  // whether the scored runs have settled: filled in the background, never holding up the table
+  const settling = h('div', { class: 'scores-spinup-banner', id: 'scores-spinup-banner', role: 'status' });
+  el.append(toolbar, settling, wrap);
   let result: ComparisonResult | null = null;
   let sortKey: keyof SkillRow = 'run';
   let sortUp = true;
@@ -104,7 +107,8 @@ export const scoresView: ViewFactory = (el) => {
   const all = h('input', { type: 'checkbox', id: 'scores-all-variables' });
   all.addEventListener('change', () => {
     onlyVariable = !all.checked;
-    drawTable();
+    result = null;
+    void draw(state);
   });
   const exports = h('div', { class: 'row', role: 'group', 'aria-label': 'Export the table' }, h('span', { class: 'toolbar-label' }, 'Export'));
   for (const [f, label] of [
@@ -122,9 +126,10 @@ export const scoresView: ViewFactory = (el) => {
   const draw = async (st: AppState): Promise<void> => {
     if (!st.session) return note(wrap, 'Open a recipe to see its scores.');
     const my = ++token;
-    if (!result) note(wrap, 'Computing the skill rows of the whole recipe (this runs in the background)…', 'busy');
+    if (!settling.childElementCount) spinupBanner(settling, st);
+    if (!result) note(wrap, onlyVariable ? `Computing the skill rows of ${st.sel.variable} (this runs in the background)…` : 'Computing the skill rows of every variable (this runs in the background)…', 'busy');
     try {
-      const r = await getSkill(st.session.session);
+      const r = await getSkill(st.session.session, onlyVariable ? st.sel.variable : null);
       if (my !== token) return;
       result = r;
     } catch (e) {
@@ -136,7 +141,10 @@ export const scoresView: ViewFactory = (el) => {
   return {
     update(st, changed) {
       if (changed.size === 1 && changed.has('probe')) return;
-      if (changed.has('session')) result = null;
+      if (changed.has('session')) {
+        result = null;
+        settling.replaceChildren();
+      }
       void draw(st);
     },
     dispose() {
