@@ -68,10 +68,10 @@ export const diagramView: ViewFactory = (el) => {
     const my = ++token;
     if (!result) {
       drawToolbar(st);
-      note(stage, 'Computing the skill rows of the whole recipe (this runs in the background)…', 'busy');
+      note(stage, `Computing the skill rows of ${st.sel.variable} (this runs in the background)…`, 'busy');
     }
     try {
-      const r = await getSkill(session.session);
+      const r = await getSkill(session.session, st.sel.variable);
       if (my !== token) return;
       result = r;
     } catch (e) {
@@ -90,7 +90,7 @@ export const diagramView: ViewFactory = (el) => {
   return {
     update(st, changed) {
       if (changed.size === 1 && changed.has('probe')) return;
-      if (changed.has('session')) result = null;
+      if (changed.has('session') || changed.has('variable')) result = null;
       void draw(st);
     },
     async figure() {
