@@ -7,7 +7,7 @@ import type { SkillPoint, SpinupResult, SpinupSummary, SpinupTrack } from '../..
 import { tracked, sessionRecipe } from '../data.js';
 import { fmt, h, s } from '../dom.js';
 import { logLinePanel, yearDomain, type LineSeries } from '../plot/log-lines.js';
-import { figureRoot, INK, MUTED, RUN_COLOURS, text, title, type Rect } from '../plot/svg-parts.js';
+import { figureRoot, MUTED, RUN_COLOURS, text, title, type Rect } from '../plot/svg-parts.js';
 import { state, type AppState } from '../state.js';
 import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
 
@@ -117,7 +117,8 @@ function spinupFigure(r: SpinupResult, c: Choice, width: number): SVGSVGElement 
   if (skillPanels.length) {
     svg.append(s('line', { x1: 12, x2: width - 12, y1: skillTop - 10, y2: skillTop - 10, stroke: '#e3e6ea' }));
     svg.append(text(12, skillTop + 8, `Skill of ${c.skillTracer} against the reference, layer ${c.layer}`, { 'font-size': 13, 'font-weight': 600 }));
-    svg.append(text(12, skillTop + 24, `Each snapshot compared as the scores view compares a run; colour: region (${c.regions.filter((g) => skillSeries(r, c, 'rmse').some((sr) => sr.label.endsWith(`, ${g}`))).join(', ') || 'none'}).`, { 'font-size': 11.5, fill: MUTED }));
+    const shown = skillSeries(r, c, skillPanels[0]).map((sr) => sr.label.slice(c.skillTracer.length + 2));
+    svg.append(text(12, skillTop + 24, `Each snapshot scored as the scores view scores a run; colour: region as above (${shown.join(', ')}).`, { 'font-size': 11.5, fill: MUTED }));
     const units = r.skill.find((p) => p.variable === c.skillTracer)?.units ?? '';
     const gap = 78;
     const w = (width - left - 24 - gap * (skillPanels.length - 1)) / skillPanels.length;
@@ -128,7 +129,6 @@ function spinupFigure(r: SpinupResult, c: Choice, width: number): SVGSVGElement 
     });
   }
   svg.append(s('desc', {}, `Colour: region; dash pattern: tracer. Deviation = value minus the value at model year ${first}.`));
-  svg.querySelectorAll('text').forEach((t) => t.getAttribute('fill') || t.setAttribute('fill', INK));
   return svg;
 }
 
