@@ -55,6 +55,15 @@ function fusedSums(
     // (measured about a fifth faster than one)
     let a = 0, b = 0;
     const e = rowPtr[r + 1];
+    if (e - p === 4) {
+      // the common row of lat-lon pairs (2 x 2 overlaps) in one step, summed in the same order as the
+      // loop below, so results are bit for bit the same (measured about a sixth faster per level)
+      const s0 = col[p], s1 = col[p + 1], s2 = col[p + 2], s3 = col[p + 3];
+      const w0 = w[p], w1 = w[p + 1], w2 = w[p + 2], w3 = w[p + 3];
+      a = 0 + (w0 * n[s0] + w1 * n[s1]) + (w2 * n[s2] + w3 * n[s3]);
+      b = 0 + (w0 * d[s0] + w1 * d[s1]) + (w2 * d[s2] + w3 * d[s3]);
+      p = e;
+    }
     for (; p + 1 < e; p += 2) {
       const s0 = col[p], s1 = col[p + 1];
       const w0 = w[p], w1 = w[p + 1];
