@@ -15,7 +15,7 @@ type Quantity = 'mean' | 'inventory';
 const DASHES = ['', '7 3', '2 2.5', '9 3 2 3', '4 4', '1 3'];
 const X_LABEL = 'Model year (log scale)';
 
-interface Choice {
+export interface Choice {
   run: string;
   quantity: Quantity;
   relative: boolean;
@@ -66,7 +66,8 @@ function skillSeries(r: SpinupResult, c: Choice, key: 'rmse' | 'bias' | 'corr'):
 /** A legend of line samples (colour = region, dash = tracer), in as many columns as the height allows. */
 function lineLegend(svg: SVGElement, x: number, y: number, maxH: number, colW: number, items: { label: string; colour: string; dash: string }[]): void {
   const g = s('g', { class: 'legend' });
-  g.append(text(x, y, 'Lines (colour: region; dash: tracer)', { 'font-size': 11.5, 'font-weight': 600 }));
+  g.append(text(x, y, 'Lines', { 'font-size': 11.5, 'font-weight': 600 }));
+  g.append(text(x + 40, y, 'colour: region, dash: tracer', { 'font-size': 10.5, fill: MUTED }));
   const rows = Math.max(1, Math.floor((maxH - 16) / 17));
   items.forEach((it, i) => {
     const cx = x + Math.floor(i / rows) * colW;
@@ -77,19 +78,19 @@ function lineLegend(svg: SVGElement, x: number, y: number, maxH: number, colW: n
   svg.append(g);
 }
 
-function spinupFigure(r: SpinupResult, c: Choice, width: number): SVGSVGElement {
+export function spinupFigure(r: SpinupResult, c: Choice, width: number): SVGSVGElement {
   const tracks = chosenTracks(r, c);
   const what = c.quantity === 'mean' ? 'mean' : 'inventory';
-  // absolute deviations share a panel only when they share units
+  // absolute deviations: a panel per tracer (its own units and scale); relative ones share a panel
   const groups = new Map<string, SpinupTrack[]>();
   for (const t of tracks) {
-    const key = c.relative ? '%' : c.quantity === 'mean' ? t.units : t.inventoryUnits;
+    const key = c.relative ? '%' : t.tracer;
     groups.set(key, [...(groups.get(key) ?? []), t]);
   }
   const legendW = width >= 900 ? 230 : 190;
   const left = 84;
   const panelW = width - left - legendW - 28;
-  const panelH = width >= 900 ? 230 : 200;
+  const panelH = width >= 900 ? 210 : 190;
   const panelGap = 74;
   const skillPanels = (['rmse', 'bias', 'corr'] as const).filter((k) => skillSeries(r, c, k).length);
   const top = 66;
@@ -103,9 +104,10 @@ function spinupFigure(r: SpinupResult, c: Choice, width: number): SVGSVGElement 
   const domain = yearDomain(r.years);
   if (!groups.size) svg.append(text(left, top + 40, 'Choose at least one tracer and one region.', { fill: MUTED }));
   let y = top;
-  for (const [units, ts] of groups) {
+  for (const ts of groups.values()) {
     const rect: Rect = { x: left, y: y + 16, w: panelW, h: panelH - 16 };
-    const names = [...new Set(ts.map((t) => t.tracer))].join(', ');
+    const units = c.quantity === 'mean' ? ts[0].units : ts[0].inventoryUnits;
+    const names = c.relative ? [...new Set(ts.map((t) => t.tracer))].join(', ') : `${ts[0].tracer} (${units})`;
     svg.append(text(rect.x, y + 10, names, { 'font-size': 12, 'font-weight': 600 }));
     const yLabel = c.relative ? `Deviation (% of ${what} at year ${first})` : `${c.quantity === 'mean' ? 'Mean' : 'Inventory'} deviation (${units})`;
     const series = ts.map((t) => ({ xs: r.years, ys: deviation(t, c), colour: colourOf(r, t.region), dash: dashOf(r, t.tracer), label: `${t.tracer}, ${t.region}` }));
@@ -120,11 +122,11 @@ function spinupFigure(r: SpinupResult, c: Choice, width: number): SVGSVGElement 
     const shown = skillSeries(r, c, skillPanels[0]).map((sr) => sr.label.slice(c.skillTracer.length + 2));
     svg.append(text(12, skillTop + 24, `Each snapshot scored as the scores view scores a run; colour: region as above (${shown.join(', ')}).`, { 'font-size': 11.5, fill: MUTED }));
     const units = r.skill.find((p) => p.variable === c.skillTracer)?.units ?? '';
-    const gap = 78;
+    const gap = 96;
     const w = (width - left - 24 - gap * (skillPanels.length - 1)) / skillPanels.length;
     skillPanels.forEach((k, i) => {
       const rect: Rect = { x: left + i * (w + gap), y: skillTop + 52, w, h: 170 };
-      const label = k === 'rmse' ? `RMSE (${units})` : k === 'bias' ? `Bias, model − reference (${units})` : 'Correlation r (dimensionless)';
+      const label = k === 'rmse' ? `RMSE (${units})` : k === 'bias' ? `Bias (${units})` : 'Correlation r (dimensionless)';
       logLinePanel(svg, rect, domain, skillSeries(r, c, k), X_LABEL, label, { zeroLine: k === 'bias', yTicks: 4 });
     });
   }
