@@ -23,7 +23,6 @@ export interface Choice {
   tracers: string[];
   regions: string[];
   skillTracer: string;
-  skillRegion: string;
 }
 
 /** Degrees Celsius are compared in kelvin, as the drift rates are (a zero that is not a zero of amount). */
@@ -190,7 +189,7 @@ export const spinupView: ViewFactory = (el) => {
   let sortKey: SortKey = 'percent';
   let sortUp = false;
   let allTracks = false;
-  const c: Choice = { run: '', quantity: 'mean', relative: false, layer: 'all', tracers: [], regions: [], skillTracer: '', skillRegion: '' };
+  const c: Choice = { run: '', quantity: 'mean', relative: false, layer: 'all', tracers: [], regions: [], skillTracer: '' };
 
   const redraw = (): void => {
     if (result) render(result);
@@ -200,7 +199,10 @@ export const spinupView: ViewFactory = (el) => {
     const g = h('div', { class: 'segmented', role: 'group', 'aria-label': label, id });
     for (const [v, text] of options) {
       const b = h('button', { type: 'button', 'aria-pressed': String(v === value), 'data-value': v }, text);
-      b.addEventListener('click', () => onPick(v));
+      b.addEventListener('click', () => {
+        for (const o of g.querySelectorAll('button')) o.setAttribute('aria-pressed', String(o === b));
+        onPick(v);
+      });
       g.append(b);
     }
     return h('span', { class: 'row' }, h('span', { class: 'toolbar-label' }, label), g);
@@ -260,7 +262,11 @@ export const spinupView: ViewFactory = (el) => {
     pickers.replaceChildren(
       checkboxes('Tracers', 'spinup-tracers', tracerNames, c.tracers, (v) => {
         c.tracers = v;
-        if (v.length && !v.includes(c.skillTracer) && r.skill.some((p) => p.variable === v[0])) c.skillTracer = v[0];
+        if (v.length && !v.includes(c.skillTracer) && r.skill.some((p) => p.variable === v[0])) {
+          c.skillTracer = v[0];
+          const skillSelect = toolbar.querySelector<HTMLSelectElement>('#spinup-skill-tracer');
+          if (skillSelect) skillSelect.value = v[0];
+        }
         redraw();
       }),
       checkboxes('Regions', 'spinup-regions', r.regions, c.regions, (v) => {
