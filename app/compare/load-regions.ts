@@ -43,8 +43,12 @@ async function loadMaskRegions(file: string, variable: string, grid: HorizontalG
   }
   const table = flagTable(attrs.flag_values, attrs.flag_meanings, file, variable);
   const field = await openField(file, variable);
-  const values = await field.readLevel(0, 0);
-  return regionsFromFlags(values, field.grid.horizontal, table, grid, file, flags);
+  try {
+    const values = await field.readLevel(0, 0);
+    return regionsFromFlags(values, field.grid.horizontal, table, grid, file, flags);
+  } finally {
+    await field.close?.();
+  }
 }
 
 /** Run `f`, putting the recipe path in front of a bad-input sentence. */
