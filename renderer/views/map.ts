@@ -14,6 +14,7 @@ import { coastlines, coastlinesIfReady } from '../plot/coast.js';
 import { mapFigure, mapPlotRect, type MapFigure } from '../plot/map-figure.js';
 import { choose, currentVariable, setProbe, state, type AppState } from '../state.js';
 import { EXPORT_WIDTH, errorText, note, type ViewFactory, type ViewHandle } from './view.js';
+import { stationsOverlay } from './stations.js';
 
 const MISSING = packRgba(200, 200, 196);
 const BACKGROUND = packRgba(255, 255, 255, 0);
@@ -137,7 +138,10 @@ export function mapView(difference: boolean): ViewFactory {
     let figKey = '';
     let canvas: HTMLCanvasElement | null = null;
     let probeMark: SVGGElement | null = null;
+    let stationsMark: SVGGElement | null = null;
     let token = 0;
+    // station observations on the field's colour scale (lines and points part); not on the difference map
+    const stations = difference ? null : stationsOverlay(() => void draw(state, new Set(['stations'])));
 
     // toolbar: which field (Map view only), colour range
     const fieldButtons: HTMLButtonElement[] = [];
@@ -169,6 +173,7 @@ export function mapView(difference: boolean): ViewFactory {
     toolbar.append(h('span', { class: 'toolbar-label' }, 'Colour range'), minIn, h('span', { class: 'toolbar-sep' }, 'to'), maxIn, auto);
     const hint = h('span', { class: 'toolbar-hint' }, 'Move over the map to probe; click to pin.');
     toolbar.append(hint);
+    if (stations) toolbar.append(stations.control);
 
     const drawProbe = (): void => {
       if (!fig || !probeMark) return;
@@ -268,7 +273,8 @@ export function mapView(difference: boolean): ViewFactory {
         canvas.style.height = `${fig.plot.h}px`;
         canvas.dataset.projection = proj.info.id;
         probeMark = s('g', { class: 'probe-mark', 'pointer-events': 'none' });
-        fig.overlay.append(probeMark);
+        stationsMark = s('g', { class: 'stations-mark', 'pointer-events': 'none' });
+        fig.overlay.append(stationsMark, probeMark);
         // the SVG lies above the canvas but lets the pointer through to it
         fig.svg.style.pointerEvents = 'none';
         const wrap = h('div', { class: 'figure-wrap', style: `width:${width}px;height:${fig.svg.getAttribute('height')}px` }, canvas, fig.svg);
@@ -285,6 +291,13 @@ export function mapView(difference: boolean): ViewFactory {
         performance.mark('map-first-draw');
       }
       stage.dataset.drawn = `${data.variable}|${data.run}|${data.layer.id}|${st.sel.projection}|${difference ? 'diff' : st.sel.mapField}`;
+      if (stations && stationsMark && fig) {
+        const f = fig;
+        stations.draw(stationsMark, st, (lon, lat) => {
+          const q = proj.forward(lon, lat);
+          return q ? f.toFigure(q[0], q[1]) : null;
+        }, choice.diverging ? DIVERGING : SEQUENTIAL, choice.min, choice.max);
+      }
       drawProbe();
     };
 
@@ -292,6 +305,7 @@ export function mapView(difference: boolean): ViewFactory {
       update(st, changed) {
         if (changed.size === 1 && changed.has('probe')) {
           drawProbe();
+          if (stations && st.probe && st.sel.run) stations.showProbe(st.probe.lon, st.probe.lat, st.sel.run);
           return;
         }
         void draw(st, changed);

@@ -17,6 +17,8 @@ export interface StationsOverlay {
   draw(g: SVGGElement, st: AppState, project: (lon: number, lat: number) => [number, number] | null, scale: ColourScale, min: number, max: number): void;
   /** a line for the probe: the nearest station within `km` of the point, or null */
   probeText(lon: number, lat: number, run: string, km?: number): string | null;
+  /** show the probe's nearest station (observed and modelled values) beside the control */
+  showProbe(lon: number, lat: number, run: string): void;
 }
 
 const RAD = Math.PI / 180;
@@ -49,6 +51,7 @@ export function stationsOverlay(onChange: () => void): StationsOverlay {
     const session = st.session;
     if (!session || !st.sel.variable || !path.value.trim()) {
       status.textContent = 'Type the path of a station CSV file.';
+      lastState = st;
       return;
     }
     const my = ++token;
@@ -62,14 +65,16 @@ export function stationsOverlay(onChange: () => void): StationsOverlay {
       if (my !== token) return;
       data = r;
       const left = r.problems.length;
-      status.textContent = `${r.stations.id.length} stations (${r.units})${left ? `, ${left} not sampled by every source` : ''}`;
+      summary = `${r.stations.id.length} stations (${r.units})${left ? `, ${left} not sampled by every source` : ''}`;
+      status.textContent = summary;
       onChange();
     } catch (e) {
       if (my === token) status.textContent = e instanceof Error ? e.message : String(e);
     }
   }
 
-  return {
+  let summary = '';
+  const overlay: StationsOverlay = {
     control,
     draw(g, st, project, scale, min, max) {
       lastState = st;
@@ -104,5 +109,10 @@ export function stationsOverlay(onChange: () => void): StationsOverlay {
       const depth = stn.seafloor[best] ? 'seafloor' : `${stn.depth[best]} m`;
       return `station ${stn.id[best]} (${depth}): observed ${stn.value[best]} ${data.units}, ${source.label} ${Number.isFinite(m) ? m.toPrecision(4) : source.status[best].replace('_', ' ')}`;
     },
+    showProbe(lon, lat, run) {
+      if (!data) return;
+      status.textContent = overlay.probeText(lon, lat, run) ?? summary;
+    },
   };
+  return overlay;
 }
