@@ -98,7 +98,8 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
 
     // the data layer, read here on its own: the reference on its grid (the common grid of the demo), the run
     // regridded conservatively onto it, then mmol m-3 to umol kg-1 (umol kg-1 = mmol m-3 × 1000 / ρ; common
-    // practice) with ρ by TEOS-10 (python3-gsw) from the reference's temperature and salinity, as the recipe asks
+    // practice) with the recipe's density: its nominal value, or TEOS-10 (python3-gsw) from the reference's
+    // temperature and salinity
     const recipe = await loadRecipe(join(SAMPLE_DATA, 'demo-recipe.json'));
     const k = Number(layer.slice(2));
     const refSpec = recipe.reference.variables.PO4;
@@ -115,7 +116,7 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     const sSpec = recipe.reference.variables.S;
     const t = (await readLevelAt(await openField(tSpec.file, tSpec.name), 0, k))[c];
     const s = (await readLevelAt(await openField(sSpec.file, sSpec.name), 0, k))[c];
-    const [rho] = gswDensity([[t, s, ref.grid.vertical!.centres[k], ref.grid.horizontal.lon[c], ref.grid.horizontal.lat[c]]]);
+    const [rho] = recipe.options.density === 'nominal' ? [recipe.options.nominalDensity] : gswDensity([[t, s, ref.grid.vertical!.centres[k], ref.grid.horizontal.lon[c], ref.grid.horizontal.lat[c]]]);
     const runValue = ((await readLevelAt(run, timeIndex(run, runSpec.time), k))[c] * 1000) / rho;
     expect(Number.isFinite(refValue)).toBe(true);
     expect(shown.reference).toBeCloseTo(refValue, 5);

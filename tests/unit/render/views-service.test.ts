@@ -1,8 +1,8 @@
 // The view services on the demo scenario, held against the data layer read independently: the reference as
 // openField reads it, each run through regridField onto the reference grid, and the unit conversion of
-// common practice (umol kg-1 = mmol m-3 × 1000 / ρ) with ρ from the reference's temperature and salinity as the
-// demo recipe asks, checked against TEOS-10 by python3-gsw (tests/fixtures/render/gsw_density.py). Also the
-// bad-input paths.
+// common practice (umol kg-1 = mmol m-3 × 1000 / ρ) with the density the demo recipe asks for: its nominal value,
+// or ρ from the reference's temperature and salinity checked against TEOS-10 by python3-gsw
+// (tests/fixtures/render/gsw_density.py). Also the bad-input paths.
 import { existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve, sep } from 'node:path';
@@ -53,6 +53,7 @@ beforeAll(async () => {
   await ensureDemo(SAMPLE);
   info = await call<SessionInfo>('view.open', { recipe: RECIPE });
   const recipe = await loadRecipe(RECIPE);
+  nominal = recipe.options.density === 'nominal' ? recipe.options.nominalDensity : null;
   const r = recipe.reference.variables.PO4;
   const m = recipe.runs[0].variables.PO4;
   ref = await openField(r.file, r.name);
@@ -65,7 +66,11 @@ afterAll(() => rmSync(work, { recursive: true, force: true }));
 /** Cells of the 1° grid in open ocean: (row, column) = (70, 30) is 19.5° S 149.5° W; (120, 330) is 30.5° N 149.5° E. */
 const OCEAN = [70 * 360 + 30, 120 * 360 + 330, 50 * 360 + 160];
 
+/** The density the recipe asks for: its nominal value, or TEOS-10 from the reference's temperature and salinity. */
+let nominal: number | null = null;
+
 async function density(k: number, cells: number[]): Promise<number[]> {
+  if (nominal !== null) return cells.map(() => nominal!);
   const t = await readLevelAt(refT, 0, k);
   const sal = await readLevelAt(refS, 0, k);
   const h = ref.grid.horizontal;
@@ -127,7 +132,7 @@ describe('view.level', () => {
       const sk = (await readLevelAt(refS, 0, k))[c];
       rows.push({ w, m: (await readLevelAt(run, 0, k))[c], r: (await readLevelAt(ref, 0, k))[c], gsw: [tk, sk, v.centres[k], ref.grid.horizontal.lon[c], ref.grid.horizontal.lat[c]] });
     }
-    const rhos = gswDensity(rows.map((x) => x.gsw));
+    const rhos = nominal !== null ? rows.map(() => nominal!) : gswDensity(rows.map((x) => x.gsw));
     let sm = 0;
     let sr = 0;
     let sw = 0;
