@@ -311,13 +311,16 @@ export const spinupView: ViewFactory = (el) => {
       const f = t.fit;
       const needed = t.verdict.status === 'settled' ? '0' : f?.yearsToSettle !== null && f?.yearsToSettle !== undefined ? String(Math.round(f.yearsToSettle)) : '–';
       const verdict = h('td', { class: `text verdict ${t.verdict.status}`, title: `${t.verdict.sentence} ${t.fitNote}`.trim(), 'data-status': t.verdict.status }, STATUS_TEXT[t.verdict.status]);
-      if (!t.monotonic) verdict.append(h('span', { class: 'verdict-note' }, `non-monotonic: turns back at model year ${t.turningYears.join(', ')}; ${t.fitNote}`));
-      if (t.verdict.deepCaution) verdict.append(h('span', { class: 'verdict-note' }, 'the run may be too short for the deep ocean'));
-      if (f && !f.constrained) verdict.append(h('span', { class: 'verdict-note' }, 'fit not constrained: x∞ and τ are lower bounds at best'));
+      // notes go on a line of their own under the track, so that the columns stay narrow
+      const notes: string[] = [];
+      if (!t.monotonic) notes.push(`non-monotonic: turns back at model year ${t.turningYears.join(', ')}; ${t.fitNote}`);
+      if (t.verdict.deepCaution) notes.push('the run may be too short for the deep ocean');
+      if (f && !f.constrained) notes.push('fit not constrained: x∞ and τ are lower bounds at best');
+      if (!t.monotonic) verdict.append(h('span', { class: 'verdict-flag' }, ', non-monotonic'));
       body.append(
         h(
           'tr',
-          {},
+          { class: 'track-row' },
           h('td', { class: 'text' }, t.tracer),
           h('td', { class: 'text' }, t.region),
           h('td', { class: 'text' }, t.layer),
@@ -330,6 +333,7 @@ export const spinupView: ViewFactory = (el) => {
           verdict,
         ),
       );
+      if (notes.length) body.append(h('tr', { class: 'verdict-note-row' }, h('td', { colspan: TABLE_COLUMNS.length, class: 'text verdict-note' }, `${t.tracer}, ${t.region}, ${t.layer}: ${notes.join('; ')}.`)));
     }
     const all = h('input', { type: 'checkbox', id: 'spinup-all-tracks' });
     all.checked = allTracks;

@@ -88,7 +88,7 @@ describe.skipIf(!canRunBrowser)('spin-up view in Chromium', () => {
     expect(text).toMatch(/RMSE \([^)]+\)/);
     expect(text).toContain('Correlation r (dimensionless)');
     expect(await page.locator('.view-spinup svg g.log-axis').count()).toBeGreaterThanOrEqual(3);
-    const rows = await page.locator('#spinup-table tbody tr').count();
+    const rows = await page.locator('#spinup-table tbody tr.track-row').count();
     // PO4 and O2 × global and atlantic × five layers
     expect(rows).toBe(2 * 2 * 5);
     const statuses = await page.$$eval('#spinup-table td.verdict', (tds) => tds.map((t) => t.getAttribute('data-status')));
@@ -96,11 +96,12 @@ describe.skipIf(!canRunBrowser)('spin-up view in Chromium', () => {
     expect(statuses).toContain('drifting');
     // the demo's O2 overshoots: the table says so
     expect(await page.textContent('#spinup-table')).toContain('non-monotonic');
+    expect(await page.locator('#spinup-table tr.verdict-note-row').count()).toBeGreaterThan(0);
     // sorted by the size of the relative drift, largest first
-    const pct = await page.$$eval('#spinup-table tbody td:nth-child(5)', (tds) => tds.map((t) => Math.abs(parseFloat(t.textContent ?? ''))).filter(Number.isFinite));
+    const pct = await page.$$eval('#spinup-table tbody tr.track-row td:nth-child(5)', (tds) => tds.map((t) => Math.abs(parseFloat(t.textContent ?? ''))).filter(Number.isFinite));
     expect(pct).toEqual([...pct].sort((a, b) => b - a));
     await page.click('#spinup-table th:nth-child(5) button');
-    const up = await page.$$eval('#spinup-table tbody td:nth-child(5)', (tds) => tds.map((t) => Math.abs(parseFloat(t.textContent ?? ''))).filter(Number.isFinite));
+    const up = await page.$$eval('#spinup-table tbody tr.track-row td:nth-child(5)', (tds) => tds.map((t) => Math.abs(parseFloat(t.textContent ?? ''))).filter(Number.isFinite));
     expect(up).toEqual([...up].sort((a, b) => a - b));
     await page.click('#spinup-table th:nth-child(5) button');
     await wb.shot('view-spinup-full', { fullPage: false });
