@@ -316,7 +316,7 @@ export const spinupView: ViewFactory = (el) => {
       if (!t.monotonic) notes.push(`non-monotonic: turns back at model year ${t.turningYears.join(', ')}; ${t.fitNote}`);
       if (t.verdict.deepCaution) notes.push('the run may be too short for the deep ocean');
       if (f && !f.constrained) notes.push('fit not constrained: x∞ and τ are lower bounds at best');
-      if (!t.monotonic) verdict.append(h('span', { class: 'verdict-flag' }, ', non-monotonic'));
+      if (notes.length) verdict.append(h('span', { class: 'verdict-flag' }, ' *'));
       body.append(
         h(
           'tr',
