@@ -8,9 +8,8 @@
  * filters) fall back to the library's own slicing.
  *
  * Measured with tests/bench/io.bench.ts (360x180x102 float32, deflate 4 + shuffle, chunks 1x1x180x360,
- * level by level, on a busy 2-core machine): ours 115-140 ms a pass against netCDF4-python 200-340 ms;
- * the library's slice loop took 355 ms against netCDF4-python's 273 ms in the same conditions.
- * Reading the next levels ahead (inflate on the thread pool) is what brings ours below the peer.
+ * level by level, idle 2-core machine): ours 50-60 ms a pass against netCDF4-python 67 ms; the library's
+ * slice loop was about 1.3x netCDF4-python. Reading ahead on the thread pool is off (see chunked-read.ts).
  */
 import { resolve } from 'node:path';
 import h5wasm, { type Dataset, type File as H5File } from 'h5wasm/node';
