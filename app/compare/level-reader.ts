@@ -5,11 +5,11 @@
  */
 import type { FieldSource } from '../cf/field.js';
 import { openField } from '../cf/open-field.js';
-import type { ParsedUnits } from '../cf/units.js';
+import { parseUnits, type ParsedUnits } from '../cf/units.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid } from '../grid/types.js';
 import { evaluateExpression, parseExpression } from '../ocean/expression.js';
-import type { SourceSpec, VariableSource } from '../recipe/types.js';
+import type { Recipe, SourceSpec, VariableSource } from '../recipe/types.js';
 import { regridField } from '../regrid/field.js';
 import type { RecipeOptions } from '../recipe/schema.js';
 import { sameGrid } from './common-grid.js';
@@ -33,6 +33,29 @@ export interface ReaderContext {
   densityNote: string;
   /** every file opened, for provenance */
   noteFile(path: string): void;
+}
+
+/**
+ * The units a reference variable is compared in: the recipe's choice (options.units), else the reference
+ * file's own. Cached per recipe key, so each file is opened for its units once.
+ */
+export function referenceUnitsOf(recipe: Recipe): (key: string) => Promise<ParsedUnits> {
+  const cache = new Map<string, Promise<ParsedUnits>>();
+  return (key) => {
+    let p = cache.get(key);
+    if (!p) {
+      const wanted = recipe.options.units[key];
+      p = wanted
+        ? prefixed(`options.units.${key}`, async () => parseUnits(wanted))
+        : openSpec(recipe.reference.variables[key]).then(async (f) => {
+            await f.close?.();
+            return f.units;
+          });
+      cache.set(key, p);
+      p.catch(() => cache.delete(key));
+    }
+    return p;
+  };
 }
 
 export async function openSpec(spec: VariableSource): Promise<FieldSource> {

@@ -18,7 +18,7 @@ import { PairAccumulator } from './accumulate.js';
 import { commonGridFor, sameHorizontal } from './common-grid.js';
 import { densityProvider } from './density.js';
 import type { FieldSinkFactory, LevelSink } from './field-sink.js';
-import { derivedReader, onGrid, openSpec, plainReader, type LevelReader, type ReaderContext } from './level-reader.js';
+import { derivedReader, onGrid, openSpec, plainReader, referenceUnitsOf, type LevelReader, type ReaderContext } from './level-reader.js';
 import { loadRegions, prefixed } from './load-regions.js';
 import { makeRow, type SkillRow } from './rows.js';
 
@@ -77,22 +77,8 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
   };
   const costTerms = recipe.runs.map(() => [] as { variable: string; rmse: number | null; refMean: number | null }[]);
   const regionCache: { grid: Grid; regions: Region[] }[] = [];
-  const unitsCache = new Map<string, ParsedUnits>();
   /** the table units of a reference variable: the recipe's choice, or the reference file's */
-  const referenceUnits = async (key: string): Promise<ParsedUnits> => {
-    const cached = unitsCache.get(key);
-    if (cached) return cached;
-    const wanted = recipe.options.units[key];
-    let u: ParsedUnits;
-    if (wanted) u = await prefixed(`options.units.${key}`, async () => parseUnits(wanted));
-    else {
-      const f = await openSpec(recipe.reference.variables[key]);
-      u = f.units;
-      await f.close?.();
-    }
-    unitsCache.set(key, u);
-    return u;
-  };
+  const referenceUnits = referenceUnitsOf(recipe);
 
   for (let vi = 0; vi < recipe.variables.length; vi++) {
     if (opts.signal?.aborted) throw new StillwaterError('E_CANCELLED', 'The comparison was cancelled.');

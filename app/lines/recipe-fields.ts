@@ -8,7 +8,7 @@ import type { FieldSource } from '../cf/field.js';
 import { parseUnits, type ParsedUnits } from '../cf/units.js';
 import { commonGridFor } from '../compare/common-grid.js';
 import { densityProvider, type DensityProvider } from '../compare/density.js';
-import { derivedReader, onGrid, openSpec, plainReader, type LevelReader, type ReaderContext } from '../compare/level-reader.js';
+import { derivedReader, onGrid, openSpec, plainReader, referenceUnitsOf, type LevelReader, type ReaderContext } from '../compare/level-reader.js';
 import { prefixed } from '../compare/load-regions.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid } from '../grid/types.js';
@@ -76,13 +76,7 @@ export async function prepareFields(recipe: Recipe, variable: string, opts: Prep
     closers.push(() => density.close());
     const notes: string[] = [];
     const ctx: ReaderContext = { grid, options: recipe.options, cacheDir: opts.cacheDir, densityNote: density.note, noteFile: () => undefined };
-    const unitsOf = async (key: string): Promise<ParsedUnits> => {
-      const wanted = recipe.options.units[key];
-      if (wanted) return prefixed(`options.units.${key}`, async () => parseUnits(wanted));
-      const f = await openSpec(recipe.reference.variables[key]);
-      await f.close?.();
-      return f.units;
-    };
+    const unitsOf = referenceUnitsOf(recipe);
     let units: ParsedUnits;
     if (opts.units) units = opts.units;
     else if (derived) units = await prefixed(`options.derived.${variable}.units`, async () => parseUnits(derived.units));

@@ -11,7 +11,7 @@ import { z } from 'zod';
 import { parseUnits, type ParsedUnits } from '../cf/units.js';
 import { commonGridFor } from '../compare/common-grid.js';
 import { densityProvider, type DensityProvider } from '../compare/density.js';
-import { derivedReader, onGrid, openSpec, plainReader, type LevelReader, type ReaderContext } from '../compare/level-reader.js';
+import { derivedReader, onGrid, openSpec, plainReader, referenceUnitsOf, type LevelReader, type ReaderContext } from '../compare/level-reader.js';
 import { loadRegions, prefixed } from '../compare/load-regions.js';
 import type { ComparisonResult } from '../compare/run.js';
 import { skillCsv, skillJson, skillLatex, skillMarkdown, type Provenance } from '../report/index.js';
@@ -288,13 +288,7 @@ async function openPair(s: Session, variable: string): Promise<Pair> {
   if (!refSpec && !derived) throw new StillwaterError('E_INPUT', `The reference has no variable '${variable}'.`, { variable });
   const density = densityProvider(recipe, grid, async (spec) => onGrid(await openSpec(spec), spec, { grid, options: recipe.options, cacheDir: s.cacheDir }));
   const ctx: ReaderContext = { grid, options: recipe.options, cacheDir: s.cacheDir, densityNote: density.note, noteFile: () => undefined };
-  const unitsOf = async (key: string): Promise<ParsedUnits> => {
-    const wanted = recipe.options.units[key];
-    if (wanted) return prefixed(`options.units.${key}`, async () => parseUnits(wanted));
-    const f = await openSpec(recipe.reference.variables[key]);
-    await f.close?.();
-    return f.units;
-  };
+  const unitsOf = referenceUnitsOf(recipe);
   let target: ParsedUnits;
   let reference: LevelReader;
   const runs = new Map<string, () => Promise<LevelReader>>();
