@@ -2,6 +2,7 @@
  * Copy a box of `count` elements from one C-ordered byte array into another, one contiguous
  * run at a time (whole inner dimensions merge into longer runs).
  */
+import { contiguousStrides } from '../strided-read.js';
 export function copyBox(
   src: Uint8Array, srcShape: number[], srcStart: number[],
   dst: Uint8Array, dstShape: number[], dstStart: number[],
@@ -13,8 +14,8 @@ export function copyBox(
     return;
   }
   if (count.some((c) => c === 0)) return;
-  const srcStrides = strides(srcShape, elementSize);
-  const dstStrides = strides(dstShape, elementSize);
+  const srcStrides = contiguousStrides(srcShape, elementSize);
+  const dstStrides = contiguousStrides(dstShape, elementSize);
   // merge inner dimensions that are whole in both arrays
   let k = rank - 1;
   let run = count[k] * elementSize;
@@ -48,14 +49,4 @@ export function copyBox(
       idx[d] = 0;
     }
   }
-}
-
-function strides(shape: number[], elementSize: number): number[] {
-  const s = new Array<number>(shape.length);
-  let step = elementSize;
-  for (let i = shape.length - 1; i >= 0; i--) {
-    s[i] = step;
-    step *= shape[i];
-  }
-  return s;
 }
