@@ -4,7 +4,7 @@ import tseslint from 'typescript-eslint';
 import globals from 'globals';
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'node_modules/**', 'tests/e2e/screenshots/**', 'tests/fixtures/**/*.nc', 'coverage/**'] },
+  { ignores: ['dist/**', 'node_modules/**', 'tests/e2e/screenshots/**', 'tests/fixtures/**/*.nc', 'coverage/**', '**/*.as.ts'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

@@ -17,10 +17,38 @@ export interface AxisOverlap {
  * cells is R² × (longitude overlap in radians, periodic) × (overlap in sin latitude).
  */
 export function conservativeRectilinear(source: HorizontalGrid, target: HorizontalGrid, radius = EARTH_RADIUS_M): SparseWeights {
+  return expandSeparable(separableWeights(source, target, radius));
+}
+
+/**
+ * The same weights kept as their two 1-D factors: w[(jt, it), (js, is)] = lat[jt → js] · lon[it → is].
+ * Applied as two passes (app/regrid/separable-level.ts) they do the work of the full matrix without
+ * its index gathers; building them takes well under a millisecond, so they are never cached.
+ */
+export interface SeparableWeights {
+  lon: AxisOverlap;
+  /** overlap in sin latitude, already multiplied by R² */
+  lat: AxisOverlap;
+  srcNx: number;
+  srcNy: number;
+  tgtNx: number;
+  tgtNy: number;
+  /** entries of the equivalent full matrix */
+  entries: number;
+}
+
+export function separableWeights(source: HorizontalGrid, target: HorizontalGrid, radius = EARTH_RADIUS_M): SeparableWeights {
   const { lon, lat } = separableFactors(source, target);
-  const snx = source.nx, tnx = target.nx, tny = target.ny;
+  const r2 = radius * radius;
+  const scaled = { start: lat.start, src: lat.src, len: lat.len.map((x) => x * r2) };
+  const entries = (lat.start[target.ny] - lat.start[0]) * (lon.start[target.nx] - lon.start[0]);
+  return { lon, lat: scaled, srcNx: source.nx, srcNy: source.ny, tgtNx: target.nx, tgtNy: target.ny, entries };
+}
+
+/** The full matrix of factored weights: each target cell's entries are (its source rows) x (its source columns). */
+export function expandSeparable(w: SeparableWeights): SparseWeights {
+  const { lon, lat, srcNx: snx, tgtNx: tnx, tgtNy: tny } = w;
   const nRows = tnx * tny;
-  // each target cell's entries are (its source rows) x (its source columns): the CSR is filled directly
   const rowPtr = new Int32Array(nRows + 1);
   for (let j = 0; j < tny; j++) {
     const nLat = lat.start[j + 1] - lat.start[j];
@@ -28,22 +56,20 @@ export function conservativeRectilinear(source: HorizontalGrid, target: Horizont
   }
   for (let r = 0; r < nRows; r++) rowPtr[r + 1] += rowPtr[r];
   const col = new Int32Array(rowPtr[nRows]);
-  const w = new Float64Array(rowPtr[nRows]);
-  const r2 = radius * radius;
+  const wt = new Float64Array(rowPtr[nRows]);
   for (let j = 0; j < tny; j++) {
     for (let i = 0; i < tnx; i++) {
       let q = rowPtr[j * tnx + i];
       for (let p = lat.start[j]; p < lat.start[j + 1]; p++) {
-        const base = lat.src[p] * snx;
-        const ds = lat.len[p] * r2;
+        const base = lat.src[p] * snx, ds = lat.len[p];
         for (let m = lon.start[i]; m < lon.start[i + 1]; m++) {
           col[q] = base + lon.src[m];
-          w[q++] = ds * lon.len[m];
+          wt[q++] = ds * lon.len[m];
         }
       }
     }
   }
-  return { method: 'conservative', nRows, nCols: snx * source.ny, rowPtr, col, w };
+  return { method: 'conservative', nRows, nCols: snx * w.srcNy, rowPtr, col, w: wt };
 }
 
 /** The weights as two factors, one per axis: w[(jt, it), (js, is)] = R² · lat[jt → js] · lon[it → is]. */

@@ -2,10 +2,12 @@ import type { FieldSource } from '../cf/field.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid, HorizontalGrid } from '../grid/types.js';
 import { rowSums, type RemapMethod, type SparseWeights } from './csr.js';
-import { remapLevel } from './remap-level.js';
+import { separableWeights, type SeparableWeights } from './conservative-rectilinear.js';
+import { inverse, MatrixLevel, type LevelEngine } from './remap-level.js';
+import { SeparableLevel } from './separable-level.js';
 import { identityWeights, layerOverlapWeights, linearDepthWeights, type VerticalWeights } from './vertical-weights.js';
 import { defaultCacheDir } from './weight-cache.js';
-import { remapWeights } from './weights.js';
+import { isLatLon, remapWeights } from './weights.js';
 
 export interface RegridOptions {
   method?: RemapMethod;
@@ -22,8 +24,14 @@ export interface RegridOptions {
 export interface RegriddedField extends FieldSource {
   method: RemapMethod;
   verticalMethod: 'overlap' | 'linear' | 'none';
+  /** the horizontal weights as one sparse matrix (for lat-lon pairs built on first use: they are applied as two factors) */
   weights: SparseWeights;
-  weightOrigin: 'memory' | 'disk' | 'built';
+  /** entries of that matrix */
+  weightEntries: number;
+  /** bytes held for the weights as applied (the two factors, or the matrix) and for the per-level work buffers */
+  heldBytes: { weights: number; work: number };
+  /** 'separable': conservative between two lat-lon grids, applied as two 1-D factors built in well under a millisecond, not cached */
+  weightOrigin: 'memory' | 'disk' | 'built' | 'separable';
   /**
    * covered fraction (0..1) of each target cell in the most recently read level k (kept for the last
    * few levels read; copy it to keep it longer, or use readLevelWithCoverage, whose arrays are yours)
@@ -53,8 +61,12 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
     checkBounds(sh, `${where}: the source grid has no usable cell bounds`);
   }
   const cacheDir = opts.cacheDir === undefined ? defaultCacheDir() : opts.cacheDir;
-  const { weights, origin } = remapWeights(sh, th, method, { cacheDir });
-  if (weights.col.length === 0) throw new StillwaterError('E_GRID', `${where}: its grid and the target grid do not overlap.`, subject);
+  const factors: SeparableWeights | null = method === 'conservative' && isLatLon(sh) && isLatLon(th) ? separableWeights(sh, th) : null;
+  let matrix = factors ? null : remapWeights(sh, th, method, { cacheDir });
+  const origin = matrix ? matrix.origin : 'separable';
+  const entries = factors ? factors.entries : matrix!.weights.col.length;
+  const fullMatrix = (): SparseWeights => (matrix ??= remapWeights(sh, th, method, { cacheDir })).weights;
+  if (entries === 0) throw new StillwaterError('E_GRID', `${where}: its grid and the target grid do not overlap.`, subject);
 
   const sv = src.grid.vertical, tv = target.vertical;
   let vw: VerticalWeights;
@@ -69,26 +81,20 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
     vw = identityWeights(sv ? sv.nz : 1);
   }
 
-  const nSrc = sh.nx * sh.ny, nTgt = th.nx * th.ny;
-  // what the weights of a fully covered target cell add up to
-  const rowRef = method === 'conservative' ? th.area : method === 'bilinear' ? rowSums(weights) : rowsPresent(weights);
-  const n = new Float64Array(nSrc), d = new Float64Array(nSrc);
-  const scratch = method === 'nearest' ? { num: new Float64Array(nTgt), den: new Float64Array(nTgt) } : { num: new Float64Array(0), den: new Float64Array(0) };
+  const nTgt = th.nx * th.ny;
   const rule = { threshold, normalise };
   const stats = { sourceValues: 0, sourceValid: 0 };
+  const engine: LevelEngine = factors ? new SeparableLevel(factors, inverse(th.area)) : new MatrixLevel(fullMatrix(), rowReference(method, fullMatrix(), th));
   const levels = new LevelCache(src, 4);
   const lastCoverage = new Map<number, { data: Float32Array; recyclable: boolean }>();
 
   async function readOne(t: number, k: number, ownCoverage: boolean): Promise<{ values: Float32Array; coverage: Float32Array }> {
     if (!(k >= 0 && k < vw.nz)) throw new StillwaterError('E_INPUT', `${where}: level ${k} is outside the target's ${vw.nz} levels.`, subject);
     const p0 = vw.start[k], p1 = vw.start[k + 1];
-    if (p0 === p1) {
-      n.fill(0);
-      d.fill(0);
-    }
+    if (p0 === p1) engine.clear();
     for (let p = p0; p < p1; p++) {
       const { level, fresh } = await levels.get(t, vw.src[p]);
-      const valid = accumulate(level, vw.h[p], n, d, p === p0);
+      const valid = engine.accumulate(level, vw.h[p], p === p0);
       if (fresh) {
         stats.sourceValues += level.length;
         stats.sourceValid += valid;
@@ -96,7 +102,7 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
     }
     const values = new Float32Array(nTgt);
     const coverage = ownCoverage ? new Float32Array(nTgt) : coverageBuffer(k);
-    remapLevel(weights, rowRef, vw.ref[k], n, d, rule, values, coverage, scratch);
+    engine.finish(vw.ref[k], rule, values, coverage);
     lastCoverage.delete(k);
     lastCoverage.set(k, { data: coverage, recyclable: !ownCoverage });
     if (lastCoverage.size > 4) lastCoverage.delete(lastCoverage.keys().next().value as number);
@@ -139,7 +145,11 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
     time: src.time,
     method,
     verticalMethod,
-    weights,
+    get weights() {
+      return fullMatrix();
+    },
+    weightEntries: entries,
+    heldBytes: { weights: factors ? factorBytes(factors) : matrixBytes(fullMatrix()), work: engine.workBytes },
     weightOrigin: origin,
     stats,
     async readLevel(t: number, k: number): Promise<Float32Array> {
@@ -154,39 +164,18 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
   };
 }
 
-/**
- * n += h·v and d += h where v is valid; the first layer of a target level sets instead of adding.
- * (A plain function, so the engine optimises the loop.)
- */
-function accumulate(level: Float32Array, h: number, n: Float64Array, d: Float64Array, first: boolean): number {
-  let valid = 0;
-  if (first) {
-    for (let s = 0; s < level.length; s++) {
-      const v = level[s];
-      if (v === v) {
-        n[s] = h * v;
-        d[s] = h;
-        valid++;
-      } else {
-        n[s] = 0;
-        d[s] = 0;
-      }
-    }
-    return valid;
-  }
-  for (let s = 0; s < level.length; s++) {
-    const v = level[s];
-    if (v === v) {
-      n[s] += h * v;
-      d[s] += h;
-      valid++;
-    }
-  }
-  return valid;
+function factorBytes(f: SeparableWeights): number {
+  return [f.lon, f.lat].reduce((sum, a) => sum + a.start.byteLength + a.src.byteLength + a.len.byteLength, 0);
 }
 
-/** 1 for target cells with any nearest-wet candidate, else 0. */
-function rowsPresent(w: SparseWeights): Float64Array {
+function matrixBytes(w: SparseWeights): number {
+  return w.rowPtr.byteLength + w.col.byteLength + w.w.byteLength;
+}
+
+/** What the weights of a fully covered target cell add up to: its area (conservative), their sum (bilinear), 1 (nearest). */
+function rowReference(method: RemapMethod, w: SparseWeights, target: HorizontalGrid): Float64Array {
+  if (method === 'conservative') return target.area;
+  if (method === 'bilinear') return rowSums(w);
   const out = new Float64Array(w.nRows);
   for (let r = 0; r < w.nRows; r++) out[r] = w.rowPtr[r + 1] > w.rowPtr[r] ? 1 : 0;
   return out;

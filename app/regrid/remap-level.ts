@@ -8,6 +8,82 @@ export interface LevelRule {
 }
 
 /**
+ * The per-level work of a regridded field: the sums of the source column, then the remapping of one
+ * target level. MatrixLevel uses the sparse matrix in JavaScript; SeparableLevel (lat-lon pairs,
+ * separable-level.ts) the two factors in WebAssembly.
+ */
+export interface LevelEngine {
+  /** n (+)= h·v and d (+)= h over the valid values of one source level; `first` starts the sums. Returns the valid count. */
+  accumulate(level: Float32Array, h: number, first: boolean): number;
+  /** no source layer reaches this target level: n = d = 0 */
+  clear(): void;
+  /** remap the sums into values and coverage; `ref` is the vertical weight of a fully covered layer */
+  finish(ref: number, rule: LevelRule, values: Float32Array, coverage: Float32Array): void;
+  /** bytes of the work buffers */
+  readonly workBytes: number;
+}
+
+export class MatrixLevel implements LevelEngine {
+  private readonly n: Float64Array;
+  private readonly d: Float64Array;
+  private readonly scratch: { num: Float64Array; den: Float64Array };
+  constructor(
+    private readonly weights: SparseWeights,
+    /** what the weights of a fully covered target cell add up to */
+    private readonly rowRef: Float64Array,
+  ) {
+    this.n = new Float64Array(weights.nCols);
+    this.d = new Float64Array(weights.nCols);
+    const m = weights.method === 'nearest' ? weights.nRows : 0;
+    this.scratch = { num: new Float64Array(m), den: new Float64Array(m) };
+  }
+  get workBytes(): number {
+    return (this.n.length + this.d.length + this.scratch.num.length + this.scratch.den.length) * 8;
+  }
+  accumulate(level: Float32Array, h: number, first: boolean): number {
+    return accumulate(level, h, this.n, this.d, first);
+  }
+  clear(): void {
+    this.n.fill(0);
+    this.d.fill(0);
+  }
+  finish(ref: number, rule: LevelRule, values: Float32Array, coverage: Float32Array): void {
+    remapLevel(this.weights, this.rowRef, ref, this.n, this.d, rule, values, coverage, this.scratch);
+  }
+}
+
+/**
+ * n += h·v and d += h where v is valid; the first layer of a target level sets instead of adding.
+ * (A plain function, so the engine optimises the loop.)
+ */
+function accumulate(level: Float32Array, h: number, n: Float64Array, d: Float64Array, first: boolean): number {
+  let valid = 0;
+  if (first) {
+    for (let s = 0; s < level.length; s++) {
+      const v = level[s];
+      if (v === v) {
+        n[s] = h * v;
+        d[s] = h;
+        valid++;
+      } else {
+        n[s] = 0;
+        d[s] = 0;
+      }
+    }
+    return valid;
+  }
+  for (let s = 0; s < level.length; s++) {
+    const v = level[s];
+    if (v === v) {
+      n[s] += h * v;
+      d[s] += h;
+      valid++;
+    }
+  }
+  return valid;
+}
+
+/**
  * One level through the horizontal weights. Per source cell, n = Σ h·v and d = Σ h over valid
  * values of the overlapping source layers (for 2-D fields, v and 1, or 0 and 0 where missing).
  * `rowRef` is what the weights of a fully covered target cell add up to (its area for conservative
@@ -86,7 +162,7 @@ function fusedSums(
 
 /** 1 / rowRef (0 where rowRef is 0), computed once per array: divisions are the slow part of a level. */
 const inverses = new WeakMap<Float64Array, Float64Array>();
-function inverse(rowRef: Float64Array): Float64Array {
+export function inverse(rowRef: Float64Array): Float64Array {
   let inv = inverses.get(rowRef);
   if (!inv) {
     inv = new Float64Array(rowRef.length);

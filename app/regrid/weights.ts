@@ -36,12 +36,16 @@ export function remapWeights(source: HorizontalGrid, target: HorizontalGrid, met
 export function buildWeights(source: HorizontalGrid, target: HorizontalGrid, method: RemapMethod): SparseWeights {
   if (method === 'bilinear') return bilinearWeights(source, target);
   if (method === 'nearest') return nearestWeights(source, target);
-  const srcLatLon = source.kind === 'rectilinear' && !!source.axes;
-  const tgtLatLon = target.kind === 'rectilinear' && !!target.axes;
+  const srcLatLon = isLatLon(source), tgtLatLon = isLatLon(target);
   if (srcLatLon && tgtLatLon) return conservativeRectilinear(source, target);
   if (tgtLatLon) return conservativeCurvilinear(source, target);
   if (srcLatLon) return transpose(conservativeCurvilinear(target, source));
   throw new StillwaterError('E_GRID', 'Conservative remapping needs a lat-lon grid on one side; both grids here are curvilinear.');
+}
+
+/** A grid whose cells are lat-lon rectangles given by two axes. */
+export function isLatLon(g: HorizontalGrid): boolean {
+  return g.kind === 'rectilinear' && !!g.axes;
 }
 
 /** The transposed matrix (overlap areas are symmetric in source and target). */

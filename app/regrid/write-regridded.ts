@@ -6,7 +6,7 @@ import { createNetcdf, type NetcdfWriter, type WriteVariable } from '../io/netcd
 import type { Attributes } from '../io/types.js';
 import { convertLevel } from '../ocean/convert.js';
 import type { RemapMethod } from './csr.js';
-import { regridField } from './field.js';
+import { regridField, type RegriddedField } from './field.js';
 
 /** NetCDF's default fill value for floats; NaN is written as this and declared as _FillValue. */
 const FILL = 9.969209968386869e36;
@@ -36,7 +36,7 @@ export interface RegridSummary {
   coverageThreshold: number;
   levels: number;
   times: number;
-  weights: { origin: 'memory' | 'disk' | 'built'; entries: number };
+  weights: { origin: RegriddedField['weightOrigin']; entries: number };
   validTarget: number;
   totalTarget: number;
   note?: string;
@@ -148,7 +148,7 @@ export async function writeRegridded(src: FieldSource, target: Grid, outPath: st
       coverageThreshold: opts.coverage,
       levels: nz,
       times: src.nt,
-      weights: { origin: r.weightOrigin, entries: r.weights.col.length },
+      weights: { origin: r.weightOrigin, entries: r.weightEntries },
       validTarget: valid,
       totalTarget: total * h.nx * h.ny,
       ...(note ? { note } : {}),

@@ -81,7 +81,7 @@ export const regridCommand: Command = {
       if (args.switches.has('json')) out(JSON.stringify(summary, null, 2));
       else {
         out(`${summary.out}: '${summary.variable}' (${summary.units}) on ${summary.grid}, ${summary.levels} level(s) x ${summary.times} time step(s)`);
-        out(`method ${summary.method}${summary.vertical !== 'none' ? `, vertical ${summary.vertical}` : ''}, coverage threshold ${summary.coverageThreshold}; weights ${summary.weights.origin} (${summary.weights.entries} entries)`);
+        out(`method ${summary.method}${summary.vertical !== 'none' ? `, vertical ${summary.vertical}` : ''}, coverage threshold ${summary.coverageThreshold}; weights ${summary.weights.origin === 'separable' ? 'as two per-axis factors' : summary.weights.origin} (${summary.weights.entries} entries)`);
         out(`valid target values: ${summary.validTarget} of ${summary.totalTarget}`);
       }
       return 0;

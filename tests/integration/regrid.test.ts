@@ -59,7 +59,9 @@ describe('stillwater regrid', () => {
     expect(r.stderr).not.toMatch(/fault/);
     expect(r.code).toBe(0);
     const summary = JSON.parse(r.stdout);
-    expect(summary).toMatchObject({ variable: 'po4', method: 'conservative', vertical: 'overlap', levels: 4, weights: { origin: 'built' } });
+    // two lat-lon grids: the weights are applied as their two per-axis factors, never cached
+    expect(summary).toMatchObject({ variable: 'po4', method: 'conservative', vertical: 'overlap', levels: 4, weights: { origin: 'separable' } });
+    expect(existsSync(cache)).toBe(false);
     const j = JSON.parse(python(INTEGRALS, join(dir, 'source.nc'), out));
     expect(j.conventions).toBe('CF-1.10');
     expect(j.units).toBe('mmol m-3');
@@ -71,8 +73,10 @@ describe('stillwater regrid', () => {
   });
 
   it('reuses the cached weights for a second variable on the same grids, and converts units on request', () => {
+    const first = regrid('--source', join(dir, 'source.nc'), '--var', 'po4', '--target', join(dir, 'target.nc'), '--out', join(dir, 'po4-bilinear-1.nc'), '--method', 'bilinear', '--json');
+    expect(JSON.parse(first.stdout).weights.origin).toBe('built');
     const out = join(dir, 'po4-umolkg.nc');
-    const r = regrid('--source', join(dir, 'source.nc'), '--var', 'po4', '--target', join(dir, 'target.nc'), '--target-var', 'mask', '--out', out, '--units', 'umol kg-1', '--json');
+    const r = regrid('--source', join(dir, 'source.nc'), '--var', 'po4', '--target', join(dir, 'target.nc'), '--target-var', 'mask', '--out', out, '--units', 'umol kg-1', '--method', 'bilinear', '--json');
     expect(r.code).toBe(0);
     const s = JSON.parse(r.stdout);
     expect(s.weights.origin).toBe('disk');

@@ -147,6 +147,8 @@ describe('vertical layer overlap (thickness-weighted), applied separably', () =>
 });
 
 describe('weights cache on disk', () => {
+  // conservative weights between two lat-lon grids are kept as two 1-D factors and never cached
+  // (separable.test.ts); the matrices of the other pairs are, as checked here with bilinear weights
   const src = makeRegularGrid(4, 4);
   const tgt = makeRegularGrid(3, 3);
   const field = functionField(flat(src), (lon) => lon);
@@ -154,29 +156,40 @@ describe('weights cache on disk', () => {
   it('builds once, then reuses the file keyed by a hash of both grids and the method', async () => {
     clearWeightMemory();
     const dir = join(tmp, 'cache1');
-    const a = await regridField(field, flat(tgt), { cacheDir: dir });
+    const a = await regridField(field, flat(tgt), { cacheDir: dir, method: 'bilinear' });
     expect(a.weightOrigin).toBe('built');
     const files = readdirSync(dir);
     expect(files).toHaveLength(1);
     expect(files[0]).toMatch(/^weights-[0-9a-f]{64}\.bin$/);
-    expect((await regridField(field, flat(tgt), { cacheDir: dir })).weightOrigin).toBe('memory');
+    expect((await regridField(field, flat(tgt), { cacheDir: dir, method: 'bilinear' })).weightOrigin).toBe('memory');
     clearWeightMemory();
-    const b = await regridField(field, flat(tgt), { cacheDir: dir });
+    const b = await regridField(field, flat(tgt), { cacheDir: dir, method: 'bilinear' });
     expect(b.weightOrigin).toBe('disk');
     expect(Array.from(b.weights.w)).toEqual(Array.from(a.weights.w));
     clearWeightMemory();
-    expect((await regridField(field, flat(tgt), { cacheDir: dir, method: 'bilinear' })).weightOrigin).toBe('built');
+    expect((await regridField(field, flat(tgt), { cacheDir: dir, method: 'nearest' })).weightOrigin).toBe('built');
     expect(readdirSync(dir)).toHaveLength(2);
   });
 
   it('a damaged cache file is rebuilt, not trusted', async () => {
     clearWeightMemory();
     const dir = join(tmp, 'cache2');
-    await regridField(field, flat(tgt), { cacheDir: dir });
+    await regridField(field, flat(tgt), { cacheDir: dir, method: 'bilinear' });
     const [name] = readdirSync(dir);
     writeFileSync(join(dir, name), Buffer.from('not weights'));
     clearWeightMemory();
-    expect((await regridField(field, flat(tgt), { cacheDir: dir })).weightOrigin).toBe('built');
+    expect((await regridField(field, flat(tgt), { cacheDir: dir, method: 'bilinear' })).weightOrigin).toBe('built');
+  });
+
+  it('conservative lat-lon pairs write no cache file; their full matrix is built on request only', async () => {
+    clearWeightMemory();
+    const dir = join(tmp, 'cache3');
+    const r = await regridField(field, flat(tgt), { cacheDir: dir });
+    expect(r.weightOrigin).toBe('separable');
+    await r.readLevel(0, 0);
+    expect(() => readdirSync(dir)).toThrow(/ENOENT/);
+    expect(r.weights.col.length).toBe(r.weightEntries);
+    expect(readdirSync(dir)).toHaveLength(1);
   });
 });
 
