@@ -19,7 +19,7 @@ function newestSource(dir) {
 
 const stale =
   !existsSync(stamp) ||
-  ['app', 'main', 'renderer'].some((d) => existsSync(join(root, d)) && newestSource(join(root, d)) > statSync(stamp).mtimeMs);
+  ['app', 'main', 'renderer', 'sample-data/generator'].some((d) => existsSync(join(root, d)) && newestSource(join(root, d)) > statSync(stamp).mtimeMs);
 if (stale) {
   const { buildAll } = await import(pathToFileURL(join(root, 'main', 'build.mjs')).href);
   await buildAll();

@@ -16,7 +16,7 @@ import { seafloorDepth } from './seafloor.js';
 import { writeStations } from './stations.js';
 
 /** Bump when the scenario changes, so that old generated files are rebuilt. */
-export const SCENARIO_VERSION = '2';
+export const SCENARIO_VERSION = '3';
 const FILL = 1e20;
 const TRACERS: (keyof TracerValues)[] = ['temp', 'salt', 'po4', 'no3', 'o2', 'si'];
 

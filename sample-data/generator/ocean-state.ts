@@ -36,16 +36,22 @@ function wrap180(lon: number): number {
   return ((((lon + 180) % 360) + 360) % 360) - 180;
 }
 
-/** Smooth weights (sum 1) of the basins the scenario's water masses belong to. */
+/**
+ * Smooth weights (sum 1) of the basins the scenario's water masses belong to. The Arctic takes Atlantic
+ * water (a blend in latitude around 66°N), so the basin boxes, whose edges run over land further south,
+ * leave no edge across the Arctic Ocean.
+ */
 function basinWeights(lon: number, lat: number): { atl: number; ind: number; pac: number; sou: number } {
   const l = wrap180(lon);
   const north = sigmoid((lat + 35) / 5);
+  const arctic = sigmoid((lat - 66) / 2.5);
   let atl = 0;
   let ind = 0;
   if ((l > -75 && l < 25) || (l > -100 && l <= -75 && lat > 8 && lat < 32) || (l > -100 && l <= -75 && lat > 45)) atl = 1;
   else if (l >= 25 && l < 120 && lat < 32) ind = 1;
   const pac = 1 - atl - ind;
-  return { atl: atl * north, ind: ind * north, pac: pac * north, sou: 1 - north };
+  atl = atl * (1 - arctic) + arctic;
+  return { atl: atl * north, ind: ind * (1 - arctic) * north, pac: pac * (1 - arctic) * north, sou: 1 - north };
 }
 
 /** Deep-water age of the scenario, years: young in the North Atlantic, oldest in the North Pacific. */

@@ -39,7 +39,7 @@ function distIsStale(): boolean {
   const stamp = join(PROJECT, 'dist', '.build-stamp');
   if (!existsSync(stamp)) return true;
   const built = statSync(stamp).mtimeMs;
-  return ['app', 'main', 'renderer'].some((d) => newestSource(join(PROJECT, d)) > built);
+  return ['app', 'main', 'renderer', 'sample-data/generator'].some((d) => newestSource(join(PROJECT, d)) > built);
 }
 
 /** Several test files start at once: one build (and demo generation) at a time, no build while dist/ is fresh. */
