@@ -36,6 +36,20 @@ export interface ConvertResult {
 
 type Frame = 'per_volume' | 'per_mass' | 'gas_volume';
 
+/**
+ * TEOS-10 density per cell (NaN where temperature or salinity is missing), computed once per level: every
+ * variable of every run converted on that level passes the same temperature and salinity arrays.
+ */
+const levelDensity = new WeakMap<Float32Array, { salinity: Float32Array; pressure: number; rho: Float64Array }>();
+function densityOfLevel(T: Float32Array, S: Float32Array, p: number): Float64Array {
+  const hit = levelDensity.get(T);
+  if (hit && hit.salinity === S && hit.pressure === p) return hit.rho;
+  const rho = new Float64Array(T.length);
+  for (let i = 0; i < T.length; i++) rho[i] = densityFromPracticalAndPotential(S[i], T[i], p);
+  levelDensity.set(T, { salinity: S, pressure: p, rho });
+  return rho;
+}
+
 function frameOf(u: ParsedUnits): Frame | null {
   if (u.kind === 'amount_per_volume') return 'per_volume';
   if (u.kind === 'amount_per_mass') return 'per_mass';
@@ -85,9 +99,9 @@ export function convertLevel(values: Float32Array, from: ParsedUnits, to: Parsed
       rho = (i) => d[i];
     } else if (opts.temperature && opts.salinity) {
       source = 'temperature-salinity';
-      const T = opts.temperature, S = opts.salinity, p = opts.pressure ?? 0;
+      const fromFields = densityOfLevel(opts.temperature, opts.salinity, opts.pressure ?? 0);
       rho = (i) => {
-        const r = densityFromPracticalAndPotential(S[i], T[i], p);
+        const r = fromFields[i];
         if (r === r) return r;
         nominalCells++;
         return NOMINAL_DENSITY;

@@ -134,7 +134,7 @@ describe.skipIf(!canRunBrowser)('spin-up view in Chromium', () => {
     await page.click('#tab-spinup');
     await drawnKey(page);
     // a tracer not shown yet (the first look picks the chosen variable and the one that drifts most)
-    const tracer = await page.getAttribute('#spinup-tracers input:not(:checked)', 'value');
+    const tracer = (await page.getAttribute('#spinup-tracers input:not(:checked)', 'value')) ?? '';
     expect(tracer).toBeTruthy();
     await page.focus(`#spinup-tracers input[value="${tracer}"]`);
     await page.keyboard.press('Space');
