@@ -71,40 +71,71 @@ export function absoluteSalinityFromPractical(sp: number): number {
 
 /** Conservative temperature (°C) from absolute salinity (g/kg) and potential temperature (°C, p_ref = 0). */
 export function conservativeFromPotential(sa: number, pt: number): number {
-  const x = Math.sqrt(SFAC * Math.max(sa, 0));
-  const y = pt * 0.025;
-  powers(PX, x, 7);
-  powers(PY, y, 7);
-  let h = 0;
-  for (let t = 0; t < H_C.length; t++) h += H_C[t] * PX[H_I[t]] * PY[H_J[t]];
-  return h / CP0;
+  return potentialEnthalpy(Math.sqrt(SFAC * Math.max(sa, 0)), pt * 0.025) / CP0;
 }
 
 /** Specific volume (m³/kg) from SA (g/kg), CT (°C) and sea pressure p (dbar). */
 export function specificVolume(sa: number, ct: number, p: number): number {
-  const xs = Math.sqrt(SFAC * Math.max(sa, 0) + S_OFFSET);
-  const ys = ct * 0.025;
-  const z = p * 1e-4;
-  powers(PX, xs, 6);
-  powers(PY, ys, 6);
-  powers(PZ, z, 6);
-  let v = 0;
-  for (let t = 0; t < V_C.length; t++) v += V_C[t] * PX[V_I[t]] * PY[V_J[t]] * PZ[V_K[t]];
-  return v;
+  return specificVolumePolynomial(Math.sqrt(SFAC * Math.max(sa, 0) + S_OFFSET), ct * 0.025, p * 1e-4);
 }
 
-// The polynomials as flat arrays and power tables, filled by repeated multiplication: this runs for every
-// cell of every level when density comes from temperature and salinity (tuples and ** took 20x longer).
-const V_I = Int8Array.from(V, (t) => t[0]), V_J = Int8Array.from(V, (t) => t[1]), V_K = Int8Array.from(V, (t) => t[2]);
+// The two polynomials in nested (Horner) form over the coefficients of the tables above, in table order:
+// this runs for every cell of every level when density comes from temperature and salinity, where a loop
+// over the terms with powers took 10-20 times longer. Written out from the tables by a script; a test
+// checks both against gsw.
 const V_C = Float64Array.from(V, (t) => t[3]);
-const H_I = Int8Array.from(H, (t) => t[0]), H_J = Int8Array.from(H, (t) => t[1]);
 const H_C = Float64Array.from(H, (t) => t[2]);
-const PX = new Float64Array(8), PY = new Float64Array(8), PZ = new Float64Array(8);
 
-/** out[n] = x^n for n = 0..top. */
-function powers(out: Float64Array, x: number, top: number): void {
-  out[0] = 1;
-  for (let n = 1; n <= top; n++) out[n] = out[n - 1] * x;
+/** Σ v_ijk · xs^i · ys^j · z^k: Horner in xs within ys within z. */
+function specificVolumePolynomial(xs: number, ys: number, z: number): number {
+  const c = V_C;
+  const a00 = c[0] + xs * (c[25] + xs * (c[43] + xs * (c[56] + xs * (c[65] + xs * (c[71] + xs * (c[74]))))));
+  const a10 = c[7] + xs * (c[30] + xs * (c[47] + xs * (c[59] + xs * (c[68] + xs * (c[73])))));
+  const a20 = c[12] + xs * (c[34] + xs * (c[50] + xs * (c[62] + xs * (c[70]))));
+  const a30 = c[16] + xs * (c[37] + xs * (c[53] + xs * (c[64])));
+  const a40 = c[19] + xs * (c[40] + xs * (c[55]));
+  const a50 = c[22] + xs * (c[42]);
+  const a60 = c[24];
+  const b0 = a00 + ys * (a10 + ys * (a20 + ys * (a30 + ys * (a40 + ys * (a50 + ys * (a60))))));
+  const a01 = c[1] + xs * (c[26] + xs * (c[44] + xs * (c[57] + xs * (c[66] + xs * (c[72])))));
+  const a11 = c[8] + xs * (c[31] + xs * (c[48] + xs * (c[60] + xs * (c[69]))));
+  const a21 = c[13] + xs * (c[35] + xs * (c[51] + xs * (c[63])));
+  const a31 = c[17] + xs * (c[38] + xs * (c[54]));
+  const a41 = c[20] + xs * (c[41]);
+  const a51 = c[23];
+  const b1 = a01 + ys * (a11 + ys * (a21 + ys * (a31 + ys * (a41 + ys * (a51)))));
+  const a02 = c[2] + xs * (c[27] + xs * (c[45] + xs * (c[58] + xs * (c[67]))));
+  const a12 = c[9] + xs * (c[32] + xs * (c[49] + xs * (c[61])));
+  const a22 = c[14] + xs * (c[36] + xs * (c[52]));
+  const a32 = c[18] + xs * (c[39]);
+  const a42 = c[21];
+  const b2 = a02 + ys * (a12 + ys * (a22 + ys * (a32 + ys * (a42))));
+  const a03 = c[3] + xs * (c[28] + xs * (c[46]));
+  const a13 = c[10] + xs * (c[33]);
+  const a23 = c[15];
+  const b3 = a03 + ys * (a13 + ys * (a23));
+  const a04 = c[4] + xs * (c[29]);
+  const a14 = c[11];
+  const b4 = a04 + ys * (a14);
+  const a05 = c[5];
+  const b5 = a05;
+  const a06 = c[6];
+  const b6 = a06;
+  return b0 + z * (b1 + z * (b2 + z * (b3 + z * (b4 + z * (b5 + z * (b6))))));
+}
+
+/** Σ h_ij · x^i · y^j: Horner in x within y. */
+function potentialEnthalpy(x: number, y: number): number {
+  const c = H_C;
+  const a0 = c[0] + x * (x * (c[8] + x * (c[15] + x * (c[20] + x * (c[26] + x * (c[27] + x * (c[28])))))));
+  const a1 = c[1] + x * (x * (c[9] + x * (c[16] + x * (c[21]))));
+  const a2 = c[2] + x * (x * (c[10] + x * (c[17] + x * (c[22]))));
+  const a3 = c[3] + x * (x * (c[11] + x * (c[18] + x * (c[23]))));
+  const a4 = c[4] + x * (x * (c[12] + x * (c[19] + x * (c[24]))));
+  const a5 = c[5] + x * (x * (c[13] + x * (x * (c[25]))));
+  const a6 = c[6] + x * (x * (c[14]));
+  const a7 = c[7];
+  return a0 + y * (a1 + y * (a2 + y * (a3 + y * (a4 + y * (a5 + y * (a6 + y * (a7)))))));
 }
 
 /** In-situ density (kg m⁻³) from SA, CT and sea pressure (dbar); p = 0 gives potential density. */
