@@ -5,7 +5,16 @@ const RAD = Math.PI / 180;
 
 /** Exact area of a lat-lon cell on a sphere: R² Δλ (sin φ2 − sin φ1). */
 export function latLonCellArea(lon1: number, lon2: number, lat1: number, lat2: number, radius = EARTH_RADIUS_M): number {
-  return radius * radius * Math.abs(lon2 - lon1) * RAD * Math.abs(Math.sin(lat2 * RAD) - Math.sin(lat1 * RAD));
+  return radius * radius * Math.abs(lon2 - lon1) * RAD * Math.abs(sinDiff(lat1, lat2));
+}
+
+/**
+ * sin(b) − sin(a) = 2 cos((a+b)/2) sin((b−a)/2) for degrees a, b: accurate when they are close and near
+ * the poles, where the plain difference loses digits (the cell areas and the regridding overlaps use it
+ * alike, so a fully covered cell has a coverage of 1 to rounding).
+ */
+export function sinDiff(aDeg: number, bDeg: number): number {
+  return 2 * Math.cos(0.5 * (aDeg + bDeg) * RAD) * Math.sin(0.5 * (bDeg - aDeg) * RAD);
 }
 
 /** A regular or irregular lat-lon grid from its cell edges (increasing, degrees). */

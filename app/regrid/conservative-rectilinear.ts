@@ -1,3 +1,4 @@
+import { sinDiff } from '../grid/rectilinear.js';
 import { EARTH_RADIUS_M, type HorizontalGrid } from '../grid/types.js';
 import { ascendingEdges, cellRange } from './axis-order.js';
 import type { SparseWeights } from './csr.js';
@@ -124,11 +125,6 @@ function latOverlaps(srcEdges: Float64Array, tgtEdges: Float64Array): AxisOverla
     out.sort((x, y) => x.src - y.src);
   }
   return pack(lists);
-}
-
-/** sin(b) − sin(a) = 2 cos((a+b)/2) sin((b−a)/2), accurate when a and b are close. */
-export function sinDiff(aDeg: number, bDeg: number): number {
-  return 2 * Math.cos(0.5 * (aDeg + bDeg) * RAD) * Math.sin(0.5 * (bDeg - aDeg) * RAD);
 }
 
 function pack(lists: { src: number; len: number }[][]): AxisOverlap {
