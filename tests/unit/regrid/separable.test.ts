@@ -6,6 +6,7 @@ import type { HorizontalGrid } from '../../../app/grid/types.js';
 import { conservativeRectilinear, expandSeparable, separableWeights } from '../../../app/regrid/conservative-rectilinear.js';
 import { MatrixLevel, type LevelEngine, type LevelRule } from '../../../app/regrid/remap-level.js';
 import { ellpack, SeparableLevel } from '../../../app/regrid/separable-level.js';
+import { seededRandom as random } from '../spinup/seeded.js';
 
 // The WebAssembly engine for lat-lon pairs (two factors, row by row) against the sparse-matrix engine
 // in JavaScript, which the conservation (Jones 1999) and overlap (shapely) tests check against outside
@@ -13,18 +14,6 @@ import { ellpack, SeparableLevel } from '../../../app/regrid/separable-level.js'
 // missing cells, for every shape of factor: shifted, refined, coarsened, regional, odd sizes.
 
 const edges = (a: number, b: number, n: number): Float64Array => Float64Array.from({ length: n + 1 }, (_, i) => a + ((b - a) * i) / n);
-
-/** A seeded generator (mulberry32), so failures repeat. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function level(n: number, rnd: () => number, missing: number): Float32Array {
   return Float32Array.from({ length: n }, () => (rnd() < missing ? NaN : 0.5 + 10 * rnd()));
