@@ -21,7 +21,7 @@ import { distortedGrid } from '../unit/regrid/helpers.js';
 
 const PY = '/usr/bin/python3';
 const PEER = join(process.cwd(), 'tests', 'bench', 'peers', 'regrid_peer.py');
-const REPEATS = 5;
+const REPEATS = 9;
 const MB = 1024 * 1024;
 const gc = (globalThis as { gc?: () => void }).gc ?? (() => undefined);
 
