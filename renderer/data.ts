@@ -4,6 +4,7 @@
  */
 import type { ComparisonResult } from '../app/compare/run.js';
 import type { LevelData, ProfileData, SectionData, SectionKind, SessionInfo, TableFormat, TableText } from '../app/render/view-types.js';
+import { PromiseCache } from '../app/promise-cache.js';
 import { call, cancel, newJobId, type ProgressEvent } from './bridge.js';
 
 export interface Job {
@@ -53,32 +54,10 @@ export async function cancelAll(): Promise<void> {
   await Promise.all([...jobs.keys()].map((id) => cancel(id)));
 }
 
-class Cache<T> {
-  private readonly map = new Map<string, Promise<T>>();
-  constructor(private readonly limit: number) {}
-  get(key: string, make: () => Promise<T>): Promise<T> {
-    const hit = this.map.get(key);
-    if (hit) {
-      this.map.delete(key);
-      this.map.set(key, hit);
-      return hit;
-    }
-    const p = make();
-    this.map.set(key, p);
-    // a failed or cancelled request is not kept
-    p.catch(() => this.map.delete(key));
-    while (this.map.size > this.limit) this.map.delete(this.map.keys().next().value as string);
-    return p;
-  }
-  clear(): void {
-    this.map.clear();
-  }
-}
-
-const levels = new Cache<LevelData>(40);
-const sections = new Cache<SectionData>(12);
-const profiles = new Cache<ProfileData>(12);
-const skills = new Cache<ComparisonResult>(4);
+const levels = new PromiseCache<LevelData>(40);
+const sections = new PromiseCache<SectionData>(12);
+const profiles = new PromiseCache<ProfileData>(12);
+const skills = new PromiseCache<ComparisonResult>(4);
 
 export function clearCaches(): void {
   levels.clear();

@@ -10,6 +10,7 @@ import { basename, dirname, join } from 'node:path';
 import { z } from 'zod';
 import { parseUnits, type ParsedUnits } from '../cf/units.js';
 import { commonGridFor } from '../compare/common-grid.js';
+import { PromiseCache } from '../promise-cache.js';
 import { densityProvider, type DensityProvider } from '../compare/density.js';
 import { derivedReader, onGrid, openSpec, plainReader, referenceUnitsOf, type LevelReader, type ReaderContext } from '../compare/level-reader.js';
 import { loadRegions, prefixed } from '../compare/load-regions.js';
@@ -48,52 +49,9 @@ interface Session {
   info: SessionInfo;
   pairs: Map<string, Promise<Pair>>;
   regions: Promise<Region[]> | null;
-  levels: LevelCache;
+  /** levels kept per session: newest last, bounded by bytes */
+  levels: PromiseCache<Float32Array>;
   cacheDir: string;
-}
-
-/** Levels kept per session: newest last, bounded by bytes. */
-class LevelCache {
-  private readonly map = new Map<string, Promise<Float32Array>>();
-  private bytes = 0;
-  private readonly sizes = new Map<string, number>();
-  constructor(private readonly limit: number) {}
-  get(key: string, make: () => Promise<Float32Array>): Promise<Float32Array> {
-    const hit = this.map.get(key);
-    if (hit) {
-      this.map.delete(key);
-      this.map.set(key, hit);
-      return hit;
-    }
-    const p = make();
-    this.map.set(key, p);
-    p.then(
-      (a) => {
-        if (this.map.get(key) !== p) return;
-        this.sizes.set(key, a.byteLength);
-        this.bytes += a.byteLength;
-        this.trim();
-      },
-      () => this.map.delete(key),
-    );
-    return p;
-  }
-  private trim(): void {
-    while (this.bytes > this.limit && this.map.size > 1) {
-      const oldest = this.map.keys().next().value as string;
-      this.map.delete(oldest);
-      this.bytes -= this.sizes.get(oldest) ?? 0;
-      this.sizes.delete(oldest);
-    }
-  }
-  clear(prefix: string): void {
-    for (const k of [...this.map.keys()]) {
-      if (!k.startsWith(prefix)) continue;
-      this.map.delete(k);
-      this.bytes -= this.sizes.get(k) ?? 0;
-      this.sizes.delete(k);
-    }
-  }
 }
 
 const LEVEL_CACHE_BYTES = 512 * 1024 * 1024;
@@ -268,7 +226,7 @@ async function buildSession(recipe: Recipe, recipePath: string, ctx: ServiceCont
     grid: viewGrid(grid),
     modified,
   };
-  return { id, recipePath, recipe, grid, info, pairs: new Map(), regions: null, levels: new LevelCache(LEVEL_CACHE_BYTES), cacheDir: ctx.cacheDir };
+  return { id, recipePath, recipe, grid, info, pairs: new Map(), regions: null, levels: new PromiseCache<Float32Array>(LEVEL_CACHE_BYTES, (a) => a.byteLength), cacheDir: ctx.cacheDir };
 }
 
 async function pairOf(s: Session, variable: string): Promise<Pair> {
