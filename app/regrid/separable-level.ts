@@ -5,7 +5,7 @@ import type { LevelEngine, LevelRule } from './remap-level.js';
 /** The exports of app/regrid/kernels/separable.as.ts (every P argument is a byte offset into its memory). */
 interface SeparableKernel {
   accumulate(levP: number, count: number, h: number, ndP: number, first: number): number;
-  remapLevel(
+  remapSeparable(
     tny: number,
     tnx: number,
     snx: number,
@@ -103,7 +103,7 @@ export class SeparableLevel implements LevelEngine {
   finish(ref: number, rule: LevelRule, values: Float32Array, coverage: Float32Array): void {
     const { k, p, w } = this;
     const invRef = ref > 0 ? 1 / ref : 0;
-    k.remapLevel(w.tgtNy, w.tgtNx, w.srcNx, p.latStart, p.latSrc, p.latLen, this.slots, p.lonIdx, p.lonW, p.nd, p.row, p.ab, p.invRowRef, invRef, rule.threshold - 1e-12, rule.normalise ? 1 : 0, p.val, p.cov);
+    k.remapSeparable(w.tgtNy, w.tgtNx, w.srcNx, p.latStart, p.latSrc, p.latLen, this.slots, p.lonIdx, p.lonW, p.nd, p.row, p.ab, p.invRowRef, invRef, rule.threshold - 1e-12, rule.normalise ? 1 : 0, p.val, p.cov);
     values.set(new Float32Array(this.mem.buffer, p.val, this.nTgt));
     coverage.set(new Float32Array(this.mem.buffer, p.cov, this.nTgt));
   }

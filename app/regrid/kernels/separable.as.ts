@@ -3,7 +3,7 @@
 // The per-level work of conservative remapping between two lat-lon grids, whose weights factor into a
 // longitude part and a latitude part (Jones 1999): w[(jt, it), (js, is)] = lat[jt → js] · lon[it → is].
 // For each target level, accumulate fills the pairs nd = (Σ h·v, Σ h) over valid source values (per
-// source cell), then remapLevel goes through the target rows: latitude factor on whole source rows
+// source cell), then remapSeparable goes through the target rows: latitude factor on whole source rows
 // (two-lane, contiguous), longitude factor on that one row, then coverage and value from (a, b).
 // Every argument ending in P is a byte offset into the memory the caller passes in; the caller owns the
 // layout (app/regrid/separable-level.ts). Nothing here allocates.
@@ -61,7 +61,7 @@ export function accumulate(levP: usize, count: i32, h: f64, ndP: usize, first: i
  * then coverage c = min(b · inv, 1) with inv = invRowRef · invRef, and the value a / b (or a · inv
  * when normalise is 0) where b > 0 and c >= floor, else NaN; values and coverage are written as f32.
  */
-export function remapLevel(
+export function remapSeparable(
   tny: i32,
   tnx: i32,
   snx: i32,
