@@ -79,26 +79,6 @@ export function columnSums(m: SparseWeights): Float64Array {
   return s;
 }
 
-/**
- * The two sums a masked remap needs per target cell: num = Σ w·N and den = Σ w·D, where N and D are
- * per source cell (N = value × valid thickness, D = valid thickness; for 2-D fields D is 1 or 0).
- */
-export function applySums(m: SparseWeights, n: Float64Array, d: Float64Array, num: Float64Array, den: Float64Array): void {
-  const { rowPtr, col, w } = m;
-  for (let r = 0; r < m.nRows; r++) {
-    // missing source values have n = d = 0, so no test is needed inside the loop
-    let a = 0, b = 0;
-    for (let p = rowPtr[r], e = rowPtr[r + 1]; p < e; p++) {
-      const s = col[p];
-      const wp = w[p];
-      a += wp * n[s];
-      b += wp * d[s];
-    }
-    num[r] = a;
-    den[r] = b;
-  }
-}
-
 /** Nearest-wet: the first candidate of a row with valid data wins (candidates sorted by distance). */
 export function applyFirstValid(m: SparseWeights, n: Float64Array, d: Float64Array, num: Float64Array, den: Float64Array): void {
   const { rowPtr, col } = m;

@@ -3,8 +3,9 @@ import { StillwaterError } from '../errors.js';
 import type { Grid, HorizontalGrid } from '../grid/types.js';
 import { rowSums, type RemapMethod, type SparseWeights } from './csr.js';
 import { separableWeights, type SeparableWeights } from './conservative-rectilinear.js';
-import { inverse, MatrixLevel, type LevelEngine } from './remap-level.js';
+import { inverse, NearestLevel, type LevelEngine, type SourceLayer } from './remap-level.js';
 import { SeparableLevel } from './separable-level.js';
+import { SparseLevel } from './sparse-level.js';
 import { identityWeights, layerOverlapWeights, linearDepthWeights, type VerticalWeights } from './vertical-weights.js';
 import { defaultCacheDir } from './weight-cache.js';
 import { isLatLon, remapWeights } from './weights.js';
@@ -84,25 +85,32 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
   const nTgt = th.nx * th.ny;
   const rule = { threshold, normalise };
   const stats = { sourceValues: 0, sourceValid: 0 };
-  const engine: LevelEngine = factors ? new SeparableLevel(factors, inverse(th.area)) : new MatrixLevel(fullMatrix(), rowReference(method, fullMatrix(), th));
+  const engine: LevelEngine = factors
+    ? new SeparableLevel(factors, inverse(th.area))
+    : method === 'nearest'
+      ? new NearestLevel(fullMatrix())
+      : SparseLevel.of(fullMatrix(), () => inverse(method === 'conservative' ? th.area : rowSums(fullMatrix())));
   const levels = new LevelCache(src, 4);
   const lastCoverage = new Map<number, { data: Float32Array; recyclable: boolean }>();
 
   async function readOne(t: number, k: number, ownCoverage: boolean): Promise<{ values: Float32Array; coverage: Float32Array }> {
     if (!(k >= 0 && k < vw.nz)) throw new StillwaterError('E_INPUT', `${where}: level ${k} is outside the target's ${vw.nz} levels.`, subject);
     const p0 = vw.start[k], p1 = vw.start[k + 1];
-    if (p0 === p1) engine.clear();
+    const layers: SourceLayer[] = [];
+    const fresh: boolean[] = [];
     for (let p = p0; p < p1; p++) {
-      const { level, fresh } = await levels.get(t, vw.src[p]);
-      const valid = engine.accumulate(level, vw.h[p], p === p0);
-      if (fresh) {
-        stats.sourceValues += level.length;
-        stats.sourceValid += valid;
-      }
+      const got = await levels.get(t, vw.src[p]);
+      layers.push({ level: got.level, h: vw.h[p] });
+      fresh.push(got.fresh);
     }
     const values = new Float32Array(nTgt);
     const coverage = ownCoverage ? new Float32Array(nTgt) : coverageBuffer(k);
-    engine.finish(vw.ref[k], rule, values, coverage);
+    const valid = engine.remap(layers, vw.ref[k], rule, values, coverage);
+    for (let i = 0; i < layers.length; i++) {
+      if (!fresh[i]) continue;
+      stats.sourceValues += layers[i].level.length;
+      stats.sourceValid += valid[i];
+    }
     lastCoverage.delete(k);
     lastCoverage.set(k, { data: coverage, recyclable: !ownCoverage });
     if (lastCoverage.size > 4) lastCoverage.delete(lastCoverage.keys().next().value as number);
@@ -170,15 +178,6 @@ function factorBytes(f: SeparableWeights): number {
 
 function matrixBytes(w: SparseWeights): number {
   return w.rowPtr.byteLength + w.col.byteLength + w.w.byteLength;
-}
-
-/** What the weights of a fully covered target cell add up to: its area (conservative), their sum (bilinear), 1 (nearest). */
-function rowReference(method: RemapMethod, w: SparseWeights, target: HorizontalGrid): Float64Array {
-  if (method === 'conservative') return target.area;
-  if (method === 'bilinear') return rowSums(w);
-  const out = new Float64Array(w.nRows);
-  for (let r = 0; r < w.nRows; r++) out[r] = w.rowPtr[r + 1] > w.rowPtr[r] ? 1 : 0;
-  return out;
 }
 
 function checkBounds(g: HorizontalGrid, sentence: string): void {

@@ -7,7 +7,7 @@ import type { Grid, HorizontalGrid } from '../../../app/grid/types.js';
 import { makeVerticalAxis } from '../../../app/grid/vertical.js';
 import { regridField } from '../../../app/regrid/field.js';
 import { clearWeightMemory } from '../../../app/regrid/weights.js';
-import { functionField, memoryField } from './helpers.js';
+import { distortedGrid, functionField, memoryField } from './helpers.js';
 
 const edges = (a: number, b: number, d: number): Float64Array => Float64Array.from({ length: Math.round((b - a) / d) + 1 }, (_, i) => a + i * d);
 const flat = (h: HorizontalGrid): Grid => ({ horizontal: h, vertical: null });
@@ -190,6 +190,32 @@ describe('weights cache on disk', () => {
     expect(() => readdirSync(dir)).toThrow(/ENOENT/);
     expect(r.weights.col.length).toBe(r.weightEntries);
     expect(readdirSync(dir)).toHaveLength(1);
+  });
+});
+
+describe('fields that share weights', () => {
+  it('read at once, level by level, give what each gives alone (the engine of shared weights is shared)', async () => {
+    clearWeightMemory();
+    const v = makeVerticalAxis(Float64Array.of(0, 50, 200, 1000));
+    const src: Grid = { horizontal: distortedGrid(60, 30, -80, 80) as HorizontalGrid, vertical: v };
+    const tgt: Grid = { horizontal: makeRegularGrid(4, 4), vertical: makeVerticalAxis(Float64Array.of(0, 100, 1000)) };
+    const fa = functionField(src, (lon, lat, z) => (lat > 60 ? NaN : 1 + Math.sin((lon * Math.PI) / 90) + z / 1000));
+    const fb = functionField(src, (lon, lat, z) => (lon > 100 ? NaN : 5 - Math.cos((lat * Math.PI) / 45) - z / 500));
+    const alone = async (f: typeof fa) => {
+      clearWeightMemory();
+      const r = await regridField(f, tgt, { cacheDir: null });
+      return [await r.readLevel(0, 0), await r.readLevel(0, 1)];
+    };
+    const [a0, a1] = await alone(fa), [b0, b1] = await alone(fb);
+    clearWeightMemory();
+    const ra = await regridField(fa, tgt, { cacheDir: null }), rb = await regridField(fb, tgt, { cacheDir: null });
+    expect(rb.weights).toBe(ra.weights);
+    const [x0, y0, x1, y1] = await Promise.all([ra.readLevel(0, 0), rb.readLevel(0, 0), ra.readLevel(0, 1), rb.readLevel(0, 1)]);
+    expect(Array.from(x0)).toEqual(Array.from(a0));
+    expect(Array.from(x1)).toEqual(Array.from(a1));
+    expect(Array.from(y0)).toEqual(Array.from(b0));
+    expect(Array.from(y1)).toEqual(Array.from(b1));
+    expect(a0.some((x) => Number.isNaN(x)) && a0.some((x) => !Number.isNaN(x))).toBe(true);
   });
 });
 

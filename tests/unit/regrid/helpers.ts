@@ -3,6 +3,8 @@ import type { ParsedUnits } from '../../../app/cf/units.js';
 import type { Grid, HorizontalGrid } from '../../../app/grid/types.js';
 import { EARTH_RADIUS_M } from '../../../app/grid/types.js';
 import { frameCellAreas } from '../../../app/regrid/conservative-curvilinear.js';
+import type { SparseWeights } from '../../../app/regrid/csr.js';
+import type { LevelRule } from '../../../app/regrid/remap-level.js';
 
 export const MMOL_M3: ParsedUnits = { text: 'mmol m-3', kind: 'amount_per_volume', canonical: 'mmol m-3', factor: 1e-3, offset: 0 };
 
@@ -81,4 +83,24 @@ export function distortedGrid(nx: number, ny: number, lat0: number, lat1: number
   const g: HorizontalGrid = { kind: 'curvilinear', nx, ny, lon, lat, cornerLon, cornerLat, boundsDerived: false, periodic: true, area: new Float64Array(n) };
   g.area = frameCellAreas(g, EARTH_RADIUS_M);
   return g;
+}
+
+/**
+ * The remapping rule of regridField written plainly, in double precision, as the reference for the
+ * engines (app/regrid/*-level.ts): per target row (a, b) = Σ w·(n, d); coverage = min(b / full, 1) with
+ * full = rowRef · ref; value = a / b (or a / full unnormalised) where b > 0 and coverage ≥ the threshold.
+ */
+export function referenceRemap(w: SparseWeights, rowRef: Float64Array, ref: number, n: Float64Array, d: Float64Array, rule: LevelRule): { values: Float64Array; coverage: Float64Array } {
+  const values = new Float64Array(w.nRows), coverage = new Float64Array(w.nRows);
+  for (let r = 0; r < w.nRows; r++) {
+    let a = 0, b = 0;
+    for (let p = w.rowPtr[r]; p < w.rowPtr[r + 1]; p++) {
+      a += w.w[p] * n[w.col[p]];
+      b += w.w[p] * d[w.col[p]];
+    }
+    const full = rowRef[r] * ref;
+    coverage[r] = full > 0 ? Math.min(b / full, 1) : 0;
+    values[r] = b > 0 && coverage[r] >= rule.threshold - 1e-12 ? (rule.normalise ? a / b : a / full) : NaN;
+  }
+  return { values, coverage };
 }

@@ -1,10 +1,14 @@
-// AssemblyScript, compiled to WebAssembly by main/build-kernels.mjs into separable-wasm.ts (never by tsc).
+// AssemblyScript, compiled to WebAssembly by main/build-kernels.mjs into remap-wasm.ts (never by tsc).
 //
-// The per-level work of conservative remapping between two lat-lon grids, whose weights factor into a
-// longitude part and a latitude part (Jones 1999): w[(jt, it), (js, is)] = lat[jt → js] · lon[it → is].
-// For each target level, accumulate fills the pairs nd = (Σ h·v, Σ h) over valid source values (per
-// source cell), then remapSeparable goes through the target rows: latitude factor on whole source rows
-// (two-lane, contiguous), longitude factor on that one row, then coverage and value from (a, b).
+// The per-level work of remapping one level of a field. For each target level, accumulate fills the
+// pairs nd = (Σ h·v, Σ h) over valid source values (per source cell, over the overlapping source
+// layers), then one of
+//   remapSparse:    any weights as a sparse matrix (CSR): (a, b) = Σ w · nd over each target row;
+//   remapSeparable: conservative weights between two lat-lon grids, which factor into a longitude part
+//                   and a latitude part (Jones 1999), w[(jt, it), (js, is)] = lat[jt → js] · lon[it → is]:
+//                   latitude factor on whole source rows (two-lane, contiguous), then the longitude
+//                   factor on that one row;
+// and coverage and value of each target cell from (a, b).
 // Every argument ending in P is a byte offset into the memory the caller passes in; the caller owns the
 // layout (app/regrid/separable-level.ts). Nothing here allocates.
 
@@ -130,13 +134,40 @@ function finishRow(abP: usize, r0: usize, tnx: i32, invRowRefP: usize, invRef: f
     v128.store64_lane(covP + (r << 2), f32x4.demote_f64x2_zero(c), 0);
     v128.store64_lane(valP + (r << 2), f32x4.demote_f64x2_zero(v128.bitselect(v, nan, ok)), 0);
   }
-  for (; i < n; i++) {
-    const r = r0 + i;
-    const a = load<f64>(abP + (i << 4)), b = load<f64>(abP + (i << 4) + 8);
-    const inv = load<f64>(invRowRefP + (r << 3)) * invRef;
-    let c = b * inv;
-    if (c > 1) c = 1;
-    store<f32>(covP + (r << 2), <f32>c);
-    store<f32>(valP + (r << 2), b > 0 && c >= floor ? <f32>(normalise != 0 ? a / b : a * inv) : NaN);
+  for (; i < n; i++) finishCell(r0 + i, load<f64>(abP + (i << 4)), load<f64>(abP + (i << 4) + 8), invRowRefP, invRef, floor, normalise, valP, covP);
+}
+
+/** Coverage and value of target cell r from its sums a = Σ w·h·v and b = Σ w·h (the rule of finishRow, one cell). */
+// @ts-ignore: decorator
+@inline
+function finishCell(r: usize, a: f64, b: f64, invRowRefP: usize, invRef: f64, floor: f64, normalise: i32, valP: usize, covP: usize): void {
+  const inv = load<f64>(invRowRefP + (r << 3)) * invRef;
+  let c = b * inv;
+  if (c > 1) c = 1;
+  store<f32>(covP + (r << 2), <f32>c);
+  store<f32>(valP + (r << 2), b > 0 && c >= floor ? <f32>(normalise != 0 ? a / b : a * inv) : NaN);
+}
+
+/**
+ * Any weights as a sparse matrix (CSR rowPtr, col, w): per target row r, (a, b) = Σ w[p] · nd[col[p]],
+ * two entries a step into two accumulators (no single dependency chain), then finishCell.
+ */
+export function remapSparse(nRows: i32, rowPtrP: usize, colP: usize, wP: usize, ndP: usize, invRowRefP: usize, invRef: f64, floor: f64, normalise: i32, valP: usize, covP: usize): void {
+  let p = load<i32>(rowPtrP);
+  for (let r = 0; r < nRows; r++) {
+    const end = load<i32>(rowPtrP + (<usize>(r + 1) << 2));
+    let acc0 = f64x2.splat(0), acc1 = f64x2.splat(0);
+    for (; p + 1 < end; p += 2) {
+      const q0 = <usize>load<i32>(colP + (<usize>p << 2)) << 4, q1 = <usize>load<i32>(colP + (<usize>(p + 1) << 2)) << 4;
+      acc0 = f64x2.add(acc0, f64x2.mul(f64x2.splat(load<f64>(wP + (<usize>p << 3))), v128.load(ndP + q0)));
+      acc1 = f64x2.add(acc1, f64x2.mul(f64x2.splat(load<f64>(wP + (<usize>(p + 1) << 3))), v128.load(ndP + q1)));
+    }
+    if (p < end) {
+      const q = <usize>load<i32>(colP + (<usize>p << 2)) << 4;
+      acc0 = f64x2.add(acc0, f64x2.mul(f64x2.splat(load<f64>(wP + (<usize>p << 3))), v128.load(ndP + q)));
+      p++;
+    }
+    const acc = f64x2.add(acc0, acc1);
+    finishCell(<usize>r, f64x2.extract_lane(acc, 0), f64x2.extract_lane(acc, 1), invRowRefP, invRef, floor, normalise, valP, covP);
   }
 }
