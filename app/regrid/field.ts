@@ -2,9 +2,9 @@ import type { FieldSource } from '../cf/field.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid, HorizontalGrid } from '../grid/types.js';
 import { rowSums, type RemapMethod, type SparseWeights } from './csr.js';
-import { separableWeights, type SeparableWeights } from './conservative-rectilinear.js';
+import type { SeparableWeights } from './conservative-rectilinear.js';
 import { inverse, NearestLevel, type LevelEngine, type SourceLayer } from './remap-level.js';
-import { SeparableLevel } from './separable-level.js';
+import { separableEngine } from './separable-level.js';
 import { SparseLevel } from './sparse-level.js';
 import { identityWeights, layerOverlapWeights, linearDepthWeights, type VerticalWeights } from './vertical-weights.js';
 import { defaultCacheDir } from './weight-cache.js';
@@ -62,7 +62,8 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
     checkBounds(sh, `${where}: the source grid has no usable cell bounds`);
   }
   const cacheDir = opts.cacheDir === undefined ? defaultCacheDir() : opts.cacheDir;
-  const factors: SeparableWeights | null = method === 'conservative' && isLatLon(sh) && isLatLon(th) ? separableWeights(sh, th) : null;
+  const separable = method === 'conservative' && isLatLon(sh) && isLatLon(th) ? separableEngine(sh, th) : null;
+  const factors: SeparableWeights | null = separable ? separable.factors : null;
   let matrix = factors ? null : remapWeights(sh, th, method, { cacheDir });
   const origin = matrix ? matrix.origin : 'separable';
   const entries = factors ? factors.entries : matrix!.weights.col.length;
@@ -85,8 +86,8 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
   const nTgt = th.nx * th.ny;
   const rule = { threshold, normalise };
   const stats = { sourceValues: 0, sourceValid: 0 };
-  const engine: LevelEngine = factors
-    ? new SeparableLevel(factors, inverse(th.area))
+  const engine: LevelEngine = separable
+    ? separable
     : method === 'nearest'
       ? new NearestLevel(fullMatrix())
       : SparseLevel.of(fullMatrix(), () => inverse(method === 'conservative' ? th.area : rowSums(fullMatrix())));

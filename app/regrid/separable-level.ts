@@ -1,5 +1,28 @@
-import type { AxisOverlap, SeparableWeights } from './conservative-rectilinear.js';
+import type { HorizontalGrid } from '../grid/types.js';
+import { separableWeights, type AxisOverlap, type SeparableWeights } from './conservative-rectilinear.js';
 import { KernelLevel } from './kernel-level.js';
+import { inverse } from './remap-level.js';
+import { weightKey } from './weight-cache.js';
+
+/** Engines of the last few lat-lon pairs, by a hash of both grids' edges: fields on one pair share one. */
+const engines = new Map<string, SeparableLevel>();
+const ENGINES_KEPT = 6;
+
+/** The engine for conservative remapping from one lat-lon grid onto another (made on first use). */
+export function separableEngine(source: HorizontalGrid, target: HorizontalGrid): SeparableLevel {
+  const key = weightKey(source, target, 'conservative');
+  let e = engines.get(key);
+  if (e) engines.delete(key);
+  else e = new SeparableLevel(separableWeights(source, target), inverse(target.area));
+  engines.set(key, e);
+  if (engines.size > ENGINES_KEPT) engines.delete(engines.keys().next().value as string);
+  return e;
+}
+
+/** Forget the kept engines (with the weights kept in memory: tests, or after a large job). */
+export function clearSeparableEngines(): void {
+  engines.clear();
+}
 
 /**
  * Conservative remapping between two lat-lon grids with the weights kept as their two factors, run in
@@ -10,9 +33,11 @@ export class SeparableLevel extends KernelLevel<'lonIdx' | 'lonW' | 'latStart' |
   private readonly slots: number;
 
   constructor(
-    private readonly w: SeparableWeights,
+    /** the two factors */
+    readonly factors: SeparableWeights,
     invRowRef: Float64Array,
   ) {
+    const w = factors;
     const lon = ellpack(w.lon, w.tgtNx);
     super(w.srcNx * w.srcNy, w.tgtNx * w.tgtNy, invRowRef, {
       lonIdx: lon.idx,
@@ -27,7 +52,8 @@ export class SeparableLevel extends KernelLevel<'lonIdx' | 'lonW' | 'latStart' |
   }
 
   protected apply(invRef: number, floor: number, normalise: number): void {
-    const { k, p, w } = this;
+    const { k, p } = this;
+    const w = this.factors;
     k.remapSeparable(w.tgtNy, w.tgtNx, w.srcNx, p.latStart, p.latSrc, p.latLen, this.slots, p.lonIdx, p.lonW, p.nd, p.row, p.ab, p.invRowRef, invRef, floor, normalise, p.val, p.cov);
   }
 }

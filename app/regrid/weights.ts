@@ -4,6 +4,7 @@ import { conservativeCurvilinear } from './conservative-curvilinear.js';
 import { conservativeRectilinear } from './conservative-rectilinear.js';
 import type { RemapMethod, SparseWeights } from './csr.js';
 import { bilinearWeights, nearestWeights } from './point-weights.js';
+import { clearSeparableEngines } from './separable-level.js';
 import { readCachedWeights, weightKey, writeCachedWeights } from './weight-cache.js';
 
 /** Weights kept in memory for the life of the process, so variables and runs on one grid share them. */
@@ -69,4 +70,5 @@ export function transpose(m: SparseWeights): SparseWeights {
 /** Forget the in-memory weights (tests, or after a large job). */
 export function clearWeightMemory(): void {
   memory.clear();
+  clearSeparableEngines();
 }

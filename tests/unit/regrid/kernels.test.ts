@@ -1,11 +1,11 @@
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { makeRectilinearGrid } from '../../../app/grid/rectilinear.js';
+import { makeRectilinearGrid, makeRegularGrid } from '../../../app/grid/rectilinear.js';
 import type { HorizontalGrid } from '../../../app/grid/types.js';
 import { conservativeRectilinear, expandSeparable, separableWeights } from '../../../app/regrid/conservative-rectilinear.js';
 import { inverse, type LevelEngine, type LevelRule, type SourceLayer } from '../../../app/regrid/remap-level.js';
-import { ellpack, SeparableLevel } from '../../../app/regrid/separable-level.js';
+import { ellpack, SeparableLevel, separableEngine } from '../../../app/regrid/separable-level.js';
 import { SparseLevel } from '../../../app/regrid/sparse-level.js';
 import type { SparseWeights } from '../../../app/regrid/csr.js';
 import { rowSums } from '../../../app/regrid/csr.js';
@@ -116,6 +116,15 @@ describe('the WebAssembly engines follow the remapping rule to single-precision 
     expect(Array.from(a.rowPtr)).toEqual(Array.from(b.rowPtr));
     expect(Array.from(a.col)).toEqual(Array.from(b.col));
     expect(Array.from(a.w)).toEqual(Array.from(b.w));
+  });
+
+  it('one engine per pair of lat-lon grids (equal grids built twice share it), one per sparse weights', () => {
+    const a = separableEngine(makeRegularGrid(2, 2), makeRegularGrid(1, 1));
+    expect(separableEngine(makeRegularGrid(2, 2), makeRegularGrid(1, 1))).toBe(a);
+    expect(separableEngine(makeRegularGrid(2, 2), makeRegularGrid(1.5, 1.5))).not.toBe(a);
+    const w = buildWeights(distortedGrid(36, 18, -80, 80), makeRegularGrid(10, 10), 'conservative');
+    const inv = () => new Float64Array(w.nRows).fill(1);
+    expect(SparseLevel.of(w, inv)).toBe(SparseLevel.of(w, inv));
   });
 
   it('ellpack pads each column to the longest with weight 0 on a source the column has', () => {
