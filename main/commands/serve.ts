@@ -43,6 +43,14 @@ async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean
   if (s.recipe) guard.grant(dirname(s.recipe));
   const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: join(process.cwd(), '.stillwater-cache'), heavy: workerRunner() });
   const server = await startServer({ dispatcher, port: s.port, startRecipe: s.recipe, root });
+  // Ctrl+C is handled before the address is printed: whoever reads the address may stop us at once
+  const stopped = new Promise<number>((done) => {
+    const stop = (): void => {
+      void server.close().then(() => done(0));
+    };
+    process.once('SIGINT', stop);
+    process.once('SIGTERM', stop);
+  });
   if (!existsSync(join(root, 'dist', 'renderer', 'index.html'))) err(`${who}: dist/renderer/index.html is missing; run npm run build.`);
   err(`${who}: the workbench is at ${server.url}`);
   err(`${who}: files readable under ${guard.roots.join(', ')}; press Ctrl+C to stop.`);
@@ -61,13 +69,7 @@ async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean
       err(`${who}: no system browser to open here; open the address above yourself.`);
     }
   }
-  return new Promise<number>((done) => {
-    const stop = (): void => {
-      void server.close().then(() => done(0));
-    };
-    process.once('SIGINT', stop);
-    process.once('SIGTERM', stop);
-  });
+  return stopped;
 }
 
 /** Electron window; resolves with its exit code, or with undefined when it failed to come up at all. */
