@@ -86,11 +86,8 @@ export async function regridField(src: FieldSource, target: Grid, opts: RegridOp
   const nTgt = th.nx * th.ny;
   const rule = { threshold, normalise };
   const stats = { sourceValues: 0, sourceValid: 0 };
-  const engine: LevelEngine = separable
-    ? separable
-    : method === 'nearest'
-      ? new NearestLevel(fullMatrix())
-      : SparseLevel.of(fullMatrix(), () => inverse(method === 'conservative' ? th.area : rowSums(fullMatrix())));
+  const engine: LevelEngine =
+    separable ?? (method === 'nearest' ? new NearestLevel(fullMatrix()) : SparseLevel.of(fullMatrix(), () => inverse(method === 'conservative' ? th.area : rowSums(fullMatrix()))));
   const levels = new LevelCache(src, 4);
   const lastCoverage = new Map<number, { data: Float32Array; recyclable: boolean }>();
 
