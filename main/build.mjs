@@ -4,6 +4,7 @@ import { build } from 'esbuild';
 import { cpSync, existsSync, mkdirSync, readdirSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { distIsStale } from './dist-stale.mjs';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const dist = join(root, 'dist');
@@ -65,8 +66,10 @@ export async function buildAll() {
   writeFileSync(join(dist, '.build-stamp'), new Date().toISOString());
 }
 
+// node main/build.mjs [--if-stale]: build (with --if-stale only when a source is newer than dist/)
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
-  buildAll().catch((e) => {
+  const skip = process.argv.includes('--if-stale') && !distIsStale(root);
+  (skip ? Promise.resolve() : buildAll()).catch((e) => {
     console.error(e);
     process.exit(1);
   });

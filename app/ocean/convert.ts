@@ -38,7 +38,9 @@ type Frame = 'per_volume' | 'per_mass' | 'gas_volume';
 
 /**
  * TEOS-10 density per cell (NaN where temperature or salinity is missing), computed once per level: every
- * variable of every run converted on that level passes the same temperature and salinity arrays.
+ * variable of every run converted on that level passes the same temperature and salinity arrays. Keyed by
+ * the arrays themselves, so it relies on a level's arrays never being written once they are handed out
+ * (readLevel gives fresh arrays everywhere).
  */
 const levelDensity = new WeakMap<Float32Array, { salinity: Float32Array; pressure: number; rho: Float64Array }>();
 function densityOfLevel(T: Float32Array, S: Float32Array, p: number): Float64Array {

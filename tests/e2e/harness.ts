@@ -11,7 +11,7 @@
  *   await wb.close();
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
@@ -23,24 +23,6 @@ export const SAMPLE_DATA = join(PROJECT, 'sample-data');
 export const SCREENSHOTS = join(PROJECT, 'tests', 'e2e', 'screenshots');
 export const CHROMIUM = '/usr/bin/chromium';
 const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'];
-
-function newestSource(dir: string): number {
-  let newest = 0;
-  for (const e of readdirSync(dir, { withFileTypes: true })) {
-    const p = join(dir, e.name);
-    if (e.isDirectory()) newest = Math.max(newest, newestSource(p));
-    else if (/\.(ts|mjs|html|css|json)$/.test(e.name)) newest = Math.max(newest, statSync(p).mtimeMs);
-  }
-  return newest;
-}
-
-/** Is dist/ older than app/, main/ or renderer/ (the same rule as main/launch.mjs)? */
-function distIsStale(): boolean {
-  const stamp = join(PROJECT, 'dist', '.build-stamp');
-  if (!existsSync(stamp)) return true;
-  const built = statSync(stamp).mtimeMs;
-  return ['app', 'main', 'renderer', 'sample-data/generator'].some((d) => newestSource(join(PROJECT, d)) > built);
-}
 
 /** Several test files start at once: one build (and demo generation) at a time, no build while dist/ is fresh. */
 async function buildAndDemo(): Promise<void> {
@@ -57,10 +39,9 @@ async function buildAndDemo(): Promise<void> {
     }
   }
   try {
-    if (distIsStale()) {
-      const b = spawnSync(process.execPath, [join(PROJECT, 'main', 'build.mjs')], { cwd: PROJECT, encoding: 'utf8' });
-      if (b.status !== 0) throw new Error(`node main/build.mjs failed: ${b.stderr}`);
-    }
+    // the same staleness rule as the `stillwater` bin (main/dist-stale.mjs)
+    const b = spawnSync(process.execPath, [join(PROJECT, 'main', 'build.mjs'), '--if-stale'], { cwd: PROJECT, encoding: 'utf8' });
+    if (b.status !== 0) throw new Error(`node main/build.mjs failed: ${b.stderr}`);
     await ensureDemo(SAMPLE_DATA);
   } finally {
     rmSync(lock, { recursive: true, force: true });
