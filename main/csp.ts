@@ -1,7 +1,7 @@
 /**
  * The Content-Security-Policy and companion headers of the workbench page, sent by both transports
  * (Electron's session.webRequest and the browser-mode server). Nothing remote is allowed: scripts, styles,
- * images and data come from the page's own origin only. Inline styles are allowed because plotly sets them;
+ * images and data come from the page's own origin only. Inline styles are allowed because views set element styles;
  * inline scripts, eval, plugins, frames, forms and <base> are not.
  */
 export const CONTENT_SECURITY_POLICY = [

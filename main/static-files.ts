@@ -1,6 +1,6 @@
 /**
  * Which files the workbench page may load, the same for both transports: the built renderer in dist/renderer
- * and a fixed list of vendor files from node_modules (plotly, Natural Earth shapes of world-atlas).
+ * and a fixed list of vendor files from node_modules (the Natural Earth shapes of world-atlas).
  * Nothing else from disk, nothing ever from the network.
  */
 import { existsSync, realpathSync, statSync } from 'node:fs';
@@ -21,7 +21,6 @@ export function projectRoot(): string {
 }
 
 const VENDOR_FILES: Record<string, string> = {
-  [VENDOR.plotly]: 'node_modules/plotly.js-dist-min/plotly.min.js',
   [VENDOR.land110m]: 'node_modules/world-atlas/land-110m.json',
   [VENDOR.land50m]: 'node_modules/world-atlas/land-50m.json',
   [VENDOR.countries110m]: 'node_modules/world-atlas/countries-110m.json',
@@ -45,7 +44,7 @@ export function contentType(file: string): string {
 }
 
 /**
- * The file behind a URL path such as "/", "/app.js" or "/vendor/plotly.min.js", or undefined.
+ * The file behind a URL path such as "/", "/app.js" or "/vendor/world-atlas/land-110m.json", or undefined.
  * Renderer files must lie inside dist/renderer after symbolic links are followed.
  */
 export function staticFile(urlPath: string, root: string = projectRoot()): string | undefined {

@@ -80,7 +80,6 @@ export const TOKEN_COOKIE = 'stillwater_token';
  * The server side maps them to files inside node_modules; nothing is ever fetched from the network.
  */
 export const VENDOR = {
-  plotly: 'vendor/plotly.min.js',
   land110m: 'vendor/world-atlas/land-110m.json',
   land50m: 'vendor/world-atlas/land-50m.json',
   countries110m: 'vendor/world-atlas/countries-110m.json',

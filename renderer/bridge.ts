@@ -204,7 +204,7 @@ export async function startRecipe(): Promise<string | null> {
   return body.recipe ?? null;
 }
 
-/** URL of a bundled vendor file (plotly, world-atlas shapes), the same in both transports. */
+/** URL of a bundled vendor file (world-atlas shapes), the same in both transports. */
 export function vendorUrl(key: keyof typeof VENDOR): string {
   return VENDOR[key];
 }

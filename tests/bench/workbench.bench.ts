@@ -11,7 +11,7 @@
  * Run: npm run bench -- workbench
  */
 import { build } from 'esbuild';
-import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { chromium } from 'playwright-core';
 import { CHROMIUM, PROJECT, SAMPLE_DATA, openWorkbench, prepare, startServe } from '../e2e/harness.js';
@@ -98,11 +98,13 @@ async function syntheticFields(): Promise<Row[]> {
   const outDir = join(PROJECT, 'dist', 'renderer', 'bench');
   mkdirSync(outDir, { recursive: true });
   await build({ entryPoints: [join(PROJECT, 'tests', 'bench', 'workbench-page.ts')], outfile: join(outDir, 'page.js'), bundle: true, platform: 'browser', format: 'esm', target: 'chrome120', logLevel: 'error' });
+  // The peer is a devDependency: copied beside the bench page, never served by the workbench itself.
+  copyFileSync(join(PROJECT, 'node_modules', 'plotly.js-dist-min', 'plotly.min.js'), join(outDir, 'plotly.min.js'));
   const csp = /http-equiv="Content-Security-Policy"\s+content="([^"]+)"/.exec(readFileSync(join(PROJECT, 'renderer', 'index.html'), 'utf8'))![1];
   writeFileSync(
     join(outDir, 'index.html'),
     `<!doctype html><html><head><meta charset="utf-8"><meta http-equiv="Content-Security-Policy" content="${csp}"><title>bench</title><link rel="icon" href="data:,">` +
-      `<script src="../vendor/plotly.min.js"></script><script type="module" src="page.js"></script></head><body></body></html>`,
+      `<script src="plotly.min.js"></script><script type="module" src="page.js"></script></head><body></body></html>`,
   );
   const served = await startServe(['--root', SAMPLE_DATA]);
   const browser = await chromium.launch({ executablePath: CHROMIUM, args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'] });
