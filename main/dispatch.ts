@@ -7,7 +7,7 @@ import { EventEmitter } from 'node:events';
 import type { z } from 'zod';
 import { StillwaterError, isStillwaterError } from '../app/errors.js';
 import type { ServiceContext, ServiceEntry } from '../app/services/types.js';
-import type { CallReply, ProgressEvent, WireError } from '../renderer/bridge-contract.js';
+import type { CallReply, ProgressEvent, WireError } from '../contract/transport.js';
 import type { PathGuard } from './path-guard.js';
 
 /** Runs a heavy entry elsewhere (main/workers.ts); resolves with the result or rejects with the error. */

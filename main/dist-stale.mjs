@@ -4,7 +4,7 @@ import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 
 /** the folders whose files go into dist/ (the demo generator is bundled into the command line) */
-const SOURCES = ['app', 'main', 'renderer', 'sample-data/generator'];
+const SOURCES = ['app', 'contract', 'main', 'renderer', 'sample-data/generator'];
 
 function newestSource(dir) {
   let newest = 0;

@@ -5,7 +5,7 @@
 import { BrowserWindow, app, ipcMain } from 'electron';
 import { dirname, join } from 'node:path';
 import { serviceTable } from '../app/service.js';
-import { IPC } from '../renderer/bridge-contract.js';
+import { IPC } from '../contract/transport.js';
 import { Dispatcher } from './dispatch.js';
 import { registerIpc } from './ipc.js';
 import { PathGuard } from './path-guard.js';

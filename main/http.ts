@@ -8,8 +8,8 @@ import { randomBytes, timingSafeEqual } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { ROUTES, TOKEN_COOKIE, TOKEN_HEADER, type ProgressEvent } from '../renderer/bridge-contract.js';
-import { WIRE_CONTENT_TYPE, encodeWire } from '../renderer/wire.js';
+import { ROUTES, TOKEN_COOKIE, TOKEN_HEADER, type ProgressEvent } from '../contract/transport.js';
+import { WIRE_CONTENT_TYPE, encodeWire } from '../contract/wire.js';
 import { securityHeaders } from './csp.js';
 import type { Dispatcher } from './dispatch.js';
 import { contentType, projectRoot, staticFile } from './static-files.js';
@@ -124,7 +124,12 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
       } catch {
         return sendJson(res, 400, { error: { code: 'E_INPUT', message: 'The request body is not JSON of at most 4 MB.' } });
       }
-      const name = decodeURIComponent(path.slice(ROUTES.api.length));
+      let name: string;
+      try {
+        name = decodeURIComponent(path.slice(ROUTES.api.length));
+      } catch {
+        return sendJson(res, 400, { error: { code: 'E_INPUT', message: 'The service name in the address is not valid percent-encoding.' } });
+      }
       const reply = await dispatcher.call(name, body?.input ?? null, body?.jobId);
       if (reply.ok) return send(res, 200, WIRE_CONTENT_TYPE, encodeWire(reply.result));
       const notFound = reply.error.code === 'E_INPUT' && reply.error.message.startsWith('There is no service');

@@ -3,7 +3,7 @@
  * the call comes from our own page and validating the input against the entry's schema (in Dispatcher).
  * Written against a narrow interface of ipcMain so that a test can drive it without Electron.
  */
-import { IPC, type CallReply, type OpenDialogOptions } from '../renderer/bridge-contract.js';
+import { IPC, type CallReply, type OpenDialogOptions } from '../contract/transport.js';
 import type { ServiceEntry } from '../app/services/types.js';
 import type { Dispatcher } from './dispatch.js';
 import { isAppUrl } from './window-options.js';

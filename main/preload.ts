@@ -4,7 +4,7 @@
  * inputs are validated against their schemas in the main process.
  */
 import { contextBridge, ipcRenderer, type IpcRendererEvent } from 'electron';
-import { IPC, type OpenDialogOptions, type PreloadApi, type ProgressEvent } from '../renderer/bridge-contract.js';
+import { IPC, type OpenDialogOptions, type PreloadApi, type ProgressEvent } from '../contract/transport.js';
 
 const NAME = /^[a-z][A-Za-z0-9]*(\.[A-Za-z0-9-]+)*$/;
 

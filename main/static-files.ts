@@ -6,7 +6,7 @@
 import { existsSync, realpathSync, statSync } from 'node:fs';
 import { dirname, extname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { VENDOR } from '../renderer/bridge-contract.js';
+import { VENDOR } from '../contract/transport.js';
 import { isInside } from './path-guard.js';
 
 /** The project folder: found from this bundle's location (dist/) or from the source (main/). */

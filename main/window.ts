@@ -5,7 +5,7 @@
 import { BrowserWindow, Menu, app, dialog, protocol, session, type MenuItemConstructorOptions, type WebContents } from 'electron';
 import { join } from 'node:path';
 import { readFile } from 'node:fs/promises';
-import type { OpenDialogOptions } from '../renderer/bridge-contract.js';
+import type { OpenDialogOptions } from '../contract/transport.js';
 import { securityHeaders } from './csp.js';
 import { contentType, staticFile } from './static-files.js';
 import { APP_HOST, APP_SCHEME, START_URL, blocksNavigation, grantsPermission, hardenedHeaders, windowOpenDecision, windowOptions } from './window-options.js';

@@ -1,5 +1,5 @@
 /** Messages between main/workers.ts (the parent) and main/worker.ts (a worker thread running one job). */
-import type { WireError } from '../renderer/bridge-contract.js';
+import type { WireError } from '../contract/transport.js';
 
 export interface WorkerJob {
   name: string;

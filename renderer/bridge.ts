@@ -10,11 +10,11 @@
  *
  * Results keep typed arrays (Float32Array, ...) and NaN in both transports.
  */
-import type { CallReply, OpenDialogOptions, PreloadApi, ProgressEvent, WireError } from './bridge-contract.js';
-import { ROUTES, TOKEN_HEADER, VENDOR } from './bridge-contract.js';
-import { WIRE_CONTENT_TYPE, decodeWire } from './wire.js';
+import type { CallReply, OpenDialogOptions, PreloadApi, ProgressEvent, WireError } from '../contract/transport.js';
+import { ROUTES, TOKEN_HEADER, VENDOR } from '../contract/transport.js';
+import { WIRE_CONTENT_TYPE, decodeWire } from '../contract/wire.js';
 
-export type { ProgressEvent, OpenDialogOptions } from './bridge-contract.js';
+export type { ProgressEvent, OpenDialogOptions } from '../contract/transport.js';
 
 /** A refusal or fault from a service, with the StillwaterError code (E_FILE, E_RECIPE, E_CANCELLED, ...). */
 export class ServiceError extends Error {

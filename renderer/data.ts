@@ -3,7 +3,7 @@
  * cancel it) and results that are asked for again are kept (a bounded cache, newest last).
  */
 import type { ComparisonResult } from '../app/compare/run.js';
-import type { LevelData, ProfileData, SectionData, SectionKind, SessionInfo, TableFormat, TableText } from '../app/render/view-types.js';
+import type { LevelData, ProfileData, SectionData, SectionKind, SessionInfo, TableFormat, TableText } from '../contract/view-types.js';
 import { PromiseCache } from '../app/promise-cache.js';
 import { call, cancel, newJobId, type ProgressEvent } from './bridge.js';
 

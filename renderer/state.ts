@@ -3,7 +3,7 @@
  * points at. Views subscribe and redraw; nothing else holds state.
  */
 import type { ProjectionId } from '../app/render/projections.js';
-import type { SectionKind, SessionInfo } from '../app/render/view-types.js';
+import type { SectionKind, SessionInfo } from '../contract/view-types.js';
 
 export type ViewId = 'map' | 'difference' | 'section' | 'profile' | 'diagram' | 'scores' | 'spinup' | 'line';
 

@@ -2,10 +2,10 @@ import { readFile } from 'node:fs/promises';
 import { dirname, resolve } from 'node:path';
 import { StillwaterError } from '../errors.js';
 import type { Recipe } from './types.js';
-import { validateRecipe } from './validate.js';
+import { validateRecipe, type ValidateOptions } from './validate.js';
 
 /** Read, parse and validate a recipe file; relative paths in it resolve against its folder. */
-export async function loadRecipe(path: string): Promise<Recipe> {
+export async function loadRecipe(path: string, opts: ValidateOptions = {}): Promise<Recipe> {
   const abs = resolve(path);
   let text: string;
   try {
@@ -20,7 +20,7 @@ export async function loadRecipe(path: string): Promise<Recipe> {
     throw new StillwaterError('E_RECIPE', `${abs}: the recipe is not valid JSON (${(e as Error).message}).`, { file: abs });
   }
   try {
-    return validateRecipe(json, dirname(abs));
+    return validateRecipe(json, dirname(abs), opts);
   } catch (e) {
     if (e instanceof StillwaterError) throw new StillwaterError(e.code, `${abs}: ${e.message}`, { ...e.subject, file: abs });
     throw e;

@@ -25,36 +25,58 @@ function issueSentence(issue: { code: string; message: string; keys?: string[] }
   return issue.message.replace(/^Invalid input: /, '').replace(/\.$/, '');
 }
 
-function existingFile(baseDir: string, file: string, path: string): string {
-  const abs = isAbsolute(file) ? file : resolve(baseDir, file);
+export interface ValidateOptions {
+  /**
+   * Called with every file the recipe names before anything looks at the disk; throws for a file that may
+   * not be read (browser mode), so that whether a file outside the allowed folders exists is never told.
+   */
+  confine?: (file: string) => void;
+}
+
+/** Where the files are taken from, and who may refuse them. */
+interface Place {
+  baseDir: string;
+  confine?: (file: string) => void;
+}
+
+function existingFile(place: Place, file: string, path: string): string {
+  const abs = isAbsolute(file) ? file : resolve(place.baseDir, file);
+  if (place.confine) {
+    try {
+      place.confine(abs);
+    } catch (e) {
+      if (e instanceof StillwaterError) throw new StillwaterError(e.code, `${path}: ${e.message}`, { ...e.subject, path });
+      throw e;
+    }
+  }
   if (!existsSync(abs)) throw recipeError(path, `no such file '${abs}'.`);
   if (!statSync(abs).isFile()) throw recipeError(path, `'${abs}' is not a file.`);
   return abs;
 }
 
-function resolveSource(src: ParsedRecipe['reference'] | ParsedRecipe['runs'][number], path: string, baseDir: string): SourceSpec {
-  const file = src.file ? existingFile(baseDir, src.file, `${path}.file`) : undefined;
+function resolveSource(src: ParsedRecipe['reference'] | ParsedRecipe['runs'][number], path: string, place: Place): SourceSpec {
+  const file = src.file ? existingFile(place, src.file, `${path}.file`) : undefined;
   const variables: Record<string, VariableSource> = {};
   for (const [key, entry] of Object.entries(src.variables)) {
     const vpath = `${path}.variables${formatPath([key]).startsWith('[') ? '' : '.'}${formatPath([key])}`;
     const v = typeof entry === 'string' ? { name: entry } : entry;
     let vfile: string;
-    if (v.file) vfile = existingFile(baseDir, v.file, `${vpath}.file`);
+    if (v.file) vfile = existingFile(place, v.file, `${vpath}.file`);
     else if (file) vfile = file;
     else throw recipeError(`${vpath}.file`, `no file given (and ${path} has no file of its own).`);
     variables[key] = { file: vfile, name: v.name ?? key, units: v.units, time: v.time, path: vpath };
   }
   const snapshots = 'snapshots' in src && src.snapshots
-    ? src.snapshots.map((s, i) => ({ file: existingFile(baseDir, s.file, `${path}.snapshots[${i}].file`), year: s.year }))
+    ? src.snapshots.map((s, i) => ({ file: existingFile(place, s.file, `${path}.snapshots[${i}].file`), year: s.year }))
     : undefined;
   return { label: src.label, file, variables, snapshots, path };
 }
 
-function resolveRegion(r: RegionEntry, i: number, baseDir: string): ResolvedRegion {
+function resolveRegion(r: RegionEntry, i: number, place: Place): ResolvedRegion {
   const path = `regions[${i}]`;
   if (typeof r === 'string') return { kind: 'built-in', name: r };
-  if ('mask' in r) return { kind: 'mask', file: existingFile(baseDir, r.mask, `${path}.mask`), variable: r.variable, flags: r.flags, path };
-  return { kind: 'geojson', file: existingFile(baseDir, r.geojson, `${path}.geojson`), property: r.property ?? 'name', features: r.features, path };
+  if ('mask' in r) return { kind: 'mask', file: existingFile(place, r.mask, `${path}.mask`), variable: r.variable, flags: r.flags, path };
+  return { kind: 'geojson', file: existingFile(place, r.geojson, `${path}.geojson`), property: r.property ?? 'name', features: r.features, path };
 }
 
 function lowerFirst(s: string): string {
@@ -67,15 +89,16 @@ export function layerFromEntry(l: LayerEntry): LayerSpec {
 }
 
 /** Validate parsed JSON as a recipe; `baseDir` is the folder relative paths are taken from. */
-export function validateRecipe(json: unknown, baseDir: string): Recipe {
+export function validateRecipe(json: unknown, baseDir: string, opts: ValidateOptions = {}): Recipe {
+  const place: Place = { baseDir, confine: opts.confine };
   const parsed = recipeSchema.safeParse(json);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     throw recipeError(formatPath(issue.path), `${issueSentence(issue as { code: string; message: string; keys?: string[] })}.`);
   }
   const p = parsed.data;
-  const reference = resolveSource(p.reference, 'reference', baseDir);
-  const runs = p.runs.map((r, i) => resolveSource(r, `runs[${i}]`, baseDir));
+  const reference = resolveSource(p.reference, 'reference', place);
+  const runs = p.runs.map((r, i) => resolveSource(r, `runs[${i}]`, place));
   const refKeys = Object.keys(reference.variables);
   if (refKeys.length === 0) throw recipeError('reference.variables', 'names no variable.');
   const derivedKeys = Object.keys(p.options.derived);
@@ -124,7 +147,7 @@ export function validateRecipe(json: unknown, baseDir: string): Recipe {
     baseDir,
     reference,
     runs,
-    regions: p.regions.map((r, i) => resolveRegion(r, i, baseDir)),
+    regions: p.regions.map((r, i) => resolveRegion(r, i, place)),
     layers: p.layers.map(layerFromEntry),
     options: p.options,
     variables: known,

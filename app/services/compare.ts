@@ -38,7 +38,7 @@ export const compareServices: ServiceEntry[] = [
     summary: 'Read and check a recipe file; returns it with absolute paths and defaults filled in.',
     input: z.object({ path: z.string() }),
     async run(input, ctx) {
-      const recipe = guard(await loadRecipe(ctx.resolvePath(input.path)), ctx);
+      const recipe = guard(await loadRecipe(ctx.resolvePath(input.path), { confine: ctx.resolvePath }), ctx);
       return { recipe: recipeToJson(recipe), baseDir: recipe.baseDir, variables: recipe.variables };
     },
   }),
@@ -48,7 +48,7 @@ export const compareServices: ServiceEntry[] = [
     input: recipeInput,
     async run(input, ctx) {
       try {
-        const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir)), ctx);
+        const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath }), ctx);
         return { ok: true as const, variables: recipe.variables };
       } catch (e) {
         if (isStillwaterError(e) && e.isBadInput) return { ok: false as const, message: e.message, path: e.subject.path ?? null };
@@ -62,7 +62,7 @@ export const compareServices: ServiceEntry[] = [
     input: z.object({ path: z.string(), recipe: z.unknown(), baseDir: z.string() }),
     async run(input, ctx) {
       const path = ctx.resolvePath(input.path);
-      const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir)), ctx);
+      const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath }), ctx);
       await writeFilesAtomically([{ path, text: JSON.stringify(recipeToJson(recipe, dirname(path)), null, 2) + '\n' }]);
       return { path };
     },
@@ -73,7 +73,7 @@ export const compareServices: ServiceEntry[] = [
     input: recipeInput,
     heavy: true,
     async run(input, ctx): Promise<ComparisonResult> {
-      const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir)), ctx);
+      const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath }), ctx);
       return runComparison(recipe, { cacheDir: ctx.cacheDir, signal: ctx.signal, onProgress: (f, m) => ctx.progress(f, m) });
     },
   }),

@@ -39,7 +39,7 @@ const pointsInput = z.object({
 
 /** Every file the recipe names for this variable must lie in the folders the workbench may read. */
 function guardedRecipe(input: { recipe: unknown; baseDir: string }, variable: string, ctx: ServiceContext): Recipe {
-  const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir));
+  const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath });
   const sources = [{ s: recipe.reference, path: 'reference' }, ...recipe.runs.map((s, i) => ({ s, path: `runs[${i}]` }))];
   for (const { s, path } of sources) {
     const v = s.variables[variable];

@@ -35,7 +35,7 @@ const spinupInput = z.object({
 type SpinupInput = z.infer<typeof spinupInput>;
 
 function guardedRecipe(input: SpinupInput, ctx: ServiceContext): Recipe {
-  const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir));
+  const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath });
   for (const s of [recipe.reference, ...recipe.runs]) {
     for (const v of Object.values(s.variables)) ctx.resolvePath(v.file);
     for (const x of s.snapshots ?? []) ctx.resolvePath(x.file);
@@ -99,7 +99,7 @@ export const spinupServices: ServiceEntry[] = [
     input: spinupInput.omit({ variables: true, skill: true }),
     heavy: true,
     async run(input, ctx): Promise<SpinupSummary | null> {
-      const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir));
+      const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath });
       const run = input.run !== undefined ? recipe.runs.find((r) => r.label === input.run) : recipe.runs.find((r) => r.snapshots?.length);
       if (!run?.snapshots?.length) return null;
       return (await follow({ ...input, run: run.label }, ctx, false)).summary;

@@ -27,7 +27,7 @@ import { layerLevelMetres, type LayerSpec } from '../regions/layers.js';
 import type { Region } from '../regions/region.js';
 import { areaMean, atLevels, bottomLevels, layerMeans, levelsOf, meridianSection, parallelSection, seafloorOf, zonalMeans } from '../render/slices.js';
 import { findInterval } from '../render/pixel-lookup.js';
-import type { LayerChoice, LevelData, ProfileData, SectionData, SessionInfo, SourceInfo, TableText, ViewGrid } from '../render/view-types.js';
+import type { LayerChoice, LevelData, ProfileData, SectionData, SessionInfo, SourceInfo, TableText, ViewGrid } from '../../contract/view-types.js';
 import { entry, type ServiceContext, type ServiceEntry } from './types.js';
 
 // ---------- sessions ----------
@@ -482,7 +482,7 @@ export const viewsServices: ServiceEntry[] = [
     input: z.object({ recipe: z.string().min(1) }),
     async run(input, ctx): Promise<SessionInfo> {
       const path = ctx.resolvePath(input.recipe);
-      const recipe = await loadRecipe(path);
+      const recipe = await loadRecipe(path, { confine: ctx.resolvePath });
       const s = await buildSession(recipe, path, ctx);
       sessions.set(s.id, s);
       return s.info;
@@ -521,7 +521,7 @@ export const viewsServices: ServiceEntry[] = [
         json.runs.push(run);
       }
       run.variables[input.variable] = { file, name: input.name, ...(input.units ? { units: input.units } : {}) };
-      const recipe = validateRecipe(json, s.recipe.baseDir);
+      const recipe = validateRecipe(json, s.recipe.baseDir, { confine: ctx.resolvePath });
       const next = await buildSession(recipe, s.recipePath, ctx, s.id, true);
       // the levels already read stay valid for the other variables
       s.levels.clear(`${input.variable}\u0000`);

@@ -12,7 +12,7 @@ import { StillwaterError } from '../../app/errors.js';
 import { allowOnly, optional, optionalNumber, parseArgs, type ParsedArgs } from '../args.js';
 import { err, out, type Command } from '../command.js';
 import { Dispatcher } from '../dispatch.js';
-import { startServer } from '../http.js';
+import { BIND_ADDRESS, startServer } from '../http.js';
 import { PathGuard } from '../path-guard.js';
 import { browserOpener, electronBinary, hasDisplay } from '../shell-detect.js';
 import { projectRoot } from '../static-files.js';
@@ -52,7 +52,8 @@ async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean
     process.once('SIGTERM', stop);
   });
   if (!existsSync(join(root, 'dist', 'renderer', 'index.html'))) err(`${who}: dist/renderer/index.html is missing; run npm run build.`);
-  err(`${who}: the workbench is at ${server.url}`);
+  // the address carries the token: printed once, on stdout, for whoever started us
+  err(`${who}: serving on ${BIND_ADDRESS}:${server.port}; the address to open (with its token) is on stdout.`);
   err(`${who}: files readable under ${guard.roots.join(', ')}; press Ctrl+C to stop.`);
   out(server.url);
   if (openBrowser) {

@@ -3,7 +3,7 @@
  * position, the depth of the cell and its volume.
  */
 import { cellAt } from '../../app/render/pixel-lookup.js';
-import type { LevelData } from '../../app/render/view-types.js';
+import type { LevelData } from '../../contract/view-types.js';
 import { getLevel } from '../data.js';
 import { fmt, fmtLat, fmtLon, h } from '../dom.js';
 import { setProbe, subscribe, type AppState } from '../state.js';

@@ -2,7 +2,7 @@
  * The sources panel: the recipe, the reference and the runs with their variables and units; open a
  * recipe, pair a run's variable with a reference variable (adding a run), save the session as a recipe.
  */
-import type { SessionInfo, SourceInfo } from '../../app/render/view-types.js';
+import type { SessionInfo, SourceInfo } from '../../contract/view-types.js';
 import { call } from '../bridge.js';
 import { clearCaches, openSession, tracked } from '../data.js';
 import { h, select } from '../dom.js';

@@ -7,7 +7,7 @@ import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/
 import { buildPixelLookup, canvasHeightFor, pixelToProjected } from '../../app/render/pixel-lookup.js';
 import { makeProjection, type MapProjection, type ProjectionId } from '../../app/render/projections.js';
 import { packRgba, recolour } from '../../app/render/recolour.js';
-import type { LevelData, ViewGrid } from '../../app/render/view-types.js';
+import type { LevelData, ViewGrid } from '../../contract/view-types.js';
 import { getLevel } from '../data.js';
 import { h, s } from '../dom.js';
 import { coastlines, coastlinesIfReady } from '../plot/coast.js';

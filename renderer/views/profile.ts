@@ -1,5 +1,5 @@
 /** Profile view: the area-weighted mean profile of a region, the reference and every run, depth downwards. */
-import type { ProfileData } from '../../app/render/view-types.js';
+import type { ProfileData } from '../../contract/view-types.js';
 import { getProfile } from '../data.js';
 import { h, s } from '../dom.js';
 import { linear, padded } from '../plot/scale.js';

@@ -1,7 +1,7 @@
 /** Scores view: the skill table, sortable and filterable, exported as CSV, Markdown, LaTeX or JSON. */
 import type { ComparisonResult } from '../../app/compare/run.js';
 import type { SkillRow } from '../../app/compare/rows.js';
-import type { TableFormat } from '../../app/render/view-types.js';
+import type { TableFormat } from '../../contract/view-types.js';
 import { getSkill, getTable } from '../data.js';
 import { fmt, h, saveBlob } from '../dom.js';
 import { state, type AppState } from '../state.js';

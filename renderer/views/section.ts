@@ -3,7 +3,7 @@
  * depth downwards and the seafloor drawn; the run, the reference or their difference.
  */
 import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
-import type { SectionData } from '../../app/render/view-types.js';
+import type { SectionData } from '../../contract/view-types.js';
 import { getSection } from '../data.js';
 import { h } from '../dom.js';
 import { latText, lonText, sectionFigure } from '../plot/section-figure.js';

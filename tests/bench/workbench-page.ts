@@ -5,7 +5,7 @@
  */
 import { quantileRange } from '../../app/render/colour-scales.js';
 import { canvasHeightFor } from '../../app/render/pixel-lookup.js';
-import type { ViewGrid } from '../../app/render/view-types.js';
+import type { ViewGrid } from '../../contract/view-types.js';
 import { lookupFor, paint, projectionOf, type MapChoice } from '../../renderer/views/map.js';
 
 interface PlotlyLike {

@@ -58,6 +58,8 @@ describe('stillwater start and serve', () => {
     const r = await runUntilUrl(['serve', '--root', join(PROJECT, 'sample-data')], process.env);
     for (let i = 0; i < 50 && !/files readable/.test(r.stderr()); i++) await new Promise((w) => setTimeout(w, 100));
     expect(r.stderr()).toMatch(/files readable under .*sample-data/);
+    // the address with its token is printed once, on stdout (issue 16, item 11)
+    expect(r.stderr()).not.toContain(new URL(r.url).searchParams.get('token')!);
     expect(await r.stop()).toBe(0);
   });
 

@@ -10,7 +10,7 @@ import { StillwaterError } from '../../../app/errors.js';
 import { entry, type ServiceEntry } from '../../../app/services/types.js';
 import { Dispatcher, type HeavyRunner } from '../../../main/dispatch.js';
 import { PathGuard } from '../../../main/path-guard.js';
-import type { ProgressEvent } from '../../../renderer/bridge-contract.js';
+import type { ProgressEvent } from '../../../contract/transport.js';
 
 const root = realpathSync(mkdtempSync(join(tmpdir(), 'sw-dispatch-')));
 

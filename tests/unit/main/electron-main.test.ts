@@ -6,7 +6,7 @@
 import { EventEmitter } from 'node:events';
 import { describe, expect, it, vi } from 'vitest';
 import { serviceTable } from '../../../app/service.js';
-import { IPC } from '../../../renderer/bridge-contract.js';
+import { IPC } from '../../../contract/transport.js';
 import { CONTENT_SECURITY_POLICY } from '../../../main/csp.js';
 import { START_URL } from '../../../main/window-options.js';
 

@@ -16,7 +16,7 @@ import { Dispatcher } from '../../../main/dispatch.js';
 import { BIND_ADDRESS, startServer, type RunningServer } from '../../../main/http.js';
 import { PathGuard } from '../../../main/path-guard.js';
 import { CONTENT_SECURITY_POLICY } from '../../../main/csp.js';
-import { decodeWire } from '../../../renderer/wire.js';
+import { decodeWire } from '../../../contract/wire.js';
 import { raw } from './helpers.js';
 
 const echo: ServiceEntry[] = [
@@ -219,6 +219,11 @@ describe('calls', () => {
   });
   it('answers 404 for a service that does not exist', async () => {
     expect((await api('no.such', {})).status).toBe(404);
+  });
+  it('answers 400, not a fault, for a service name that is not valid percent-encoding', async () => {
+    const r = await api('test.%E0%A4%A', { n: 1 });
+    expect(r.status).toBe(400);
+    expect((JSON.parse(r.body.toString()) as { error: { code: string } }).error.code).toBe('E_INPUT');
   });
   it('keeps typed arrays and NaN on the wire', async () => {
     const r = await api('test.echo', { n: 5 });

@@ -12,7 +12,7 @@ import { Dispatcher } from '../../../main/dispatch.js';
 import { registerIpc, serviceChannel, type IpcEventLike } from '../../../main/ipc.js';
 import { PathGuard } from '../../../main/path-guard.js';
 import { START_URL } from '../../../main/window-options.js';
-import { IPC, type CallReply, type PreloadApi } from '../../../renderer/bridge-contract.js';
+import { IPC, type CallReply, type PreloadApi } from '../../../contract/transport.js';
 
 type Handler = (event: IpcEventLike, ...args: unknown[]) => unknown;
 

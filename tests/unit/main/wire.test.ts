@@ -1,7 +1,7 @@
 // The browser-mode wire format keeps what JSON alone loses (ECMA-404 JSON has no NaN or Infinity, and
 // JSON.stringify turns a Float32Array into an object of indices): typed arrays of every kind, NaN, ±Infinity.
 import { describe, expect, it } from 'vitest';
-import { decodeWire, encodeWire } from '../../../renderer/wire.js';
+import { decodeWire, encodeWire } from '../../../contract/wire.js';
 
 describe('wire format', () => {
   it('round-trips typed arrays of every element type, values and types intact', () => {

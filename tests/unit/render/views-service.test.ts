@@ -13,7 +13,7 @@ import { readLevelAt } from '../../../app/compare/read-level.js';
 import { StillwaterError } from '../../../app/errors.js';
 import { loadRecipe } from '../../../app/recipe/index.js';
 import { regridField } from '../../../app/regrid/field.js';
-import type { LevelData, SectionData, SessionInfo, TableText } from '../../../app/render/view-types.js';
+import type { LevelData, SectionData, SessionInfo, TableText } from '../../../contract/view-types.js';
 import type { ServiceContext } from '../../../app/services/types.js';
 import { viewsServices } from '../../../app/services/views.js';
 import { ensureDemo } from '../../../sample-data/generator/generate.js';

@@ -6,7 +6,7 @@
  * Layout: "SWB1" | uint32 LE header length | header JSON (UTF-8) | zero padding to 8 | buffers, each 8-aligned.
  * In the header a typed array is {"$typed": "<ctor>", "at": <byte offset in the buffer area>, "n": <length>}
  * and a non-finite number is {"$num": "NaN" | "Infinity" | "-Infinity"}.
- * Pure: no DOM, no Node; used by main/http.ts (encode) and renderer/bridge.ts (decode).
+ * Pure: no DOM, no Node, no imports; used by main/http.ts (encode) and renderer/bridge.ts (decode).
  */
 
 const MAGIC = [0x53, 0x57, 0x42, 0x31]; // "SWB1"

@@ -1,6 +1,7 @@
 /**
- * What the screen and the process side agree on, whichever transport carries it.
- * Pure types and constants: imported by renderer/bridge.ts, main/preload.ts, main/ipc.ts and main/http.ts.
+ * What the screen and the process side agree on, whichever transport carries it: progress events, errors,
+ * replies, the IPC channel names and the browser-mode routes. Pure types and constants, importing nothing:
+ * renderer/bridge.ts and main/ (preload, ipc, http, dispatch, workers) both import it.
  */
 
 /** Progress of a long job, sent while a heavy service entry runs. */

@@ -1,6 +1,6 @@
 /**
- * What the view services (app/services/views.ts) hand to the screen. Types only: the renderer imports
- * these to know the shapes it draws. Arrays are typed arrays with NaN for missing values.
+ * What the view services (app/services/views.ts) hand to the screen. Types only, importing nothing: the
+ * services and the renderer both import these. Arrays are typed arrays with NaN for missing values.
  */
 
 /** One variable of the reference or of a run, as the sources panel lists it. */
