@@ -52,16 +52,23 @@ export class ArcTable {
     // 1 − c² sin²u written as nz² + c² cos²u: no cancellation for nearly meridional arcs
     return (this.s[k] * cu) / Math.sqrt(nz * nz + cu * cu);
   }
-  /** ∫ y dx along arc k from x1 to x2 (degrees), in degree units. */
+  /**
+   * ∫ y dx along arc k from x1 to x2 (degrees), in degree units: S·(asin(c·sin u2) − asin(c·sin u1)),
+   * the difference taken as one angle whose sine and cosine are written without subtracting nearly
+   * equal numbers (near a pole a piece's area is a small part of that difference).
+   */
   integral(k: number, x1: number, x2: number): number {
-    return this.s[k] * (this.asinCSinU(k, x2) - this.asinCSinU(k, x1)) * DEG;
-  }
-  /** asin(c·sin u) as atan2(c·sin u, sqrt(nz² + c² cos²u)), well conditioned near ±π/2. */
-  private asinCSinU(k: number, xDeg: number): number {
-    const u = xDeg * RAD - this.l0[k];
     const c = this.c[k], nz = this.nz[k];
-    const cu = c * Math.cos(u);
-    return Math.atan2(c * Math.sin(u), Math.sqrt(nz * nz + cu * cu));
+    const u1 = x1 * RAD - this.l0[k], du = (x2 - x1) * RAD, u2 = u1 + du;
+    const s1 = Math.sin(u1), s2 = Math.sin(u2);
+    const cos1 = c * Math.cos(u1), cos2 = c * Math.cos(u2);
+    const r1 = Math.sqrt(nz * nz + cos1 * cos1), r2 = Math.sqrt(nz * nz + cos2 * cos2);
+    // sin u2 − sin u1 and r1 − r2 = c²·(cos²u1 − cos²u2)/(r1 + r2), both from the half difference
+    const dSin = 2 * Math.cos(u1 + 0.5 * du) * Math.sin(0.5 * du);
+    const dR = (c * c * Math.sin(du) * Math.sin(2 * u1 + du)) / (r1 + r2);
+    const sinD = c * (dSin * r1 + s1 * dR);
+    const cosD = r1 * r2 + c * c * s1 * s2;
+    return this.s[k] * Math.atan2(sinD, cosD) * DEG;
   }
   /** Longitudes (degrees) in (x1, x2) where arc k reaches its highest or lowest latitude. */
   extremaBetween(k: number, x1: number, x2: number, out: number[]): void {

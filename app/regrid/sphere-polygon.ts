@@ -13,8 +13,9 @@ const extrema: number[] = [];
  * their exact shape (polygon-clip.ts), so areas are exact up to round-off. Each arc is split where it
  * reaches its highest or lowest latitude, so every edge is monotone in x and in y.
  *
- * A corner at a pole becomes a segment along y = ±1; a cell around a pole (longitudes winding
- * through 360°) is closed along y = ±1. Returns false for a cell with missing corners.
+ * A corner at a pole becomes a segment along y = ±1; so does an edge through a pole (a meridian that
+ * goes over it, as on rotated grids whose spacing divides 180°); a cell around a pole (longitudes
+ * winding through 360°) is closed along y = ±1. Returns false for a cell with missing corners.
  */
 export function cellToFrame(lonDeg: ArrayLike<number>, latDeg: ArrayLike<number>, out: PolyBuffer, arcs: ArcTable): boolean {
   out.clear();
@@ -39,6 +40,7 @@ export function cellToFrame(lonDeg: ArrayLike<number>, latDeg: ArrayLike<number>
   let cur = startLon;
   let c = first;
   let steps = 0;
+  let crossing = -1;
   while (steps < m) {
     let nxt = (c + 1) % m;
     if (pole[nxt] !== 0) {
@@ -54,14 +56,31 @@ export function cellToFrame(lonDeg: ArrayLike<number>, latDeg: ArrayLike<number>
       out.push(nl, pz[nxt]);
       cur = nl;
     } else {
-      const lonB = unwrap(Math.atan2(py[nxt], px[nxt]) * DEG, cur);
-      const arc = lonB === cur ? -1 : arcs.add(px[c], py[c], pz[c], px[nxt], py[nxt], pz[nxt]);
-      if (arc >= 0) {
+      const arc = arcs.add(px[c], py[c], pz[c], px[nxt], py[nxt], pz[nxt]);
+      const lonNext = Math.atan2(py[nxt], px[nxt]) * DEG;
+      const d = unwrap(lonNext, cur) - cur;
+      if (arc < 0 && Math.abs(d) > 90) {
+        // a meridian through a pole: up to it, along y = ±1, down the opposite meridian; the half
+        // turn's direction is settled once the whole outline is known
+        const y = pz[c] + pz[nxt] > 0 ? 1 : -1;
+        out.push(cur, y);
+        crossing = out.n;
+        cur += 180;
+        out.push(cur, y);
+        out.push(cur, pz[nxt]);
+      } else if (arc < 0) {
+        cur += d;
+        out.push(cur, pz[nxt]);
+      } else {
+        // along a great circle longitude moves the way of the normal's z (by less than 180°), which
+        // settles edges that pass next to a pole where the two ways round are equally near
+        const sweep = d * arcs.nz[arc] >= 0 ? d : d - 360 * Math.sign(d);
+        const lonB = cur + sweep;
         arcs.extremaBetween(arc, cur, lonB, extrema);
         for (const x of extrema) out.push(x, arcs.y(arc, x), arc);
+        out.push(lonB, pz[nxt], arc);
+        cur = lonB;
       }
-      out.push(lonB, pz[nxt], arc);
-      cur = lonB;
     }
     steps++;
     c = nxt;
@@ -70,9 +89,17 @@ export function cellToFrame(lonDeg: ArrayLike<number>, latDeg: ArrayLike<number>
   // outline winds around a pole
   const closingArc = out.edge[out.n - 1];
   out.n--;
+  if (crossing >= 0 && Math.abs(cur - startLon) > 180) {
+    // an edge through a pole leaves the pole on the outline, not inside: the half turn goes the other way
+    for (let i = crossing; i < out.n; i++) out.xy[2 * i] -= 360;
+    cur -= 360;
+  }
   const wind = cur - startLon;
   if (Math.abs(wind) > 180) {
-    const y = wind > 0 ? 1 : -1;
+    // the enclosed pole is the one on the cell's side, whichever way round its corners are given
+    let zSum = 0;
+    for (let q = 0; q < m; q++) zSum += pz[q];
+    const y = zSum > 0 ? 1 : -1;
     out.push(cur, pz[first], closingArc);
     out.push(cur, y);
     out.push(startLon, y);

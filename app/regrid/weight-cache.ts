@@ -6,7 +6,7 @@ import type { HorizontalGrid } from '../grid/types.js';
 import type { RemapMethod, SparseWeights } from './csr.js';
 
 /** Bump when the weight computation changes, so stale cache files are never reused. */
-const FORMAT_VERSION = 4;
+const FORMAT_VERSION = 5;
 const MAGIC = 0x57525753; // "SWRW" little-endian
 
 /** The user's cache folder: $XDG_CACHE_HOME/stillwater, else ~/.cache/stillwater. */

