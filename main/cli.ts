@@ -1,4 +1,7 @@
+import { dirname } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { isStillwaterError } from '../app/errors.js';
+import { useHdf5OffThread } from './hdf5-off-thread.js';
 import type { Command } from './command.js';
 import { err, out } from './command.js';
 import { inspectCommand } from './commands/inspect.js';
@@ -63,6 +66,9 @@ export async function main(argv: string[]): Promise<number> {
     return 1;
   }
 }
+
+// the HDF5 library runs where a deadline can stop it (dist/hdf5-worker.mjs beside this bundle)
+useHdf5OffThread(dirname(fileURLToPath(import.meta.url)));
 
 main(process.argv.slice(2)).then(
   (code) => {

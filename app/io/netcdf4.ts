@@ -1,7 +1,7 @@
 /**
  * NetCDF-4 (HDF5) reader. Metadata (names, dimensions, attributes, types) come from the HDF5
  * library compiled to WebAssembly (h5wasm, which reads the real file lazily through Node's file
- * system). Data are read by us: the dataset's layout and chunk index are parsed from its object
+ * system), called through hdf5-library.ts so that its calls can run on a thread with a deadline. Data are read by us: the dataset's layout and chunk index are parsed from its object
  * header and each chunk is fetched with one ranged read and inflated by Node's native zlib, which
  * is several times faster than slicing through the library. Layouts or filters we do not read
  * ourselves (compact data, extensible-array, paged fixed-array or v2 B-tree indexes, szip and plugin
@@ -11,18 +11,17 @@
  * level by level, idle 2-core machine): ours 50-60 ms a pass against netCDF4-python 67 ms; the library's
  * slice loop was about 1.3x netCDF4-python. Reading ahead on the thread pool is off (see chunked-read.ts).
  */
-import { resolve } from 'node:path';
-import h5wasm, { type Dataset, type File as H5File } from 'h5wasm/node';
 import { fileError, StillwaterError } from '../errors.js';
 import { FileSource, type ByteSource } from './byte-source.js';
 import { allocArray, allocArrayForOverwrite, littleEndianToHost, bigEndianToHost, DTYPE_SIZE } from './dtype.js';
+import { hdf5Library, type Hdf5Library } from './hdf5-library.js';
 import { readChunkIndex } from './hdf5/chunk-index.js';
 import { ChunkStore, chunkMap, readChunked, type ChunkedVariable } from './hdf5/chunked-read.js';
 import { filtersWeUndo } from './hdf5/filters.js';
 import { decodeStorage, type StorageInfo } from './hdf5/layout.js';
 import { readObjectHeader } from './hdf5/object-header.js';
 import { readSuperblock, UNDEFINED_ADDRESS, type Superblock } from './hdf5/superblock.js';
-import { readNetcdf4Metadata, type H5Variable } from './netcdf4-metadata.js';
+import type { H5Variable } from './netcdf4-metadata.js';
 import { checkSlab } from './slab.js';
 import { contiguousStrides, readStrided } from './strided-read.js';
 import type { Attributes, RawArray, RawDataset, RawDimension, RawVariable } from './types.js';
@@ -36,37 +35,17 @@ export async function openNetcdf4(source: ByteSource, path: string): Promise<Raw
   if (!(source instanceof FileSource)) {
     throw fileError('E_FORMAT', path, 'NetCDF-4/HDF5 files can only be read from a local file.');
   }
-  const Module = await h5wasm.ready;
-  // HDF5 errors become exceptions we turn into one sentence, instead of a stack printed on stderr
-  Module.activate_throwing_error_handler();
-  let file: H5File;
+  const lib = hdf5Library();
+  const { handle, meta, addresses } = await lib.open(source.name);
   try {
-    file = new h5wasm.File(resolve(source.name), 'r');
-    if (!file.file_id || file.file_id < 0n) throw new Error('not opened');
-  } catch {
-    throw fileError('E_FORMAT', path, 'the HDF5 file is damaged or truncated (the HDF5 library cannot open it).');
-  }
-  try {
-    const meta = readNetcdf4Metadata(file);
     if (meta.variables.length === 0) {
       throw fileError('E_FORMAT', path, 'this HDF5 file holds no datasets we can read in its root group (it is not a NetCDF-4 file with variables).');
     }
     const sb = await readSuperblock(source);
-    const objectAddress = (h5path: string): number | undefined => {
-      try {
-        // an HDF5 object reference (H5R_OBJECT) is the object header's address, 8 bytes little-endian
-        const ref = Uint8Array.from(Module.create_object_reference(file.file_id, h5path) as ArrayLike<number>);
-        if (ref.byteLength < 8) return undefined;
-        return Number(new DataView(ref.buffer).getBigUint64(0, true));
-      } catch {
-        return undefined;
-      }
-    };
-    return new Netcdf4Dataset(path, source, file, sb, meta.dimensions, meta.attrs, meta.variables, meta.notes, objectAddress);
+    return new Netcdf4Dataset(path, source, lib, handle, sb, meta.dimensions, meta.attrs, meta.variables, meta.notes, (h5path) => addresses[h5path]);
   } catch (e) {
-    file.close();
-    if (e instanceof StillwaterError) throw e;
-    throw fileError('E_FORMAT', path, `the HDF5 file could not be read (${(e as Error).message}).`);
+    await lib.close(handle);
+    throw e;
   }
 }
 
@@ -79,7 +58,8 @@ export class Netcdf4Dataset implements RawDataset {
   constructor(
     readonly path: string,
     private readonly source: ByteSource,
-    private readonly file: H5File,
+    private readonly lib: Hdf5Library,
+    private readonly handle: number,
     private readonly sb: Superblock | undefined,
     readonly dimensions: RawDimension[],
     readonly attrs: Attributes,
@@ -161,14 +141,9 @@ export class Netcdf4Dataset implements RawDataset {
   }
 
   /** The HDF5 library's own hyperslab read: slower, but reads every layout and filter it knows. */
-  private readWithLibrary(v: H5Variable, s: number[], c: number[]): RawArray {
-    const ds = this.file.get(v.h5path) as Dataset;
-    let data: unknown;
-    try {
-      data = v.shape.length === 0 ? ds.value : ds.slice(s.map((x, i) => [x, x + c[i]]));
-    } catch (e) {
-      throw fileError('E_FORMAT', this.path, `cannot be read (${(e as Error).message}).`, v.name);
-    }
+  private async readWithLibrary(v: H5Variable, s: number[], c: number[]): Promise<RawArray> {
+    const ranges = v.shape.length === 0 ? null : s.map((x, i): [number, number] => [x, x + c[i]]);
+    const data = await this.lib.slice(this.handle, v.h5path, ranges, { file: this.path, variable: v.name });
     const n = c.reduce((a, b) => a * b, 1);
     const out = allocArray(v.dtype, n);
     if (v.dtype === 'char') {
@@ -184,7 +159,7 @@ export class Netcdf4Dataset implements RawDataset {
   }
 
   async close(): Promise<void> {
-    this.file.close();
+    await this.lib.close(this.handle);
     await this.source.close();
   }
 }
