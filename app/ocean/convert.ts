@@ -1,6 +1,6 @@
 import type { ParsedUnits } from '../cf/units.js';
 import { StillwaterError } from '../errors.js';
-import { densityFromPracticalAndPotential } from './density.js';
+import { densityOfLevel as teos10DensityOfLevel } from './density-level.js';
 
 /** Nominal seawater density used when no temperature and salinity are given (common practice). */
 export const NOMINAL_DENSITY = 1025;
@@ -46,8 +46,7 @@ const levelDensity = new WeakMap<Float32Array, { salinity: Float32Array; pressur
 function densityOfLevel(T: Float32Array, S: Float32Array, p: number): Float64Array {
   const hit = levelDensity.get(T);
   if (hit && hit.salinity === S && hit.pressure === p) return hit.rho;
-  const rho = new Float64Array(T.length);
-  for (let i = 0; i < T.length; i++) rho[i] = densityFromPracticalAndPotential(S[i], T[i], p);
+  const rho = teos10DensityOfLevel(S, T, p);
   levelDensity.set(T, { salinity: S, pressure: p, rho });
   return rho;
 }

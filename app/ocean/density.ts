@@ -86,6 +86,9 @@ export function specificVolume(sa: number, ct: number, p: number): number {
 const V_C = Float64Array.from(V, (t) => t[3]);
 const H_C = Float64Array.from(H, (t) => t[2]);
 
+/** What the level kernel (kernels/density.as.ts) needs to compute the very same doubles as the functions here. */
+export const DENSITY_KERNEL_INPUTS = { specificVolumeTerms: V_C, enthalpyTerms: H_C, SR_PER_SP, SFAC, S_OFFSET, CP0 } as const;
+
 /** Σ v_ijk · xs^i · ys^j · z^k: Horner in xs within ys within z. */
 function specificVolumePolynomial(xs: number, ys: number, z: number): number {
   const c = V_C;

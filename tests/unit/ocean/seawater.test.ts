@@ -6,6 +6,7 @@ import {
   densityFromPracticalAndPotential,
   densityTeos10,
 } from '../../../app/ocean/density.js';
+import { densityOfLevel } from '../../../app/ocean/density-level.js';
 import { oxygenSolubility, oxygenSolubilityT68 } from '../../../app/ocean/oxygen.js';
 import { aouLevel } from '../../../app/ocean/aou.js';
 import { nStar, nStarLevel } from '../../../app/ocean/nstar.js';
@@ -32,6 +33,37 @@ describe('density (TEOS-10, 75-term polynomial of Roquet et al. 2015)', () => {
     }
     expect(worst).toBeLessThan(1e-9);
     expect(fx.density.length).toBeGreaterThan(300);
+  });
+});
+
+describe('density of a whole level (WebAssembly kernel)', () => {
+  it('matches gsw.rho at the fixture points to 1e-9 kg m-3, pressure by pressure', () => {
+    const byP = new Map<number, DensityRow[]>();
+    for (const r of fx.density) byP.set(r.p, [...(byP.get(r.p) ?? []), r]);
+    for (const [p, rows] of byP) {
+      const rho = densityOfLevel(Float32Array.from(rows, (r) => r.sp), Float32Array.from(rows, (r) => r.pt), p);
+      // the fixture's SP and θ are doubles; the level is float32, so compare with gsw through the scalar path
+      rows.forEach((r, i) => expect(Math.abs(rho[i] - densityFromPracticalAndPotential(Math.fround(r.sp), Math.fround(r.pt), p))).toBe(0));
+      rows.forEach((r, i) => { if (Math.fround(r.sp) === r.sp && Math.fround(r.pt) === r.pt) expect(Math.abs(rho[i] - r.rho)).toBeLessThan(1e-9); });
+    }
+  });
+  it('gives the doubles of the scalar function exactly, NaN where T or S is missing, for odd lengths and negative S', () => {
+    for (const n of [1, 2, 7, 64800 + 1]) {
+      const S = new Float32Array(n), T = new Float32Array(n);
+      for (let i = 0; i < n; i++) {
+        S[i] = i % 97 === 5 ? NaN : -1 + ((i * 37) % 431) * 0.1;
+        T[i] = i % 89 === 3 ? NaN : -2.5 + ((i * 53) % 383) * 0.1;
+      }
+      for (const p of [0, 1000, 5500]) {
+        const rho = densityOfLevel(S, T, p);
+        expect(rho.length).toBe(n);
+        for (let i = 0; i < n; i++) {
+          const want = densityFromPracticalAndPotential(S[i], T[i], p);
+          if (Number.isNaN(want)) expect(rho[i]).toBeNaN();
+          else expect(rho[i]).toBe(want);
+        }
+      }
+    }
   });
 });
 
