@@ -32,8 +32,16 @@ export interface FieldSource {
   /** number of time steps (1 when there is no time dimension) */
   nt: number;
   time: TimeAxis | null;
-  /** one horizontal level (ny * nx), row-major, longitude fastest, latitude increasing */
+  /**
+   * The type decoded values have in full: Float64 where the stored or unpacked type needs it, as CF 1.10
+   * §8.1 and netCDF4-python decide (doubles, 32- and 64-bit integers, packing attributes in double).
+   * Absent: single precision (fields computed in memory).
+   */
+  dtype?: 'f4' | 'f8';
+  /** one horizontal level (ny * nx), row-major, longitude fastest, latitude increasing, in single precision (what computations use) */
   readLevel(t: number, k: number): Promise<Float32Array>;
+  /** the same level in the field's full `dtype` (what reports of values and exact outputs use) */
+  readLevelExact?(t: number, k: number): Promise<Float32Array | Float64Array>;
   /** release the file behind the field (set by openField; absent for fields over a caller's dataset) */
   close?(): Promise<void>;
 }

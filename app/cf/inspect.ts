@@ -223,11 +223,12 @@ class Accumulator {
   }
 }
 
-/** Min, max, mean and count over every level of every time step, one level at a time. */
+/** Min, max, mean and count over every level of every time step, one level at a time, in the field's full precision. */
 export async function fieldStats(f: FieldSource): Promise<ValueStats> {
   const acc = new Accumulator();
   const nz = f.grid.vertical ? f.grid.vertical.nz : 1;
-  for (let t = 0; t < f.nt; t++) for (let k = 0; k < nz; k++) acc.add(await f.readLevel(t, k));
+  const read = f.readLevelExact ?? f.readLevel;
+  for (let t = 0; t < f.nt; t++) for (let k = 0; k < nz; k++) acc.add(await read.call(f, t, k));
   return acc.result();
 }
 

@@ -3,6 +3,8 @@
  * The rules follow netCDF4-python 1.6 (`Variable._toma`), which we hold as the reference decoder:
  *  - values equal to `_FillValue` are missing;
  *  - values equal to any of `missing_value` (a scalar or a list) are missing;
+ *  - `_NoFill = "true"` (NetCDF-4's virtual attribute for a variable without fill mode; the GeoTIFF reader
+ *    sets it on a raster without nodata, which GDAL reads as all valid) turns the default fill value off;
  *  - without a `_FillValue` attribute, values equal to the NetCDF default fill value of the variable's type
  *    are missing (netCDF4-python does this for every numeric type, bytes included, when the variable's fill
  *    mode is on, which it always is for files read from disk);
@@ -48,6 +50,11 @@ export function effectiveDtype(v: Pick<RawVariable, 'dtype' | 'attrs'>): DType {
   return v.dtype;
 }
 
+function noFill(attrs: Attributes): boolean {
+  const f = attrs._NoFill;
+  return typeof f === 'string' && f.trim().toLowerCase() === 'true';
+}
+
 function isUnsigned(attrs: Attributes): boolean {
   const u = attrs._Unsigned;
   return typeof u === 'string' && u.trim().toLowerCase() === 'true';
@@ -81,7 +88,7 @@ export function maskRules(v: Pick<RawVariable, 'dtype' | 'attrs'>): MaskRules {
   const missing: number[] = [];
   const fill = numbers(v.attrs, '_FillValue');
   if (fill && fill.length > 0) missing.push(castTo(dtype, fill[0]));
-  else if (DEFAULT_FILL[dtype] !== undefined) missing.push(DEFAULT_FILL[dtype]!);
+  else if (DEFAULT_FILL[dtype] !== undefined && !noFill(v.attrs)) missing.push(DEFAULT_FILL[dtype]!);
   for (const m of numbers(v.attrs, 'missing_value') ?? []) missing.push(castTo(dtype, m));
   const rules: MaskRules = { missing: [...new Set(missing)], unsigned: isUnsigned(v.attrs) };
   const range = numbers(v.attrs, 'valid_range');

@@ -13,7 +13,8 @@ import { edgesFromCentres, makeVerticalAxis } from '../grid/vertical.js';
 import type { HorizontalGrid, VerticalAxis } from '../grid/types.js';
 import type { FieldSource, TimeAxis } from './field.js';
 import { discoverCoordinates } from './coords.js';
-import { decodeCoordinate, decodeValuesF32 } from './decode.js';
+import { decodeCoordinate, decodeValues } from './decode.js';
+import { decodedType } from './unpack.js';
 import { NotMonotonic, deriveEdges, edgesFromBounds, orderLongitudes, orderMonotonic, type OrderedAxis } from './axis-order.js';
 import { parseUnits, type ParsedUnits } from './units.js';
 import { decodeTimeAxis } from './time.js';
@@ -93,28 +94,34 @@ export async function fieldFromDataset(ds: RawDataset, variable: string, opts: O
     grid: { horizontal: grid, vertical: vertical ? vertical.axis : null },
     nt,
     time: time ? time.axis : null,
+    dtype: decodedType(v),
     async readLevel(t: number, k: number): Promise<Float32Array> {
-      if (!Number.isInteger(t) || t < 0 || t >= nt) throw fileError('E_INPUT', file, `has no time step ${t} (there are ${nt}).`, variable);
-      if (!Number.isInteger(k) || k < 0 || k >= nz) throw fileError('E_INPUT', file, `has no level ${k} (there are ${nz}).`, variable);
-      const start = v.dims.map(() => 0);
-      const count = v.dims.map(() => 1);
-      start[yPos] = 0;
-      count[yPos] = fileNy;
-      start[xPos] = 0;
-      count[xPos] = fileNx;
-      if (time) start[v.dims.indexOf(time.dim)] = t;
-      if (vertical) start[v.dims.indexOf(vertical.dim)] = vertical.order.fileIndex[k];
-      const raw = await ds.read(v.name, start, count);
-      const decoded = decodeValuesF32(v, raw);
-      if (yFirst && !layout.rows && !layout.cols) return decoded;
-      return remap(decoded, grid.nx, grid.ny, fileNx, fileNy, yFirst, layout.rows, layout.cols);
+      const decoded = await readDecoded(t, k);
+      return decoded instanceof Float32Array ? decoded : Float32Array.from(decoded);
     },
+    readLevelExact: (t: number, k: number) => readDecoded(t, k),
   };
+  async function readDecoded(t: number, k: number): Promise<Float32Array | Float64Array> {
+    if (!Number.isInteger(t) || t < 0 || t >= nt) throw fileError('E_INPUT', file, `has no time step ${t} (there are ${nt}).`, variable);
+    if (!Number.isInteger(k) || k < 0 || k >= nz) throw fileError('E_INPUT', file, `has no level ${k} (there are ${nz}).`, variable);
+    const start = v!.dims.map(() => 0);
+    const count = v!.dims.map(() => 1);
+    start[yPos] = 0;
+    count[yPos] = fileNy;
+    start[xPos] = 0;
+    count[xPos] = fileNx;
+    if (time) start[v!.dims.indexOf(time.dim)] = t;
+    if (vertical) start[v!.dims.indexOf(vertical.dim)] = vertical.order.fileIndex[k];
+    const raw = await ds.read(v!.name, start, count);
+    const decoded = decodeValues(v!, raw);
+    if (yFirst && !layout.rows && !layout.cols) return decoded;
+    return remap(decoded, grid.nx, grid.ny, fileNx, fileNy, yFirst, layout.rows, layout.cols);
+  }
   return field;
 }
 
-function remap(src: Float32Array, nx: number, ny: number, fileNx: number, fileNy: number, yFirst: boolean, rows: Int32Array | null, cols: Int32Array | null): Float32Array {
-  const out = new Float32Array(nx * ny);
+function remap<T extends Float32Array | Float64Array>(src: T, nx: number, ny: number, fileNx: number, fileNy: number, yFirst: boolean, rows: Int32Array | null, cols: Int32Array | null): T {
+  const out = new (src.constructor as new (n: number) => T)(nx * ny);
   for (let j = 0; j < ny; j++) {
     const fj = rows ? rows[j] : j;
     for (let i = 0; i < nx; i++) {

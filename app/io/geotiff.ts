@@ -2,13 +2,19 @@
  * GeoTIFF reader on top of the `geotiff` package, reading lazily through our ByteSource (only the
  * tiles or strips of a requested window are fetched). The bands become one variable `raster` with
  * dims (band?, y, x) — (band?, lat, lon) for a geographic CRS — and 1-D coordinate variables computed
- * from the georeferencing tags. GDAL_NODATA becomes _FillValue; no masking or scaling happens here.
+ * from the georeferencing tags. A projected raster also gets 2-D `lon`/`lat` at the cell centres and
+ * their CF bounds (`lon_bnds`/`lat_bnds`, the cell corners), named by the raster's `coordinates`, so it
+ * opens as a curvilinear grid. GDAL's nodata becomes _FillValue and GDAL's per-band SCALE/OFFSET become
+ * scale_factor/add_offset (GDAL's meaning: physical = raw · scale + offset, nodata compared on raw values);
+ * without nodata, `_NoFill` says that no value is missing. No masking or scaling happens here.
  */
 import { GeoTIFF, type GeoTIFFImage } from 'geotiff';
 import { fileError, StillwaterError } from '../errors.js';
 import type { ByteSource } from './byte-source.js';
 import { allocArray } from './dtype.js';
-import { geoTransformFromTags, pixelCentres } from './geotiff-transform.js';
+import { crsFromGeoKeys, type GeoKeys } from './geotiff-crs.js';
+import { projectedLonLat, type ProjectedLonLat } from './geotiff-lonlat.js';
+import { geoTransformFromTags, pixelCentres, type GeoTransform } from './geotiff-transform.js';
 import { checkSlab, copySlab } from './slab.js';
 import type { Attributes, DType, RawArray, RawDataset, RawDimension, RawVariable } from './types.js';
 
@@ -42,6 +48,32 @@ function dtypeOf(format: number, bits: number): DType | undefined {
 
 interface MemVar extends RawVariable {
   data?: RawArray;
+  /** computed on first read (the 2-D longitudes and latitudes of a projected raster) */
+  compute?: () => RawArray;
+}
+
+/** GDAL's scale and offset of each band (GDAL_METADATA items SCALE / OFFSET with role scale / offset). */
+async function bandPacking(image: GeoTIFFImage, bands: number, path: string): Promise<{ scale?: number; offset?: number }> {
+  const per: { scale?: number; offset?: number }[] = [];
+  for (let b = 0; b < bands; b++) {
+    let meta: Record<string, unknown> | null;
+    try {
+      meta = (await image.getGDALMetadata(b)) as Record<string, unknown> | null;
+    } catch (e) {
+      throw fileError('E_FORMAT', path, `its GDAL metadata cannot be read (${(e as Error).message}).`);
+    }
+    const value = (key: string): number | undefined => {
+      const text = meta?.[key];
+      if (text === undefined || text === null) return undefined;
+      const x = Number(String(text).trim());
+      if (!Number.isFinite(x)) throw fileError('E_FORMAT', path, `band ${b + 1} has a GDAL ${key} that is not a number ('${String(text).slice(0, 40)}').`);
+      return x;
+    };
+    per.push({ scale: value('SCALE'), offset: value('OFFSET') });
+  }
+  const same = per.every((p) => p.scale === per[0].scale && p.offset === per[0].offset);
+  if (!same) throw fileError('E_FORMAT', path, 'its bands have different GDAL scales or offsets, which we do not read as one variable.');
+  return per[0] ?? {};
 }
 
 export async function openGeoTiff(source: ByteSource, path: string): Promise<RawDataset> {
@@ -70,7 +102,7 @@ export async function openGeoTiff(source: ByteSource, path: string): Promise<Raw
   if (transform === 'rotated') throw fileError('E_FORMAT', path, 'its grid is rotated (ModelTransformation with rotation terms), which we do not read.');
   if (!transform) throw fileError('E_COORDS', path, 'it has no georeferencing (no ModelTiepoint/ModelPixelScale or ModelTransformation).');
 
-  const keys = (image.getGeoKeys() ?? {}) as Record<string, number | undefined>;
+  const keys = (image.getGeoKeys() ?? {}) as GeoKeys as Record<string, number | undefined>;
   const projected = keys.ProjectedCSTypeGeoKey;
   const geographicCode = keys.GeographicTypeGeoKey;
   const geographic = keys.GTModelTypeGeoKey === 2 || (keys.GTModelTypeGeoKey === undefined && projected === undefined && geographicCode !== undefined);
@@ -88,7 +120,21 @@ export async function openGeoTiff(source: ByteSource, path: string): Promise<Raw
   const rasterAttrs: Attributes = {};
   const nodata = image.getGDALNoData();
   if (nodata !== null && nodata !== undefined && Number.isFinite(Number(nodata))) rasterAttrs._FillValue = [Number(nodata)];
+  // without nodata GDAL treats every value as valid; NetCDF's default fill values must not mask any
+  else if (nodata === null || nodata === undefined) rasterAttrs._NoFill = 'true';
+  const packing = await bandPacking(image, bands, path);
+  if (packing.scale !== undefined && packing.scale !== 1) rasterAttrs.scale_factor = [packing.scale];
+  if (packing.offset !== undefined && packing.offset !== 0) rasterAttrs.add_offset = [packing.offset];
   if (epsg !== undefined) rasterAttrs.crs = `EPSG:${epsg}`;
+  let projection: { proj4: string; name: string } | undefined;
+  if (!geographic) {
+    const crs = crsFromGeoKeys(keys as GeoKeys);
+    if ('unknown' in crs) throw fileError('E_COORDS', path, `its projection ${crs.unknown} is not one we can turn into longitude and latitude.`);
+    projection = crs;
+    rasterAttrs.crs_name = crs.name;
+    rasterAttrs.crs_proj4 = crs.proj4;
+    rasterAttrs.coordinates = 'lat lon';
+  }
 
   const dims: RawDimension[] = [];
   const variables: MemVar[] = [];
@@ -101,6 +147,7 @@ export async function openGeoTiff(source: ByteSource, path: string): Promise<Raw
     { name: yName, dims: [yName], shape: [height], dtype: 'f8', attrs: yAttrs, data: pixelCentres(transform.y, height, pixelIsPoint) },
     { name: xName, dims: [xName], shape: [width], dtype: 'f8', attrs: xAttrs, data: pixelCentres(transform.x, width, pixelIsPoint) },
   );
+  if (projection) variables.push(...lonLatVariables(projection.proj4, transform, width, height, pixelIsPoint, xName, yName, dims));
   const raster: MemVar = {
     name: RASTER_VARIABLE,
     dims: bands > 1 ? ['band', yName, xName] : [yName, xName],
@@ -132,6 +179,7 @@ class GeoTiffDataset implements RawDataset {
     const v = this.vars.find((x) => x.name === name);
     if (!v) throw fileError('E_VARIABLE', this.path, `there is no variable '${name}'.`, name);
     const { s, c } = checkSlab(this.path, v, start, count);
+    if (v.compute) v.data ??= v.compute();
     if (v.data) return copySlab(v.data, v.shape, s, c);
     const banded = v.shape.length === 3;
     const [b0, nb] = banded ? [s[0], c[0]] : [0, 1];
@@ -153,4 +201,17 @@ class GeoTiffDataset implements RawDataset {
     await this.tiff.close();
     await this.source.close();
   }
+}
+
+/** 2-D longitude/latitude of a projected raster and their bounds, computed together on first read. */
+function lonLatVariables(proj4def: string, t: GeoTransform, nx: number, ny: number, pixelIsPoint: boolean, xName: string, yName: string, dims: RawDimension[]): MemVar[] {
+  let cached: ProjectedLonLat | undefined;
+  const get = (): ProjectedLonLat => (cached ??= projectedLonLat(proj4def, t, nx, ny, pixelIsPoint));
+  dims.push({ name: 'nv4', size: 4, unlimited: false });
+  return [
+    { name: 'lat', dims: [yName, xName], shape: [ny, nx], dtype: 'f8', attrs: { standard_name: 'latitude', units: 'degrees_north', bounds: 'lat_bnds' }, compute: () => get().lat },
+    { name: 'lon', dims: [yName, xName], shape: [ny, nx], dtype: 'f8', attrs: { standard_name: 'longitude', units: 'degrees_east', bounds: 'lon_bnds' }, compute: () => get().lon },
+    { name: 'lat_bnds', dims: [yName, xName, 'nv4'], shape: [ny, nx, 4], dtype: 'f8', attrs: { units: 'degrees_north' }, compute: () => get().latBounds },
+    { name: 'lon_bnds', dims: [yName, xName, 'nv4'], shape: [ny, nx, 4], dtype: 'f8', attrs: { units: 'degrees_east' }, compute: () => get().lonBounds },
+  ];
 }

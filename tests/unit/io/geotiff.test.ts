@@ -59,7 +59,12 @@ describe('bands_utm.tif (projected EPSG:32633, tiled, two Int16 bands)', () => {
     const raster = ds.variables.find((v) => v.name === 'raster');
     expect(raster?.dims).toEqual(['band', 'y', 'x']);
     expect(raster?.dtype).toBe('i2');
-    expect(raster?.attrs).toEqual({ crs: 'EPSG:32633' });
+    expect(raster?.attrs.crs).toBe('EPSG:32633');
+    // projected: 2-D longitude/latitude named by `coordinates` (checked against GDAL in geotiff-gdal.test.ts)
+    expect(raster?.attrs.coordinates).toBe('lat lon');
+    // no nodata: GDAL reads every value as valid
+    expect(raster?.attrs._NoFill).toBe('true');
+    expect(raster?.attrs._FillValue).toBeUndefined();
     expect(plain(await ds.read('raster'))).toEqual([...exp.bands[0].data, ...exp.bands[1].data]);
     expect(plain(await ds.read('raster', [1, 1, 0], [1, 1, exp.width]))).toEqual(exp.bands[1].data.slice(exp.width, 2 * exp.width));
     const gt = exp.geotransform;
