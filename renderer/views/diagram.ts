@@ -4,14 +4,15 @@ import { getSkill } from '../data.js';
 import { h } from '../dom.js';
 import { taylorFigure, targetFigure, type DiagramRow, type DiagramSpec } from '../plot/diagrams.js';
 import { choose, currentVariable, state, type AppState } from '../state.js';
+import { buttonGroup } from '../widgets/button-group.js';
+import { figureFrame } from '../widgets/figure-frame.js';
 import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
 
 const num = (v: unknown): number => (typeof v === 'number' ? v : NaN);
 
 export const diagramView: ViewFactory = (el) => {
-  const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Diagram options' });
-  const stage = h('div', { class: 'figure-stage' });
-  el.append(toolbar, stage);
+  const frame = figureFrame(el, { label: 'Diagram options' });
+  const { toolbar, stage } = frame;
   let result: ComparisonResult | null = null;
   let layer = '';
   let token = 0;
@@ -39,15 +40,7 @@ export const diagramView: ViewFactory = (el) => {
   };
 
   const drawToolbar = (st: AppState): void => {
-    const group = h('div', { class: 'segmented', role: 'group', 'aria-label': 'Diagram kind' });
-    for (const [v, label] of [
-      ['taylor', 'Taylor'],
-      ['target', 'Target'],
-    ] as const) {
-      const b = h('button', { type: 'button', 'aria-pressed': String(st.sel.diagram === v), 'data-value': v }, label);
-      b.addEventListener('click', () => choose({ diagram: v }));
-      group.append(b);
-    }
+    const group = buttonGroup({ label: 'Diagram kind', options: [['taylor', 'Taylor'], ['target', 'Target']] as const, value: st.sel.diagram, onPick: (v) => choose({ diagram: v }) }).el;
     const layers = result ? [...new Set(result.rows.filter((r) => r.variable === st.sel.variable).map((r) => r.layer))] : [];
     const sel = h('select', { 'aria-label': 'Layer of the skill rows', id: 'diagram-layer' });
     for (const l of layers) {

@@ -11,6 +11,7 @@ import { linear, padded } from '../plot/scale.js';
 import { sectionFigure } from '../plot/section-figure.js';
 import { bottomAxis, figureRoot, INK, leftAxis, legend, RUN_COLOURS, title, type Rect } from '../plot/svg-parts.js';
 import { state, type AppState } from '../state.js';
+import { figureFrame } from '../widgets/figure-frame.js';
 import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
 
 function edgesOf(centres: Float64Array): Float64Array {
@@ -62,9 +63,8 @@ function columnMeanFigure(d: LineData, width: number, height: number): SVGSVGEle
 }
 
 export const lineView: ViewFactory = (el) => {
-  const toolbar = h('form', { class: 'view-toolbar', 'aria-label': 'Line options' });
-  const stage = h('div', { class: 'figure-stage line-stage' });
-  el.append(toolbar, stage);
+  const frame = figureFrame(el, { label: 'Line options', stageClass: 'line-stage', toolbarTag: 'form' });
+  const { toolbar, stage } = frame;
   let data: LineData | null = null;
   let fieldIndex = 1;
   let token = 0;

@@ -3,135 +3,27 @@
  * projection. The pixel-to-cell lookup is built once per projection, grid and canvas size; a change of
  * depth, variable or range only recolours.
  */
-import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
+import { DIVERGING, SEQUENTIAL } from '../../app/render/colour-scales.js';
 import { buildPixelLookup, canvasHeightFor, pixelToProjected } from '../../app/render/pixel-lookup.js';
-import { makeProjection, type MapProjection, type ProjectionId } from '../../app/render/projections.js';
-import { packRgba, recolour } from '../../app/render/recolour.js';
-import type { LevelData, ViewGrid } from '../../contract/view-types.js';
+import type { LevelData } from '../../contract/view-types.js';
 import { getLevel } from '../data.js';
 import { h, s } from '../dom.js';
 import { coastlines, coastlinesIfReady } from '../plot/coast.js';
 import { mapFigure, mapPlotRect, type MapFigure } from '../plot/map-figure.js';
-import { choose, currentVariable, setProbe, state, type AppState } from '../state.js';
+import { choose, setProbe, state, type AppState } from '../state.js';
+import { lookupFor, mapChoice, paint, projectionOf } from './map-paint.js';
+import { buttonGroup } from '../widgets/button-group.js';
+import { figureFrame } from '../widgets/figure-frame.js';
 import { EXPORT_WIDTH, errorText, note, type ViewFactory, type ViewHandle } from './view.js';
 import { stationsOverlay } from './stations.js';
 
-const MISSING = packRgba(200, 200, 196);
-const BACKGROUND = packRgba(255, 255, 255, 0);
-
-const lookups = new Map<string, Int32Array>();
-const projections = new Map<ProjectionId, MapProjection>();
-
-export function projectionOf(id: ProjectionId): MapProjection {
-  let p = projections.get(id);
-  if (!p) {
-    p = makeProjection(id);
-    projections.set(id, p);
-  }
-  return p;
-}
-
-/** The lookup for one projection × grid × canvas size, built once and kept (a few of them). */
-export function lookupFor(proj: MapProjection, grid: ViewGrid, w: number, h: number): Int32Array {
-  const key = `${proj.info.id}|${grid.nx}x${grid.ny}|${grid.lonEdges[0]}|${grid.latEdges[0]}|${w}x${h}`;
-  let lut = lookups.get(key);
-  if (!lut) {
-    lut = buildPixelLookup(proj, grid.lonEdges, grid.latEdges, w, h);
-    lookups.set(key, lut);
-    while (lookups.size > 8) lookups.delete(lookups.keys().next().value as string);
-  }
-  return lut;
-}
-
 let firstDrawMarked = false;
-
-export interface MapChoice {
-  values: Float32Array;
-  min: number;
-  max: number;
-  diverging: boolean;
-  caption: string;
-  title: string;
-  subtitle: string;
-  units: string;
-}
-
-/** Automatic ranges are worked out once per level that arrives. */
-const autoRanges = new WeakMap<LevelData, { field: [number, number] | null; diff: [number, number] | null }>();
-
-function autoRange(data: LevelData, difference: boolean): [number, number] | null {
-  let r = autoRanges.get(data);
-  if (!r) {
-    r = { field: null, diff: null };
-    autoRanges.set(data, r);
-  }
-  if (difference) return (r.diff ??= symmetricRange([data.difference]));
-  return (r.field ??= quantileRange([data.model, data.reference]));
-}
-
-/** What the view shows for a level: which array, which range, which words. */
-export function mapChoice(st: AppState, data: LevelData, difference: boolean): MapChoice | null {
-  const session = st.session!;
-  const v = currentVariable();
-  const name = v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : data.variable;
-  const where = `${data.layer.label}; ${projectionOf(st.sel.projection).info.label}`;
-  if (difference) {
-    const r = st.sel.diffRange ?? autoRange(data, true);
-    if (!r) return null;
-    return {
-      values: data.difference,
-      min: r[0],
-      max: r[1],
-      diverging: true,
-      caption: `${data.variable} difference`,
-      title: `${name}: ${data.run} minus ${session.reference.label}`,
-      subtitle: where,
-      units: data.units,
-    };
-  }
-  const r = st.sel.fieldRange ?? autoRange(data, false);
-  if (!r) return null;
-  const showModel = st.sel.mapField === 'model';
-  return {
-    values: showModel ? data.model : data.reference,
-    min: r[0],
-    max: r[1],
-    diverging: false,
-    caption: data.variable,
-    title: `${name}: ${showModel ? data.run : session.reference.label}`,
-    subtitle: where,
-    units: data.units,
-  };
-}
-
-/** Colour one level into a canvas through the lookup. */
-const images = new WeakMap<HTMLCanvasElement, ImageData>();
-
-export function paint(canvas: HTMLCanvasElement, lut: Int32Array, choice: MapChoice): void {
-  const ctx = canvas.getContext('2d');
-  if (!ctx) return;
-  let img = images.get(canvas);
-  if (!img || img.width !== canvas.width || img.height !== canvas.height) {
-    img = ctx.createImageData(canvas.width, canvas.height);
-    images.set(canvas, img);
-  }
-  const px = new Uint32Array(img.data.buffer);
-  recolour(choice.values, lut, px, {
-    palette: (choice.diverging ? DIVERGING : SEQUENTIAL).packed,
-    min: choice.min,
-    max: choice.max,
-    missing: MISSING,
-    background: BACKGROUND,
-  });
-  ctx.putImageData(img, 0, 0);
-}
 
 export function mapView(difference: boolean): ViewFactory {
   return (el: HTMLElement): ViewHandle => {
     el.classList.add('map-view');
-    const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Map options' });
-    const stage = h('div', { class: 'figure-stage' });
-    el.append(toolbar, stage);
+    const frame = figureFrame(el, { label: 'Map options' });
+    const { toolbar, stage } = frame;
 
     let data: LevelData | null = null;
     let fig: MapFigure | null = null;
@@ -144,20 +36,10 @@ export function mapView(difference: boolean): ViewFactory {
     const stations = difference ? null : stationsOverlay(() => void draw(state, new Set(['stations'])));
 
     // toolbar: which field (Map view only), colour range
-    const fieldButtons: HTMLButtonElement[] = [];
-    if (!difference) {
-      const group = h('div', { class: 'segmented', role: 'group', 'aria-label': 'Field shown' });
-      for (const [value, label] of [
-        ['model', 'Run'],
-        ['reference', 'Reference'],
-      ] as const) {
-        const b = h('button', { type: 'button', 'data-field': value, 'aria-pressed': String(state.sel.mapField === value) }, label);
-        b.addEventListener('click', () => choose({ mapField: value }));
-        fieldButtons.push(b);
-        group.append(b);
-      }
-      toolbar.append(group);
-    }
+    const fieldGroup = difference
+      ? null
+      : buttonGroup({ label: 'Field shown', options: [['model', 'Run'], ['reference', 'Reference']] as const, value: state.sel.mapField, onPick: (v) => choose({ mapField: v }) });
+    if (fieldGroup) toolbar.append(fieldGroup.el);
     const minIn = h('input', { type: 'number', step: 'any', 'aria-label': 'Colour range minimum', class: 'range-input' });
     const maxIn = h('input', { type: 'number', step: 'any', 'aria-label': 'Colour range maximum', class: 'range-input' });
     const applyRange = (): void => {
@@ -210,7 +92,7 @@ export function mapView(difference: boolean): ViewFactory {
         note(stage, 'Open a recipe to see its fields.');
         return;
       }
-      for (const b of fieldButtons) b.setAttribute('aria-pressed', String(b.dataset.field === st.sel.mapField));
+      fieldGroup?.set(st.sel.mapField);
       const my = ++token;
       const needData = !data || changed.has('session') || changed.has('variable') || changed.has('run') || changed.has('layer') || data.variable !== st.sel.variable || data.run !== st.sel.run || data.layer.id !== st.sel.layer;
       const width = Math.max(360, Math.floor(stage.clientWidth || el.clientWidth || 900));

@@ -5,6 +5,7 @@ import { h, s } from '../dom.js';
 import { linear, padded } from '../plot/scale.js';
 import { bottomAxis, figureRoot, INK, leftAxis, legend, RUN_COLOURS, title, type LegendItem, type Rect } from '../plot/svg-parts.js';
 import { currentVariable, state, type AppState } from '../state.js';
+import { figureFrame } from '../widgets/figure-frame.js';
 import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
 
 function profileFigure(data: ProfileData, width: number, height: number, depthMax: number, refLabel: string, name: string): SVGSVGElement {
@@ -58,9 +59,8 @@ function profileFigure(data: ProfileData, width: number, height: number, depthMa
 }
 
 export const profileView: ViewFactory = (el) => {
-  const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Profile options' });
-  const stage = h('div', { class: 'figure-stage' });
-  el.append(toolbar, stage);
+  const frame = figureFrame(el, { label: 'Profile options' });
+  const { toolbar, stage } = frame;
   let depthMax: number | null = null;
   let last: ProfileData | null = null;
   let token = 0;

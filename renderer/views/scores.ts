@@ -5,26 +5,38 @@ import type { TableFormat } from '../../contract/view-types.js';
 import { getSkill, getTable } from '../data.js';
 import { fmt, h, saveBlob } from '../dom.js';
 import { state, type AppState } from '../state.js';
-import { spinupBanner } from './spinup.js';
+import { sortableTable, type Column } from '../widgets/sortable-table.js';
+import { spinupBanner } from './spinup-banner.js';
 import { errorText, note, type ViewFactory } from './view.js';
 
-const COLUMNS: { key: keyof SkillRow; label: string; text?: boolean; title: string }[] = [
-  { key: 'run', label: 'Run', text: true, title: 'model run' },
-  { key: 'variable', label: 'Variable', text: true, title: 'variable key of the recipe' },
-  { key: 'region', label: 'Region', text: true, title: 'region' },
-  { key: 'layer', label: 'Layer', text: true, title: 'depth layer' },
-  { key: 'units', label: 'Units', text: true, title: 'units of means, bias, RMSE, E′ and standard deviations' },
-  { key: 'n', label: 'n', title: 'number of compared cells' },
-  { key: 'model_mean', label: 'Model mean', title: 'weighted mean of the run' },
-  { key: 'ref_mean', label: 'Ref. mean', title: 'weighted mean of the reference' },
-  { key: 'bias', label: 'Bias', title: 'model mean minus reference mean' },
-  { key: 'rmse', label: 'RMSE', title: 'root-mean-square difference' },
-  { key: 'crmse', label: 'E′', title: 'centred RMS difference (Taylor 2001)' },
-  { key: 'corr', label: 'r', title: 'weighted Pearson correlation' },
-  { key: 'std_ratio', label: 'σm/σr', title: 'ratio of standard deviations' },
-  { key: 'taylor_skill', label: 'Taylor S', title: 'Taylor (2001) skill score' },
-  { key: 'nse', label: 'NSE', title: 'Nash–Sutcliffe efficiency' },
-  { key: 'compared_fraction', label: 'Compared', title: 'share of the reference weight that was compared' },
+type Key = keyof SkillRow & string;
+
+const text = (key: Key, label: string, title: string): Column<SkillRow, Key> => ({ key, label, title, text: true, value: (r) => r[key] as string });
+const num = (key: Key, label: string, title: string, show: (v: number | null) => string = (v) => fmt(v)): Column<SkillRow, Key> => ({
+  key,
+  label,
+  title,
+  value: (r) => r[key] as number | null,
+  cell: (r) => h('td', { title: r.note ?? '' }, show(typeof r[key] === 'number' ? (r[key] as number) : null)),
+});
+
+const COLUMNS: Column<SkillRow, Key>[] = [
+  text('run', 'Run', 'model run'),
+  text('variable', 'Variable', 'variable key of the recipe'),
+  text('region', 'Region', 'region'),
+  text('layer', 'Layer', 'depth layer'),
+  text('units', 'Units', 'units of means, bias, RMSE, E′ and standard deviations'),
+  num('n', 'n', 'number of compared cells', (v) => (v === null ? '–' : String(v))),
+  num('model_mean', 'Model mean', 'weighted mean of the run'),
+  num('ref_mean', 'Ref. mean', 'weighted mean of the reference'),
+  num('bias', 'Bias', 'model mean minus reference mean'),
+  num('rmse', 'RMSE', 'root-mean-square difference'),
+  num('crmse', 'E′', 'centred RMS difference (Taylor 2001)'),
+  num('corr', 'r', 'weighted Pearson correlation'),
+  num('std_ratio', 'σm/σr', 'ratio of standard deviations'),
+  num('taylor_skill', 'Taylor S', 'Taylor (2001) skill score'),
+  num('nse', 'NSE', 'Nash–Sutcliffe efficiency'),
+  num('compared_fraction', 'Compared', 'share of the reference weight that was compared', (v) => (v === null ? '–' : `${(v * 100).toFixed(1)} %`)),
 ];
 
 export const scoresView: ViewFactory = (el) => {
@@ -35,64 +47,32 @@ export const scoresView: ViewFactory = (el) => {
   const settling = h('div', { class: 'scores-spinup-banner', id: 'scores-spinup-banner', role: 'status' });
   el.append(toolbar, settling, wrap);
   let result: ComparisonResult | null = null;
-  let sortKey: keyof SkillRow = 'run';
-  let sortUp = true;
   let filterText = '';
   let onlyVariable = true;
   let token = 0;
+  const table = sortableTable<SkillRow, Key>({ id: 'scores-table', columns: COLUMNS, sort: { key: 'run', up: true } });
 
   const shown = (): SkillRow[] => {
     if (!result) return [];
     const words = filterText.toLowerCase().split(/\s+/).filter(Boolean);
-    const rows = result.rows.filter((r) => {
+    return result.rows.filter((r) => {
       if (onlyVariable && r.variable !== state.sel.variable) return false;
       const hay = `${r.run} ${r.variable} ${r.region} ${r.layer}`.toLowerCase();
       return words.every((w) => hay.includes(w));
-    });
-    const sign = sortUp ? 1 : -1;
-    return rows.sort((a, b) => {
-      const x = a[sortKey];
-      const y = b[sortKey];
-      if (typeof x === 'number' && typeof y === 'number') return sign * (x - y);
-      if (x === null || x === undefined) return 1;
-      if (y === null || y === undefined) return -1;
-      return sign * String(x).localeCompare(String(y), undefined, { numeric: true });
     });
   };
 
   const drawTable = (): void => {
     const rows = shown();
-    const head = h('tr', {});
-    for (const c of COLUMNS) {
-      const b = h('button', { type: 'button', title: `${c.title}; sort by this column` }, c.label, sortKey === c.key ? (sortUp ? ' ▲' : ' ▼') : '');
-      b.addEventListener('click', () => {
-        if (sortKey === c.key) sortUp = !sortUp;
-        else {
-          sortKey = c.key;
-          sortUp = true;
-        }
-        drawTable();
-      });
-      head.append(h('th', { class: c.text ? 'text' : '', scope: 'col', 'aria-sort': sortKey === c.key ? (sortUp ? 'ascending' : 'descending') : 'none' }, b));
-    }
-    const body = h('tbody', {});
-    for (const r of rows) {
-      const tr = h('tr', {});
-      for (const c of COLUMNS) {
-        const v = r[c.key];
-        const text = c.key === 'compared_fraction' ? (typeof v === 'number' ? `${(v * 100).toFixed(1)} %` : '–') : c.text ? String(v ?? '') : c.key === 'n' ? String(v ?? '–') : fmt(v as number | null);
-        tr.append(h('td', { class: c.text ? 'text' : '', title: r.note ?? '' }, text));
-      }
-      body.append(tr);
-    }
-    wrap.replaceChildren(h('table', { class: 'scores', id: 'scores-table' }, h('thead', {}, head), body));
+    table.show(rows);
+    if (table.el.parentElement !== wrap) wrap.replaceChildren(table.el);
     count.textContent = `${rows.length} of ${result?.rows.length ?? 0} rows`;
   };
 
   const exportAs = async (format: TableFormat): Promise<void> => {
     if (!result) return;
     try {
-      const t = await getTable({ ...result, rows: shown() }, state.session?.recipePath ?? null, format);
+      const t = await getTable({ ...result, rows: table.order(shown()) }, state.session?.recipePath ?? null, format);
       saveBlob(new Blob([t.text], { type: t.mime }), t.fileName);
     } catch (e) {
       note(wrap, errorText(e), 'error');

@@ -8,17 +8,9 @@ import { getSection } from '../data.js';
 import { h } from '../dom.js';
 import { latText, lonText, sectionFigure } from '../plot/section-figure.js';
 import { choose, currentVariable, state, type AppState, type Selection } from '../state.js';
+import { buttonGroup } from '../widgets/button-group.js';
+import { figureFrame } from '../widgets/figure-frame.js';
 import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
-
-function segmented<T extends string>(label: string, options: [T, string][], value: T, onPick: (v: T) => void): HTMLElement {
-  const g = h('div', { class: 'segmented', role: 'group', 'aria-label': label });
-  for (const [v, text] of options) {
-    const b = h('button', { type: 'button', 'aria-pressed': String(v === value), 'data-value': v }, text);
-    b.addEventListener('click', () => onPick(v));
-    g.append(b);
-  }
-  return g;
-}
 
 interface Built {
   data: SectionData;
@@ -61,9 +53,8 @@ function describe(st: AppState, data: SectionData): Built['spec'] | null {
 }
 
 export const sectionView: ViewFactory = (el) => {
-  const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Section options' });
-  const stage = h('div', { class: 'figure-stage' });
-  el.append(toolbar, stage);
+  const frame = figureFrame(el, { label: 'Section options' });
+  const { toolbar, stage } = frame;
   let built: Built | null = null;
   let token = 0;
 
@@ -86,13 +77,16 @@ export const sectionView: ViewFactory = (el) => {
     }
     depth.addEventListener('change', () => choose({ sectionDepth: depth.value === '' ? null : Number(depth.value) }));
     toolbar.replaceChildren(
-      segmented('Section kind', [['meridian', 'Meridian'], ['parallel', 'Parallel'], ['zonal', 'Zonal mean']], sel.sectionKind, (v) =>
-        choose({ sectionKind: v, sectionAt: v === 'parallel' ? (sel.sectionKind === 'parallel' ? sel.sectionAt : 0) : sel.sectionKind === 'meridian' ? sel.sectionAt : -25 }),
-      ),
+      buttonGroup({
+        label: 'Section kind',
+        options: [['meridian', 'Meridian'], ['parallel', 'Parallel'], ['zonal', 'Zonal mean']] as const,
+        value: sel.sectionKind,
+        onPick: (v) => choose({ sectionKind: v, sectionAt: v === 'parallel' ? (sel.sectionKind === 'parallel' ? sel.sectionAt : 0) : sel.sectionKind === 'meridian' ? sel.sectionAt : -25 }),
+      }).el,
       sel.sectionKind === 'zonal'
         ? h('span', { class: 'toolbar-label' }, `region: ${sel.region} (choose above)`)
         : h('label', { class: 'toolbar-label' }, sel.sectionKind === 'meridian' ? 'Longitude (°E) ' : 'Latitude (°N) ', at),
-      segmented('Field shown', [['model', 'Run'], ['reference', 'Reference'], ['difference', 'Difference']], sel.sectionField, (v) => choose({ sectionField: v })),
+      buttonGroup({ label: 'Field shown', options: [['model', 'Run'], ['reference', 'Reference'], ['difference', 'Difference']] as const, value: sel.sectionField, onPick: (v) => choose({ sectionField: v }) }).el,
       depth,
     );
   };

@@ -1,177 +1,16 @@
 /**
- * Spin-up view: how a run's tracers move away from their first snapshot, on a logarithmic axis of model
- * years, for several tracers and regions at once; the skill of each snapshot against the reference on the
- * same axis; and the drift rates, fits and verdicts of every track in a sortable table (service 'spinup.run').
+ * Spin-up view: the figure of how a run's tracers drift over its snapshots (spinup-figure.ts) with the choice of
+ * run, quantity, layer, tracers and regions above it, and the table of drift rates and verdicts below
+ * (spinup-table.ts); service 'spinup.run'.
  */
-import type { SkillPoint, SpinupResult, SpinupSummary, SpinupTrack } from '../../app/spinup/types.js';
+import type { SpinupResult } from '../../app/spinup/types.js';
 import { tracked, sessionRecipe } from '../data.js';
-import { fmt, h, s } from '../dom.js';
-import { logLinePanel, yearDomain, type LineSeries } from '../plot/log-lines.js';
-import { figureRoot, MUTED, RUN_COLOURS, text, title, type Rect } from '../plot/svg-parts.js';
+import { h } from '../dom.js';
 import { state, type AppState } from '../state.js';
+import { buttonGroup } from '../widgets/button-group.js';
+import { spinupFigure, type Choice, type Quantity } from './spinup-figure.js';
+import { spinupTable } from './spinup-table.js';
 import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
-
-type Quantity = 'mean' | 'inventory';
-const DASHES = ['', '7 3', '2 2.5', '9 3 2 3', '4 4', '1 3'];
-const X_LABEL = 'Model year (log scale)';
-
-export interface Choice {
-  run: string;
-  quantity: Quantity;
-  relative: boolean;
-  layer: string;
-  tracers: string[];
-  regions: string[];
-  skillTracer: string;
-}
-
-/** Degrees Celsius are compared in kelvin, as the drift rates are (a zero that is not a zero of amount). */
-function relativeBase(track: SpinupTrack, quantity: Quantity): number {
-  const first = quantity === 'mean' ? track.mean[0] : track.inventory[0];
-  if (quantity === 'mean' && /^(deg_?C|degC|°C|celsius)$/i.test(track.units)) return Math.abs(first + 273.15);
-  return Math.abs(first);
-}
-
-function deviation(track: SpinupTrack, c: Choice): number[] {
-  const dev = c.quantity === 'mean' ? track.meanDeviation : track.inventoryDeviation;
-  if (!c.relative) return dev;
-  const base = relativeBase(track, c.quantity);
-  return dev.map((v) => (base > 0 ? (100 * v) / base : NaN));
-}
-
-function colourOf(r: SpinupResult, region: string): string {
-  return RUN_COLOURS[Math.max(0, r.regions.indexOf(region)) % RUN_COLOURS.length];
-}
-
-function dashOf(r: SpinupResult, tracer: string): string {
-  return DASHES[Math.max(0, r.tracers.findIndex((t) => t.name === tracer)) % DASHES.length];
-}
-
-function chosenTracks(r: SpinupResult, c: Choice): SpinupTrack[] {
-  return r.tracks.filter((t) => t.layer === c.layer && c.tracers.includes(t.tracer) && c.regions.includes(t.region));
-}
-
-function skillSeries(r: SpinupResult, c: Choice, key: 'rmse' | 'bias' | 'corr'): LineSeries[] {
-  return c.regions
-    .map((region) => {
-      const pts = r.skill
-        .filter((p: SkillPoint) => p.variable === c.skillTracer && p.region === region && p.layer === c.layer)
-        .sort((a, b) => a.year - b.year);
-      return { xs: pts.map((p) => p.year), ys: pts.map((p) => (typeof p[key] === 'number' ? (p[key] as number) : NaN)), colour: colourOf(r, region), label: `${c.skillTracer}, ${region}` };
-    })
-    .filter((sr) => sr.xs.length > 0);
-}
-
-/** A legend of line samples (colour = region, dash = tracer), in as many columns as the height allows. */
-function lineLegend(svg: SVGElement, x: number, y: number, maxH: number, colW: number, items: { label: string; colour: string; dash: string }[]): void {
-  const g = s('g', { class: 'legend' });
-  g.append(text(x, y, 'Lines', { 'font-size': 11.5, 'font-weight': 600 }));
-  g.append(text(x + 40, y, 'colour: region, dash: tracer', { 'font-size': 10.5, fill: MUTED }));
-  const rows = Math.max(1, Math.floor((maxH - 16) / 17));
-  items.forEach((it, i) => {
-    const cx = x + Math.floor(i / rows) * colW;
-    const cy = y + 18 + (i % rows) * 17;
-    g.append(s('line', { x1: cx, x2: cx + 26, y1: cy - 4, y2: cy - 4, stroke: it.colour, 'stroke-width': 2, ...(it.dash ? { 'stroke-dasharray': it.dash } : {}) }));
-    g.append(text(cx + 32, cy, it.label, { 'font-size': 11.5 }));
-  });
-  svg.append(g);
-}
-
-export function spinupFigure(r: SpinupResult, c: Choice, width: number): SVGSVGElement {
-  const tracks = chosenTracks(r, c);
-  const what = c.quantity === 'mean' ? 'mean' : 'inventory';
-  // absolute deviations: a panel per tracer (its own units and scale); relative ones share a panel
-  const groups = new Map<string, SpinupTrack[]>();
-  for (const t of tracks) {
-    const key = c.relative ? '%' : t.tracer;
-    groups.set(key, [...(groups.get(key) ?? []), t]);
-  }
-  const legendW = width >= 900 ? 230 : 190;
-  const left = 84;
-  const panelW = width - left - legendW - 28;
-  const panelH = width >= 900 ? 210 : 190;
-  const panelGap = 74;
-  const skillPanels = (['rmse', 'bias', 'corr'] as const).filter((k) => skillSeries(r, c, k).length);
-  const top = 66;
-  const devH = Math.max(1, groups.size) * (panelH + panelGap);
-  const skillTop = top + devH + 24;
-  const skillH = skillPanels.length ? 52 + 170 + 60 : 0;
-  const height = skillTop + skillH + 10;
-  const svg = figureRoot(width, height, `Spin-up of ${r.run}: ${what} deviation and skill against model year`);
-  const first = r.years[0];
-  title(svg, 12, 18, `Spin-up of ${r.run}: ${what} deviation from model year ${first}, layer ${c.layer}`, r.summary.sentence);
-  const domain = yearDomain(r.years);
-  if (!groups.size) svg.append(text(left, top + 40, 'Choose at least one tracer and one region.', { fill: MUTED }));
-  let y = top;
-  for (const ts of groups.values()) {
-    const rect: Rect = { x: left, y: y + 16, w: panelW, h: panelH - 16 };
-    const units = c.quantity === 'mean' ? ts[0].units : ts[0].inventoryUnits;
-    const names = c.relative ? [...new Set(ts.map((t) => t.tracer))].join(', ') : `${ts[0].tracer} (${units})`;
-    svg.append(text(rect.x, y + 10, names, { 'font-size': 12, 'font-weight': 600 }));
-    const yLabel = c.relative ? `Deviation (% of ${what} at year ${first})` : `${c.quantity === 'mean' ? 'Mean' : 'Inventory'} deviation (${units})`;
-    const series = ts.map((t) => ({ xs: r.years, ys: deviation(t, c), colour: colourOf(r, t.region), dash: dashOf(r, t.tracer), label: `${t.tracer}, ${t.region}` }));
-    logLinePanel(svg, rect, domain, series, X_LABEL, yLabel, { zeroLine: true });
-    y += panelH + panelGap;
-  }
-  const items = tracks.map((t) => ({ label: `${t.tracer}, ${t.region}`, colour: colourOf(r, t.region), dash: dashOf(r, t.tracer) }));
-  lineLegend(svg, left + panelW + 26, top + 26, devH - 40, legendW, items);
-  if (skillPanels.length) {
-    svg.append(s('line', { x1: 12, x2: width - 12, y1: skillTop - 10, y2: skillTop - 10, stroke: '#e3e6ea' }));
-    svg.append(text(12, skillTop + 8, `Skill of ${c.skillTracer} against the reference, layer ${c.layer}`, { 'font-size': 13, 'font-weight': 600 }));
-    const shown = skillSeries(r, c, skillPanels[0]).map((sr) => sr.label.slice(c.skillTracer.length + 2));
-    svg.append(text(12, skillTop + 24, `Each snapshot scored as the scores view scores a run; colour: region as above (${shown.join(', ')}).`, { 'font-size': 11.5, fill: MUTED }));
-    const units = r.skill.find((p) => p.variable === c.skillTracer)?.units ?? '';
-    const gap = 96;
-    const w = (width - left - 24 - gap * (skillPanels.length - 1)) / skillPanels.length;
-    skillPanels.forEach((k, i) => {
-      const rect: Rect = { x: left + i * (w + gap), y: skillTop + 52, w, h: 170 };
-      const label = k === 'rmse' ? `RMSE (${units})` : k === 'bias' ? `Bias (${units})` : 'Correlation r (dimensionless)';
-      logLinePanel(svg, rect, domain, skillSeries(r, c, k), X_LABEL, label, { zeroLine: k === 'bias', yTicks: 4 });
-    });
-  }
-  svg.append(s('desc', {}, `Colour: region; dash pattern: tracer. Deviation = value minus the value at model year ${first}.`));
-  return svg;
-}
-
-type SortKey = 'tracer' | 'region' | 'layer' | 'perKyr' | 'percent' | 'xInf' | 'tau' | 't90' | 'needed' | 'status';
-
-const TABLE_COLUMNS: { key: SortKey; label: string; title: string; text?: boolean }[] = [
-  { key: 'tracer', label: 'Tracer', title: 'tracer', text: true },
-  { key: 'region', label: 'Region', title: 'region', text: true },
-  { key: 'layer', label: 'Layer', title: 'depth layer', text: true },
-  { key: 'perKyr', label: 'Drift per 1000 yr', title: 'least-squares slope of the mean over the tail window, tracer units per 1000 model years' },
-  { key: 'percent', label: 'Drift, % per 1000 yr', title: 'the slope in per cent of the mean over the tail window, per 1000 model years' },
-  { key: 'xInf', label: 'Fit x∞', title: 'value the first-order fit heads for' },
-  { key: 'tau', label: 'τ (yr)', title: 'e-folding time of the first-order fit, model years' },
-  { key: 't90', label: 't90 (yr)', title: 'τ·ln 10: years to cover 90 % of any remaining change' },
-  { key: 'needed', label: 'Years still needed', title: 'model years after the last snapshot until the drift falls below the threshold (– when the fit cannot say)' },
-  { key: 'status', label: 'Verdict', title: 'settled, still drifting or undetermined; non-monotonic tracks carry a note', text: true },
-];
-
-function sortValue(t: SpinupTrack, key: SortKey): number | string | null {
-  switch (key) {
-    case 'tracer':
-    case 'region':
-    case 'layer':
-      return t[key];
-    case 'perKyr':
-      return t.drift?.perKyr ?? null;
-    case 'percent':
-      return t.drift?.percentPerKyr ?? null;
-    case 'xInf':
-      return t.fit?.xInf ?? null;
-    case 'tau':
-      return t.fit?.tau ?? null;
-    case 't90':
-      return t.fit?.t90 ?? null;
-    case 'needed':
-      return t.verdict.status === 'settled' ? 0 : (t.fit?.yearsToSettle ?? null);
-    case 'status':
-      return t.verdict.status;
-  }
-}
-
-const STATUS_TEXT: Record<SpinupTrack['verdict']['status'], string> = { settled: 'settled', drifting: 'still drifting', undetermined: 'undetermined' };
 
 export const spinupView: ViewFactory = (el) => {
   const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Spin-up options' });
@@ -186,8 +25,7 @@ export const spinupView: ViewFactory = (el) => {
   let result: SpinupResult | null = null;
   let resultKey = '';
   let token = 0;
-  let sortKey: SortKey = 'percent';
-  let sortUp = false;
+  const table = spinupTable();
   let allTracks = false;
   const c: Choice = { run: '', quantity: 'mean', relative: false, layer: 'all', tracers: [], regions: [], skillTracer: '' };
 
@@ -195,18 +33,8 @@ export const spinupView: ViewFactory = (el) => {
     if (result) render(result);
   };
 
-  const segmented = (label: string, id: string, options: [string, string][], value: string, onPick: (v: string) => void): HTMLElement => {
-    const g = h('div', { class: 'segmented', role: 'group', 'aria-label': label, id });
-    for (const [v, text] of options) {
-      const b = h('button', { type: 'button', 'aria-pressed': String(v === value), 'data-value': v }, text);
-      b.addEventListener('click', () => {
-        for (const o of g.querySelectorAll('button')) o.setAttribute('aria-pressed', String(o === b));
-        onPick(v);
-      });
-      g.append(b);
-    }
-    return h('span', { class: 'row' }, h('span', { class: 'toolbar-label' }, label), g);
-  };
+  const segmented = (label: string, id: string, options: [string, string][], value: string, onPick: (v: string) => void): HTMLElement =>
+    buttonGroup({ label, id, options, value, onPick, showLabel: true }).el;
 
   const selectOf = (label: string, id: string, options: string[], value: string, onPick: (v: string) => void): HTMLElement => {
     const sel = h('select', { 'aria-label': label, id });
@@ -278,75 +106,20 @@ export const spinupView: ViewFactory = (el) => {
 
   const drawTable = (r: SpinupResult): void => {
     const rows = r.tracks.filter((t) => allTracks || (c.tracers.includes(t.tracer) && c.regions.includes(t.region)));
-    const sign = sortUp ? 1 : -1;
-    rows.sort((a, b) => {
-      let x = sortValue(a, sortKey);
-      let y = sortValue(b, sortKey);
-      if (x === null) return 1;
-      if (y === null) return -1;
-      // drift sorts by size, whatever the sign
-      if (sortKey === 'perKyr' || sortKey === 'percent') {
-        x = Math.abs(x as number);
-        y = Math.abs(y as number);
-      }
-      if (typeof x === 'number' && typeof y === 'number') return sign * (x - y);
-      return sign * String(x).localeCompare(String(y), undefined, { numeric: true });
-    });
-    const head = h('tr', {});
-    for (const col of TABLE_COLUMNS) {
-      const b = h('button', { type: 'button', title: `${col.title}; sort by this column` }, col.label, sortKey === col.key ? (sortUp ? ' ▲' : ' ▼') : '');
-      b.addEventListener('click', () => {
-        if (sortKey === col.key) sortUp = !sortUp;
-        else {
-          sortKey = col.key;
-          sortUp = !!col.text;
-        }
-        drawTable(r);
-      });
-      head.append(h('th', { class: col.text ? 'text' : '', scope: 'col', 'aria-sort': sortKey === col.key ? (sortUp ? 'ascending' : 'descending') : 'none' }, b));
-    }
-    const body = h('tbody', {});
-    for (const t of rows) {
-      const d = t.drift;
-      const f = t.fit;
-      const needed = t.verdict.status === 'settled' ? '0' : f?.yearsToSettle !== null && f?.yearsToSettle !== undefined ? String(Math.round(f.yearsToSettle)) : '–';
-      const verdict = h('td', { class: `text verdict ${t.verdict.status}`, title: `${t.verdict.sentence} ${t.fitNote}`.trim(), 'data-status': t.verdict.status }, STATUS_TEXT[t.verdict.status]);
-      // notes go on a line of their own under the track, so that the columns stay narrow
-      const notes: string[] = [];
-      if (!t.monotonic) notes.push(`non-monotonic: turns back at model year ${t.turningYears.join(', ')}; ${t.fitNote}`);
-      if (t.verdict.deepCaution) notes.push('the run may be too short for the deep ocean');
-      if (f && !f.constrained) notes.push('fit not constrained: x∞ and τ are lower bounds at best');
-      if (notes.length) verdict.append(h('span', { class: 'verdict-flag' }, ' *'));
-      body.append(
-        h(
-          'tr',
-          { class: 'track-row' },
-          h('td', { class: 'text' }, t.tracer),
-          h('td', { class: 'text' }, t.region),
-          h('td', { class: 'text' }, t.layer),
-          h('td', { title: d ? `model years ${d.fromYear}–${d.toYear}, ${d.window}` : '' }, d ? `${fmt(d.perKyr, 3)} ${t.units}` : '–'),
-          h('td', { title: d?.relativeTo ? `relative to ${d.relativeTo}` : '' }, d?.percentPerKyr !== null && d?.percentPerKyr !== undefined ? `${fmt(d.percentPerKyr, 3)} %` : '–'),
-          h('td', {}, f ? `${fmt(f.xInf, 4)} ${t.units}` : '–'),
-          h('td', {}, f ? String(Math.round(f.tau)) : '–'),
-          h('td', {}, f ? String(Math.round(f.t90)) : '–'),
-          h('td', {}, needed),
-          verdict,
-        ),
-      );
-      if (notes.length) body.append(h('tr', { class: 'verdict-note-row' }, h('td', { colspan: TABLE_COLUMNS.length, class: 'text verdict-note' }, `${t.tracer}, ${t.region}, ${t.layer}: ${notes.join('; ')}.`)));
-    }
+    table.show(rows);
     const all = h('input', { type: 'checkbox', id: 'spinup-all-tracks' });
     all.checked = allTracks;
     all.addEventListener('change', () => {
       allTracks = all.checked;
       drawTable(r);
+      all.focus();
     });
     tableHead.replaceChildren(
       h('h3', { class: 'spinup-table-title' }, 'Drift rates and verdicts'),
       h('label', { class: 'toolbar-label' }, all, ' every tracer and region'),
       h('span', { class: 'toolbar-hint' }, `${rows.length} of ${r.tracks.length} tracks; settled below ${r.settings.thresholdPercentPerKyr} % of the mean per 1000 years`),
     );
-    tableWrap.replaceChildren(h('table', { class: 'scores spinup-table', id: 'spinup-table' }, h('thead', {}, head), body));
+    if (table.el.parentElement !== tableWrap) tableWrap.replaceChildren(table.el);
   };
 
   const render = (r: SpinupResult): void => {
@@ -406,62 +179,3 @@ export const spinupView: ViewFactory = (el) => {
     },
   };
 };
-
-/** Verdicts asked for by the scores view, per session and run (a failed request is asked again next time). */
-const verdicts = new Map<string, Promise<SpinupSummary | null>>();
-
-/**
- * The banner above the scores table: for every run that lists spin-up snapshots, whether it has settled
- * ('spinup.verdict', heavy, so in the background: the table never waits for it); one plain line for the runs
- * without snapshots, whose settling is unknown.
- */
-export function spinupBanner(el: HTMLElement, st: AppState): void {
-  const session = st.session;
-  if (!session) {
-    el.replaceChildren();
-    return;
-  }
-  const withSnapshots = session.runs.filter((r) => r.snapshots?.length).map((r) => r.label);
-  const without = session.runs.filter((r) => !r.snapshots?.length).map((r) => r.label);
-  const unknown = (): HTMLElement | null =>
-    without.length
-      ? h('p', { class: 'unknown' }, `Whether ${without.join(', ')} ${without.length > 1 ? 'have' : 'has'} settled is unknown: ${without.length > 1 ? 'they list' : 'it lists'} no spin-up snapshots (runs[i].snapshots).`)
-      : null;
-  if (!withSnapshots.length) {
-    el.className = 'scores-spinup-banner busy';
-    el.replaceChildren(...[unknown()].filter((x): x is HTMLElement => !!x));
-    return;
-  }
-  el.className = 'scores-spinup-banner busy';
-  el.replaceChildren(h('p', {}, `Checking whether ${withSnapshots.join(', ')} ${withSnapshots.length > 1 ? 'have' : 'has'} settled (in the background)…`));
-  const asked = session.session;
-  void Promise.all(
-    withSnapshots.map((run) => {
-      const key = `${asked}|${run}`;
-      let p = verdicts.get(key);
-      if (!p) {
-        p = (async () => tracked<SpinupSummary | null>(`Has ${run} settled?`, 'spinup.verdict', { ...(await sessionRecipe(asked)), run }))();
-        verdicts.set(key, p);
-        p.catch(() => verdicts.delete(key));
-      }
-      return p.then(
-        (v) => ({ run, v, error: '' }),
-        (e: unknown) => ({ run, v: null, error: errorText(e) }),
-      );
-    }),
-  ).then((answers) => {
-    if (state.session?.session !== asked || !el.isConnected) return;
-    const lines: HTMLElement[] = [];
-    let drifting = false;
-    for (const a of answers) {
-      if (a.v) {
-        drifting ||= !a.v.settled;
-        lines.push(h('p', { class: a.v.settled ? 'settled' : 'drifting', 'data-run': a.run }, a.v.sentence));
-      } else if (a.error) lines.push(h('p', { class: 'unknown' }, `Whether ${a.run} has settled could not be checked: ${a.error}`));
-    }
-    const u = unknown();
-    if (u) lines.push(u);
-    el.className = `scores-spinup-banner${drifting ? ' drifting' : ' busy'}`;
-    el.replaceChildren(...lines);
-  });
-}

@@ -6,7 +6,7 @@
 import { quantileRange } from '../../app/render/colour-scales.js';
 import { canvasHeightFor } from '../../app/render/pixel-lookup.js';
 import type { ViewGrid } from '../../contract/view-types.js';
-import { lookupFor, paint, projectionOf, type MapChoice } from '../../renderer/views/map.js';
+import { lookupFor, paint, projectionOf, type MapChoice } from '../../renderer/views/map-paint.js';
 
 interface PlotlyLike {
   newPlot(el: HTMLElement, data: unknown[], layout: unknown, config: unknown): Promise<unknown>;

@@ -1,0 +1,20 @@
+/** One source of the recipe (the reference or a run): its variables with names and units, its snapshots. */
+import type { SourceInfo } from '../../contract/view-types.js';
+import { h } from '../dom.js';
+
+export function sourceBlock(src: SourceInfo, kind: 'reference' | 'run'): HTMLElement {
+  const vars = h('ul', { class: 'var-list' });
+  for (const v of src.variables) {
+    vars.append(
+      h(
+        'li',
+        { title: `${v.name} in ${v.file}${v.longName ? '\n' + v.longName : ''}` },
+        h('span', { class: 'var-key' }, v.key),
+        h('span', { class: 'var-name' }, v.name),
+        h('span', { class: `var-units${v.units === '?' ? ' bad' : ''}` }, v.units || 'no units'),
+      ),
+    );
+  }
+  const snaps = src.snapshots?.length ? h('p', { class: 'muted small' }, `${src.snapshots.length} spin-up snapshots, years ${src.snapshots[0].year ?? '?'}–${src.snapshots[src.snapshots.length - 1].year ?? '?'}`) : null;
+  return h('section', { class: `source ${kind}` }, h('h3', {}, h('span', { class: 'source-kind' }, kind === 'reference' ? 'Reference' : 'Run'), src.label), vars, snaps);
+}
