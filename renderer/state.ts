@@ -3,6 +3,7 @@
  * points at. Views subscribe and redraw; nothing else holds state.
  */
 import type { ProjectionId } from '../app/render/projections.js';
+import { DEFAULT_DIFF_SCALE, DEFAULT_FIELD_SCALE } from '../app/render/named-scales.js';
 import type { SectionKind, SessionInfo } from '../contract/view-types.js';
 
 export type ViewId = 'map' | 'difference' | 'section' | 'profile' | 'diagram' | 'scores' | 'spinup' | 'line';
@@ -38,6 +39,38 @@ export interface Selection {
   /** fixed colour range (null: automatic) per view kind */
   fieldRange: [number, number] | null;
   diffRange: [number, number] | null;
+  /** names of the colour scales (see app/render/named-scales.ts) for fields and for differences */
+  fieldScale: string;
+  diffScale: string;
+  /** fields coloured by the logarithm of their values (nutrients, chlorophyll-like fields) */
+  logColour: boolean;
+  /** one automatic range over the reference and every run, so that maps of different runs compare by colour */
+  lockRange: boolean;
+  /** labelled contour lines over maps */
+  contours: boolean;
+  /** the map's window in projected metres when zoomed or panned; null: the whole projection */
+  mapWindow: MapWindow | null;
+  /** maps show only the chosen region, and the difference map gives that region's statistics */
+  cropToRegion: boolean;
+  /** the Line view's transect, kept for the session */
+  line: LineChoice;
+}
+
+export interface MapWindow {
+  xmin: number;
+  xmax: number;
+  ymin: number;
+  ymax: number;
+}
+
+export interface LineChoice {
+  /** waypoints as [lon, lat] */
+  points: [number, number][];
+  spacingKm: number;
+  /** which field along the line: index into the line's fields (reference, runs, differences) */
+  field: number;
+  /** depth axis stretched over the upper ocean */
+  stretch: boolean;
 }
 
 export interface ProbePoint {
@@ -74,6 +107,14 @@ export const state: AppState = {
     diagram: 'taylor',
     fieldRange: null,
     diffRange: null,
+    fieldScale: DEFAULT_FIELD_SCALE,
+    diffScale: DEFAULT_DIFF_SCALE,
+    logColour: false,
+    lockRange: false,
+    contours: false,
+    mapWindow: null,
+    cropToRegion: false,
+    line: { points: [[-30, -60], [-30, 0], [-20, 60]], spacingKm: 100, field: 1, stretch: false },
   },
   probe: null,
 };
@@ -87,8 +128,17 @@ function notify(changed: Set<string>): void {
   for (const l of [...listeners]) l(state, changed);
 }
 
+/** Changes of these keys can be undone (Ctrl+Z) and redone (Ctrl+Y or Ctrl+Shift+Z). */
+const UNDOABLE: (keyof Selection)[] = ['variable', 'run', 'layer', 'region', 'projection', 'mapField', 'fieldRange', 'diffRange', 'fieldScale', 'diffScale', 'logColour', 'lockRange', 'contours', 'mapWindow', 'cropToRegion', 'line', 'sectionKind', 'sectionAt', 'sectionField', 'sectionDepth', 'diagram'];
+const HISTORY_LIMIT = 100;
+const undoStack: Selection[] = [];
+const redoStack: Selection[] = [];
+
+const copy = (sel: Selection): Selection => JSON.parse(JSON.stringify(sel)) as Selection;
+
 /** Change part of the selection; listeners hear which keys changed. */
 export function choose(patch: Partial<Selection>): void {
+  const before = copy(state.sel);
   const changed = new Set<string>();
   for (const [k, v] of Object.entries(patch) as [keyof Selection, unknown][]) {
     if (JSON.stringify(state.sel[k]) !== JSON.stringify(v)) {
@@ -101,11 +151,47 @@ export function choose(patch: Partial<Selection>): void {
     state.sel.fieldRange = null;
     state.sel.diffRange = null;
   }
+  // another projection has other metres: the zoom starts again
+  if (changed.has('projection') && !('mapWindow' in patch)) state.sel.mapWindow = null;
+  if (!changed.size) return;
+  if (UNDOABLE.some((k) => changed.has(k))) {
+    undoStack.push(before);
+    if (undoStack.length > HISTORY_LIMIT) undoStack.shift();
+    redoStack.length = 0;
+  }
+  notify(changed);
+}
+
+function restore(to: Selection): void {
+  const changed = new Set<string>();
+  for (const k of Object.keys(to) as (keyof Selection)[]) if (JSON.stringify(state.sel[k]) !== JSON.stringify(to[k])) changed.add(k);
+  // undo never moves between views: it takes back what was changed in them
+  state.sel = { ...to, view: state.sel.view };
+  changed.delete('view');
   if (changed.size) notify(changed);
+}
+
+/** Take back the last change of the view; false when there is none. */
+export function undo(): boolean {
+  const prev = undoStack.pop();
+  if (!prev) return false;
+  redoStack.push(copy(state.sel));
+  restore(prev);
+  return true;
+}
+
+/** Do again what undo took back; false when there is nothing to redo. */
+export function redo(): boolean {
+  const next = redoStack.pop();
+  if (!next) return false;
+  undoStack.push(copy(state.sel));
+  restore(next);
+  return true;
 }
 
 export function setSession(session: SessionInfo): void {
   const previous = state.sel;
+  const previousSession = state.session?.session;
   state.session = session;
   const vars = session.variables;
   const variable = vars.some((v) => v.key === previous.variable) ? previous.variable : (vars[0]?.key ?? '');
@@ -114,6 +200,11 @@ export function setSession(session: SessionInfo): void {
   const layer = session.layers.some((l) => l.id === previous.layer) ? previous.layer : (session.layers[0]?.id ?? 'k:0');
   const region = session.regions.includes(previous.region) ? previous.region : (session.regions[0] ?? 'global');
   state.sel = { ...previous, variable, run, layer, region, fieldRange: null, diffRange: null };
+  // another recipe starts a new history; a saved or extended session keeps it
+  if (previousSession !== session.session) {
+    undoStack.length = 0;
+    redoStack.length = 0;
+  }
   notify(new Set(['session', 'variable', 'run', 'layer', 'region']));
 }
 

@@ -96,6 +96,7 @@ export function spinupTable(): SortableTable<SpinupTrack> {
     columns: COLUMNS,
     sort: { key: 'percent', up: false },
     rowClass: 'track-row',
+    numbersLargestFirst: true,
     after(t) {
       const notes = notesOf(t);
       return notes.length ? h('tr', { class: 'verdict-note-row' }, h('td', { colspan: COLUMNS.length, class: 'text verdict-note' }, `${t.tracer}, ${t.region}, ${t.layer}: ${notes.join('; ')}.`)) : null;

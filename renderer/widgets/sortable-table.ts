@@ -11,7 +11,7 @@ export interface Column<Row, K extends string = string> {
   label: string;
   /** hover text of the head */
   title: string;
-  /** text columns align left and first sort ascending */
+  /** text columns align left */
   text?: boolean;
   value(row: Row): SortValue;
   /** the cell; plain text of the value when absent */
@@ -34,6 +34,8 @@ export interface SortableTableSpec<Row, K extends string> {
   after?(row: Row): HTMLTableRowElement | null;
   rowClass?: string;
   rowTitle?(row: Row): string;
+  /** a numeric column sorts largest first when first chosen (the largest drift is the news) */
+  numbersLargestFirst?: boolean;
   /** told when the sort changes (to remember it) */
   onSort?(sort: SortState<K>): void;
 }
@@ -71,7 +73,7 @@ export function sortableTable<Row, K extends string>(spec: SortableTableSpec<Row
         if (sort.key === c.key) sort.up = !sort.up;
         else {
           sort.key = c.key;
-          sort.up = !!c.text;
+          sort.up = !!c.text || !spec.numbersLargestFirst;
         }
         spec.onSort?.({ ...sort });
         // the button is drawn anew: keep the keyboard where it was
