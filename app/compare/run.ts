@@ -1,13 +1,11 @@
 /**
- * A comparison from a validated recipe: for each variable, open the reference and the runs, bring them onto
- * the common grid and into the table's units, then stream the levels once, feeding every run's statistics
- * for all regions × layers at the same time. Memory: a few levels per run.
+ * A comparison from a validated recipe: for each variable, open the pair (the reference and the runs on the
+ * common grid, in the table's units: open-pair.ts), stream the levels once, feeding every run's statistics
+ * for all regions × layers at the same time, then turn them into skill rows. Memory: a few levels per run.
  */
 import { statSync } from 'node:fs';
-import { parseUnits, type ParsedUnits } from '../cf/units.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid } from '../grid/types.js';
-import { parseExpression } from '../ocean/expression.js';
 import type { Recipe } from '../recipe/types.js';
 import { layerLabel } from '../regions/layers.js';
 import type { Region } from '../regions/region.js';
@@ -15,11 +13,10 @@ import { multiTracerCost } from '../stats/cost.js';
 import { log10Values } from '../stats/log-space.js';
 import { skillFromMoments } from '../stats/skill.js';
 import { PairAccumulator } from './accumulate.js';
-import { commonGridFor, sameHorizontal } from './common-grid.js';
-import { densityProvider } from './density.js';
+import { sameHorizontal } from './common-grid.js';
 import type { FieldSinkFactory, LevelSink } from './field-sink.js';
-import { derivedReader, onGrid, openSpec, plainReader, referenceUnitsOf, type LevelReader, type ReaderContext } from './level-reader.js';
-import { loadRegions, prefixed } from './load-regions.js';
+import { loadRegions } from './load-regions.js';
+import { openPair } from './open-pair.js';
 import { makeRow, type SkillRow } from './rows.js';
 
 export interface CompareOptions {
@@ -62,10 +59,6 @@ export interface ComparisonResult {
   inputs: InputFile[];
 }
 
-function tableUnits(u: ParsedUnits): string {
-  return u.kind === 'other' ? u.text.trim() : u.canonical;
-}
-
 export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): Promise<ComparisonResult> {
   const rows: SkillRow[] = [];
   const variables: VariableInfo[] = [];
@@ -77,65 +70,23 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
   };
   const costTerms = recipe.runs.map(() => [] as { variable: string; rmse: number | null; refMean: number | null }[]);
   const regionCache: { grid: Grid; regions: Region[] }[] = [];
-  /** the table units of a reference variable: the recipe's choice, or the reference file's */
-  const referenceUnits = referenceUnitsOf(recipe);
 
   for (let vi = 0; vi < recipe.variables.length; vi++) {
     if (opts.signal?.aborted) throw new StillwaterError('E_CANCELLED', 'The comparison was cancelled.');
     const variable = recipe.variables[vi];
-    const derived = recipe.options.derived[variable];
     opts.onProgress?.(vi / recipe.variables.length, `${variable}: opening and regridding`);
-    const readers: LevelReader[] = [];
-    let densityClose: (() => Promise<void>) | null = null;
-    let unowned: { close?(): Promise<void> } | null = null;
+    const pair = await openPair(recipe, variable, { cacheDir: opts.cacheDir, noteFile });
     try {
-      // the common grid follows the reference field (of the first input, for a derived variable)
-      const gridKey = derived ? parseExpression(derived.expression).variables[0] : variable;
-      const gridSpec = recipe.reference.variables[gridKey];
-      const refField = await openSpec(gridSpec);
-      unowned = refField;
-      const grid = commonGridFor(recipe.options.commonGrid, refField.grid);
-      const density = densityProvider(recipe, grid, async (spec) => onGrid(await openSpec(spec), spec, { grid, options: recipe.options, cacheDir: opts.cacheDir }));
-      densityClose = () => density.close();
-      const ctx: ReaderContext = { grid, options: recipe.options, cacheDir: opts.cacheDir, densityNote: density.note, noteFile };
-      let target: ParsedUnits;
-      let ref: LevelReader;
-      unowned = null;
-      if (derived) {
-        await refField.close?.();
-        target = await prefixed(`options.derived.${variable}.units`, async () => parseUnits(derived.units));
-        ref = await derivedReader(variable, derived.expression, recipe.reference, referenceUnits, ctx);
-      } else {
-        target = recipe.options.units[variable] ? await referenceUnits(variable) : refField.units;
-        ref = await plainReader(variable, gridSpec, target, ctx, refField);
-      }
-      readers.push(ref);
+      const { grid, reference: ref } = pair;
+      const runs = await pair.openRuns();
       const info: VariableInfo = {
         variable,
-        units: tableUnits(target),
+        units: pair.unitsText,
         grid: { nx: grid.horizontal.nx, ny: grid.horizontal.ny, nz: grid.vertical?.nz ?? 1, kind: grid.horizontal.kind },
-        ...(derived ? { expression: derived.expression } : {}),
-        conversions: ref.conversions.map((note) => ({ source: recipe.reference.label, note })),
-        regridded: ref.regridded ? [recipe.reference.label] : [],
+        ...(pair.expression !== undefined ? { expression: pair.expression } : {}),
+        conversions: [ref, ...runs].flatMap((src) => src.conversions.map((note) => ({ source: src.label, note }))),
+        regridded: [ref, ...runs].filter((src) => src.regridded).map((src) => src.label),
       };
-      const runs: { index: number; label: string; reader: LevelReader }[] = [];
-      for (let ri = 0; ri < recipe.runs.length; ri++) {
-        const run = recipe.runs[ri];
-        let reader: LevelReader;
-        if (derived) {
-          const needs = parseExpression(derived.expression).variables;
-          if (!needs.every((k) => run.variables[k])) continue;
-          reader = await derivedReader(variable, derived.expression, run, referenceUnits, ctx);
-        } else {
-          const spec = run.variables[variable];
-          if (!spec) continue;
-          reader = await plainReader(variable, spec, target, ctx);
-        }
-        readers.push(reader);
-        runs.push({ index: ri, label: run.label, reader });
-        for (const note of reader.conversions) info.conversions.push({ source: run.label, note });
-        if (reader.regridded) info.regridded.push(run.label);
-      }
 
       let cached = regionCache.find((c) => sameHorizontal(c.grid.horizontal, grid.horizontal));
       if (!cached) {
@@ -153,16 +104,14 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
       try {
         for (const r of runs) sinks.push(opts.keepFields ? await opts.keepFields({ run: r.label, variable, units: info.units, grid }) : null);
         const nz = grid.vertical?.nz ?? 1;
-        const needRho = readers.some((r) => r.needsDensity);
         let refLog: Float32Array | undefined;
         let modelLog: Float32Array | undefined;
         for (let k = 0; k < nz; k++) {
           if (opts.signal?.aborted) throw new StillwaterError('E_CANCELLED', 'The comparison was cancelled.');
-          const rho = needRho ? await density.level(k) : undefined;
-          const refLevel = await ref.read(k, rho);
+          const refLevel = await ref.level(k);
           if (wantLog) refLog = log10Values(refLevel, refLog);
           for (let q = 0; q < runs.length; q++) {
-            const model = await runs[q].reader.read(k, rho);
+            const model = await runs[q].level(k);
             accs[q].addLevel(k, model, refLevel);
             if (wantLog) {
               modelLog = log10Values(model, modelLog);
@@ -201,13 +150,11 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
         });
         // the cost is always over the whole grid and the full depth, whether or not "global" was asked for
         const s = skillFromMoments(accs[q].globalFullDepth());
-        costTerms[r.index].push({ variable, rmse: s.rmse, refMean: s.ref_mean });
+        costTerms[pair.runs[q].index].push({ variable, rmse: s.rmse, refMean: s.ref_mean });
       });
       variables.push(info);
     } finally {
-      await unowned?.close?.().catch(() => undefined);
-      for (const r of readers) await r.close();
-      await densityClose?.();
+      await pair.close();
     }
   }
   const costs = recipe.runs.map((run, i) => ({ run: run.label, ...multiTracerCost(costTerms[i]) }));
