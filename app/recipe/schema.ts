@@ -3,6 +3,7 @@
  * session. Unknown keys are rejected so that a typo is never silently ignored.
  */
 import { z } from 'zod';
+import { reportSectionSchema } from './report-schema.js';
 
 const nonEmpty = z.string().min(1, { error: 'must not be empty' });
 
@@ -135,6 +136,8 @@ export const recipeSchema = z.strictObject({
   regions: z.array(regionSchema).min(1).default(['global', 'atlantic', 'pacific', 'indian', 'southern', 'arctic']),
   layers: z.array(layerSchema).min(1).default(['all']),
   options: optionsSchema.default(() => optionsSchema.parse({})),
+  /** what `stillwater report` draws (app/recipe/report-schema.ts) */
+  report: reportSectionSchema.optional(),
 });
 
 export type RecipeInput = z.input<typeof recipeSchema>;

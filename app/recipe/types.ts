@@ -1,5 +1,6 @@
 /** A validated recipe with absolute paths and every default filled in. */
 import type { LayerSpec } from '../regions/layers.js';
+import type { ReportSectionInput } from './report-schema.js';
 import type { RecipeOptions } from './schema.js';
 
 export interface VariableSource {
@@ -40,4 +41,6 @@ export interface Recipe {
   options: RecipeOptions;
   /** compared variables in order: the reference's, then derived ones */
   variables: string[];
+  /** the `report` section as written (defaults are filled by app/recipe/report-settings.ts) */
+  report?: ReportSectionInput;
 }

@@ -151,5 +151,6 @@ export function validateRecipe(json: unknown, baseDir: string, opts: ValidateOpt
     layers: p.layers.map(layerFromEntry),
     options: p.options,
     variables: known,
+    ...(p.report ? { report: p.report } : {}),
   };
 }
