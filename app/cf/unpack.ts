@@ -1,10 +1,8 @@
 /**
  * Step 2 of decoding: packed values → physical values, x · scale_factor + add_offset (CF 1.10 §8.1).
- * The result type follows netCDF4-python 1.6 with numpy's promotion: bytes and shorts packed with
+ * The result type (decodedType) follows CF and netCDF4-python 1.6: bytes and shorts packed with
  * single-precision attributes decode to Float32 (and the arithmetic is done in single precision, as numpy
  * does); 32- and 64-bit integers, doubles, and double-precision attributes decode to Float64.
- * Our readers give attribute values as numbers without their stored type, so a packing attribute counts
- * as single precision when its value is exactly representable in single precision.
  */
 import type { DType, RawVariable } from '../io/types.js';
 import { effectiveDtype } from './mask.js';
@@ -24,16 +22,32 @@ export function packingOf(v: Pick<RawVariable, 'attrs'>): Packing {
   return { scale, offset, packed: Array.isArray(s) || Array.isArray(o) };
 }
 
-const SMALL: DType[] = ['i1', 'u1', 'i2', 'u2', 'f4', 'char'];
+const SMALL: DType[] = ['i1', 'u1', 'i2', 'u2', 'char'];
 
-/** Float32 or Float64: the type netCDF4-python's decoded array would have. */
-export function decodedType(v: Pick<RawVariable, 'dtype' | 'attrs'>): 'f4' | 'f8' {
+/**
+ * Float32 or Float64: the type of the decoded values. Unpacked (CF 1.10 §8.1): the type of scale_factor
+ * (else add_offset) for bytes and shorts, as netCDF4-python 1.6 gives; double for 32- and 64-bit integers
+ * (netCDF4-python's numpy promotion, and single precision could not hold them); for float data, double when
+ * a packing attribute is double (CF: the unpacked type is the attributes' type; netCDF4-python stays in
+ * single precision there). Not packed: single precision for bytes, shorts and floats, double otherwise.
+ * Where the reader does not say an attribute's stored type, it counts as single precision when its value
+ * is exact in single precision.
+ */
+export function decodedType(v: Pick<RawVariable, 'dtype' | 'attrs' | 'attrTypes'>): 'f4' | 'f8' {
   const dtype = effectiveDtype(v);
-  if (!SMALL.includes(dtype)) return 'f8';
+  const small = SMALL.includes(dtype);
+  if (!small && dtype !== 'f4') return 'f8';
   const p = packingOf(v);
   if (!p.packed) return 'f4';
-  const single = (x: number): boolean => Math.fround(x) === x;
-  return single(p.scale) && single(p.offset) ? 'f4' : 'f8';
+  const typeOf = (key: 'scale_factor' | 'add_offset', value: number): DType | undefined => {
+    if (!Array.isArray(v.attrs[key])) return undefined;
+    return v.attrTypes?.[key] ?? (Math.fround(value) === value ? 'f4' : 'f8');
+  };
+  const scaleType = typeOf('scale_factor', p.scale);
+  const offsetType = typeOf('add_offset', p.offset);
+  if (dtype === 'f4') return scaleType === 'f8' || offsetType === 'f8' ? 'f8' : 'f4';
+  const t = scaleType ?? offsetType;
+  return t === 'f8' || t === 'i4' || t === 'u4' || t === 'i8' || t === 'u8' ? 'f8' : 'f4';
 }
 
 /** Apply scale_factor and add_offset in place; NaN stays NaN. */

@@ -154,6 +154,8 @@ export async function openGeoTiff(source: ByteSource, path: string): Promise<Raw
     shape: bands > 1 ? [bands, height, width] : [height, width],
     dtype,
     attrs: rasterAttrs,
+    // GDAL keeps scale and offset as doubles (GDALRasterBand::GetScale/GetOffset)
+    attrTypes: { ...(rasterAttrs.scale_factor ? { scale_factor: 'f8' } : {}), ...(rasterAttrs.add_offset ? { add_offset: 'f8' } : {}) },
   };
   variables.unshift(raster);
   return new GeoTiffDataset(path, source, tiff, image, dims, variables);
@@ -172,7 +174,7 @@ class GeoTiffDataset implements RawDataset {
     readonly dimensions: RawDimension[],
     private readonly vars: MemVar[],
   ) {
-    this.variables = vars.map(({ name, dims, shape, dtype, attrs }) => ({ name, dims, shape, dtype, attrs }));
+    this.variables = vars.map(({ name, dims, shape, dtype, attrs, attrTypes }) => ({ name, dims, shape, dtype, attrs, ...(attrTypes ? { attrTypes } : {}) }));
   }
 
   async read(name: string, start?: number[], count?: number[]): Promise<RawArray> {

@@ -28,6 +28,7 @@ export interface Cdf3Variable {
   shape: number[];
   dtype: DType;
   attrs: Attributes;
+  attrTypes: Record<string, DType>;
   /** byte offset of the data (of the first record for a record variable) */
   begin: number;
   /** true when the first dimension is the unlimited (record) dimension */
@@ -74,9 +75,12 @@ export async function readCdf3Header(source: ByteSource): Promise<Cdf3Header> {
     return n;
   };
 
+  let types: Record<string, DType> = {};
+  /** Attributes of one list; their stored types are left in `types`. */
   const attributes = async (): Promise<Attributes> => {
     const n = await listHeader(NC_ATTRIBUTE, 'attribute');
     const attrs: Attributes = {};
+    types = {};
     for (let i = 0; i < n; i++) {
       const key = await name();
       const type = NC_TYPES[await c.u32()];
@@ -90,6 +94,7 @@ export async function readCdf3Header(source: ByteSource): Promise<Cdf3Header> {
       } else {
         bigEndianToHost(raw, DTYPE_SIZE[type]);
         attrs[key] = toNumbers(viewArray(type, raw));
+        types[key] = type;
       }
     }
     return attrs;
@@ -116,6 +121,7 @@ export async function readCdf3Header(source: ByteSource): Promise<Cdf3Header> {
       dimIds.push(id);
     }
     const vattrs = await attributes();
+    const attrTypes = types;
     const dtype = NC_TYPES[await c.u32()];
     if (!dtype) c.damaged(`variable '${vname}' has an unknown type`);
     await nonNeg(); // vsize: recomputed below, since it saturates for variables over 4 GiB
@@ -128,6 +134,7 @@ export async function readCdf3Header(source: ByteSource): Promise<Cdf3Header> {
       shape: dimIds.map((id) => dimensions[id].size),
       dtype,
       attrs: vattrs,
+      attrTypes,
       begin,
       isRecord,
     });

@@ -29,7 +29,7 @@ export class Netcdf3Dataset implements RawDataset {
     this.format = FORMATS[header.version];
     this.dimensions = header.dimensions;
     this.attrs = header.attrs;
-    this.variables = header.variables.map((v) => ({ name: v.name, dims: v.dims, shape: v.shape, dtype: v.dtype, attrs: v.attrs }));
+    this.variables = header.variables.map((v) => ({ name: v.name, dims: v.dims, shape: v.shape, dtype: v.dtype, attrs: v.attrs, attrTypes: v.attrTypes }));
     for (const v of header.variables) this.byName.set(v.name, v);
   }
 

@@ -90,7 +90,7 @@ export function readNetcdf4Metadata(file: H5File): Netcdf4Metadata {
       });
     }
     variables.push({
-      name: varName, dims, shape: shape.slice(), dtype, attrs: attributesOf(ds),
+      name: varName, dims, shape: shape.slice(), dtype, attrs: attributesOf(ds), attrTypes: attributeTypesOf(ds),
       h5path: `/${name}`, littleEndian: meta.littleEndian, elementSize: meta.size,
       ...(note ? { note } : {}),
     });
@@ -120,6 +120,21 @@ function attributesOf(obj: Dataset | Group): Attributes {
       value = undefined; // a type we cannot turn into text or numbers
     }
     if (value !== undefined) out[key] = value;
+  }
+  return out;
+}
+
+/** Stored types of the numeric attributes (text ones need none). */
+function attributeTypesOf(obj: Dataset | Group): Record<string, DType> {
+  const out: Record<string, DType> = {};
+  for (const [key, attr] of Object.entries(obj.attrs)) {
+    if (INTERNAL_ATTRS.has(key)) continue;
+    try {
+      const t = dtypeOf(attr.metadata);
+      if (t && t !== 'char' && t !== 'string') out[key] = t;
+    } catch {
+      // a type we do not read: its value is skipped too
+    }
   }
   return out;
 }

@@ -68,7 +68,7 @@ export class Netcdf4Dataset implements RawDataset {
     private readonly objectAddress: (h5path: string) => number | undefined,
   ) {
     this.store = new ChunkStore(source);
-    this.variables = h5vars.map(({ name, dims, shape, dtype, attrs, note }) => ({ name, dims, shape, dtype, attrs, ...(note ? { note } : {}) }));
+    this.variables = h5vars.map(({ name, dims, shape, dtype, attrs, attrTypes, note }) => ({ name, dims, shape, dtype, attrs, ...(attrTypes ? { attrTypes } : {}), ...(note ? { note } : {}) }));
   }
 
   async read(name: string, start?: number[], count?: number[]): Promise<RawArray> {

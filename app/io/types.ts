@@ -40,6 +40,11 @@ export interface RawVariable {
   shape: number[];
   dtype: DType;
   attrs: Attributes;
+  /**
+   * The stored type of each numeric attribute, where the format says it (NetCDF classic, NetCDF-4; and
+   * the GeoTIFF reader's packing, which GDAL keeps in double): CF decides the unpacked type from it.
+   */
+  attrTypes?: Record<string, DType>;
   /** What a person should know about how this variable was read (e.g. dimensions without names). */
   note?: string;
 }
