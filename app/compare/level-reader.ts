@@ -72,7 +72,7 @@ export async function onGrid(field: FieldSource, spec: VariableSource, ctx: Pick
   return prefixed(spec.path, () => regridField(field, grid, { method: ctx.options.method, coverage: ctx.options.coverage, cacheDir: ctx.cacheDir }));
 }
 
-export async function plainReader(key: string, spec: VariableSource, target: ParsedUnits, ctx: ReaderContext, opened?: FieldSource): Promise<LevelReader> {
+export async function plainReader(key: string, spec: VariableSource, target: ParsedUnits, ctx: ReaderContext, opened?: FieldSource, oxygen?: boolean): Promise<LevelReader> {
   const field = opened ?? (await openSpec(spec));
   ctx.noteFile(spec.file);
   try {
@@ -81,7 +81,7 @@ export async function plainReader(key: string, spec: VariableSource, target: Par
     if (t !== 'mean' && (t < 0 || t >= src.nt)) {
       throw new StillwaterError('E_RECIPE', `${spec.path}.time: step ${spec.time} is outside the file's ${src.nt} time steps.`, { path: `${spec.path}.time` });
     }
-    const convert = makeLevelConverter(field.units, target, `${spec.path} ('${spec.name}' in ${spec.file})`, spec.name, looksLikeOxygen(key, field.standardName));
+    const convert = makeLevelConverter(field.units, target, `${spec.path} ('${spec.name}' in ${spec.file})`, spec.name, oxygen ?? looksLikeOxygen(key, field.standardName));
     return {
       needsDensity: convert?.needsDensity ?? false,
       regridded: src !== field,
@@ -113,11 +113,16 @@ export async function derivedReader(
 ): Promise<LevelReader> {
   const parsed = await prefixed(`options.derived.${name}.expression`, async () => parseExpression(expression));
   const readers: { key: string; reader: LevelReader }[] = [];
+  const path = `options.derived.${name}.expression`;
   try {
-    for (const key of parsed.variables) {
-      const spec = source.variables[key];
-      if (!spec) throw new StillwaterError('E_RECIPE', `options.derived.${name}.expression: ${source.path} has no variable '${key}'.`, { path: `options.derived.${name}.expression` });
-      readers.push({ key, reader: await plainReader(key, spec, await inputUnits(key), ctx) });
+    for (const input of parsed.inputs) {
+      const spec = source.variables[input.name];
+      if (!spec) throw new StillwaterError('E_RECIPE', `${path}: ${source.path} has no variable '${input.name}'.`, { path });
+      const need = input.need;
+      const target = need && 'units' in need ? parseUnits(need.units) : await inputUnits(input.name);
+      if (need && 'salinity' in need) checkPracticalSalinity(target, input.name, path);
+      const oxygen = need && 'units' in need ? need.oxygen : undefined;
+      readers.push({ key: input.key, reader: await plainReader(input.name, spec, target, ctx, undefined, oxygen) });
     }
   } catch (e) {
     for (const r of readers) await r.reader.close();
@@ -137,4 +142,13 @@ export async function derivedReader(
       for (const r of readers) await r.reader.close();
     },
   };
+}
+
+/** The ocean functions take practical salinity: a salinity in PSS-78 units or a plain number, not g/kg. */
+function checkPracticalSalinity(units: ParsedUnits, variable: string, path: string): void {
+  const practical = (units.kind === 'salinity' && units.canonical === '1e-3') || (units.kind === 'dimensionless' && units.factor === 1);
+  if (!practical) {
+    const what = units.kind === 'salinity' ? 'an absolute salinity' : `not a salinity (${units.kind})`;
+    throw new StillwaterError('E_UNITS', `${path}: '${variable}' is in '${units.text}', ${what}; the ocean functions take practical salinity (PSS-78).`, { path });
+  }
 }

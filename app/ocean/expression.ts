@@ -1,8 +1,11 @@
 import { StillwaterError } from '../errors.js';
+import { aouLevel, oxygenSaturationLevel } from './aou.js';
+import { nStarLevel } from './nstar.js';
 
 /**
  * Derived-tracer expressions, a small language of our own: numbers, variable names, + − * / ^,
- * unary minus, parentheses and the functions abs, exp, log, log10, min, max. Text is tokenised and
+ * unary minus, parentheses, the functions abs, exp, log, log10, min, max and the ocean functions
+ * oxygen_saturation, aou, nstar, nstar_simple (see OCEAN_FUNCTIONS). Text is tokenised and
  * parsed by recursive descent into a tree, then evaluated element by element over typed arrays
  * (NaN propagates). Nothing is ever evaluated as JavaScript.
  *
@@ -14,21 +17,59 @@ import { StillwaterError } from '../errors.js';
  */
 export type ExprNode =
   | { type: 'number'; value: number; pos: number }
-  | { type: 'variable'; name: string; pos: number }
+  | { type: 'variable'; name: string; pos: number; input: string }
   | { type: 'negate'; arg: ExprNode; pos: number }
   | { type: 'binary'; op: '+' | '-' | '*' | '/' | '^'; left: ExprNode; right: ExprNode; pos: number }
   | { type: 'call'; fn: FunctionName; args: ExprNode[]; pos: number };
 
-export type FunctionName = 'abs' | 'exp' | 'log' | 'log10' | 'min' | 'max';
+export type FunctionName = 'abs' | 'exp' | 'log' | 'log10' | 'min' | 'max' | OceanFunction;
+export type OceanFunction = 'oxygen_saturation' | 'aou' | 'nstar' | 'nstar_simple';
 
-const FUNCTIONS: Record<FunctionName, { min: number; max: number }> = {
+/**
+ * What an ocean function needs of an argument. A plain variable given there is read in the units the
+ * function needs (converted like any compared variable, density included); salinity is taken as it is
+ * but must be a salinity. An argument that is itself an expression is taken as already in those units.
+ */
+export type ArgumentNeed = { units: string; oxygen?: boolean } | { salinity: true };
+
+const OXYGEN: ArgumentNeed = { units: 'umol kg-1', oxygen: true };
+const THETA: ArgumentNeed = { units: 'degC' };
+const SALINITY: ArgumentNeed = { salinity: true };
+const NUTRIENT: ArgumentNeed = { units: 'umol kg-1' };
+
+interface FunctionSpec {
+  min: number;
+  max: number;
+  /** for ocean functions, what each argument must be */
+  needs?: ArgumentNeed[];
+}
+
+/** Known functions; a table without a prototype, so 'constructor(' or 'toString(' is an unknown function. */
+const FUNCTIONS: Record<FunctionName, FunctionSpec> = Object.assign(Object.create(null) as Record<FunctionName, FunctionSpec>, {
   abs: { min: 1, max: 1 },
   exp: { min: 1, max: 1 },
   log: { min: 1, max: 1 },
   log10: { min: 1, max: 1 },
   min: { min: 2, max: Infinity },
   max: { min: 2, max: Infinity },
-};
+  // Garcia & Gordon (1992) O₂ solubility, µmol/kg, from potential temperature (°C) and practical salinity
+  oxygen_saturation: { min: 2, max: 2, needs: [THETA, SALINITY] },
+  // apparent oxygen utilisation, µmol/kg: oxygen_saturation(θ, S) − O₂
+  aou: { min: 3, max: 3, needs: [OXYGEN, THETA, SALINITY] },
+  // N* of Gruber & Sarmiento (1997), µmol/kg: (N − 16 P + 2.90) · 0.87
+  nstar: { min: 2, max: 2, needs: [NUTRIENT, NUTRIENT] },
+  // the simplified N − 16 P + 2.9, µmol/kg
+  nstar_simple: { min: 2, max: 2, needs: [NUTRIENT, NUTRIENT] },
+});
+
+/** One input an expression reads: a variable as it is, or in the units an ocean function needs. */
+export interface ExpressionInput {
+  /** the key evaluation looks it up by: the name, or "name [units]" */
+  key: string;
+  /** the recipe variable */
+  name: string;
+  need?: ArgumentNeed;
+}
 
 interface Token {
   kind: 'number' | 'name' | 'op' | '(' | ')' | ',' | 'end';
@@ -43,6 +84,8 @@ export interface ParsedExpression {
   ast: ExprNode;
   /** variable names used, in order of first appearance */
   variables: string[];
+  /** what is read: each variable as it is, or in the units a function needs of it */
+  inputs: ExpressionInput[];
 }
 
 function fail(text: string, pos: number, what: string): never {
@@ -85,6 +128,12 @@ export function parseExpression(text: string): ParsedExpression {
   const tokens = tokenize(text);
   let p = 0;
   const variables: string[] = [];
+  const inputs: ExpressionInput[] = [];
+  const addInput = (name: string, need?: ArgumentNeed): string => {
+    const key = need && 'units' in need ? `${name} [${need.units}]` : need ? `${name} [salinity]` : name;
+    if (!inputs.some((x) => x.key === key)) inputs.push(need ? { key, name, need } : { key, name });
+    return key;
+  };
   const peek = (): Token => tokens[p];
   const next = (): Token => tokens[p++];
   const describe = (t: Token): string => (t.kind === 'end' ? 'unexpected end of expression' : `unexpected '${t.text}'`);
@@ -140,14 +189,19 @@ export function parseExpression(text: string): ParsedExpression {
         }
         const close = next();
         if (close.kind !== ')') fail(text, close.pos, `${describe(close)}; expected ')' or ','`);
-        const { min, max } = FUNCTIONS[fn];
+        const { min, max, needs } = FUNCTIONS[fn];
         if (args.length < min || args.length > max) {
           fail(text, t.pos, `${fn} takes ${min === max ? min : `at least ${min}`} argument${min === 1 && max === 1 ? '' : 's'}, got ${args.length}`);
+        }
+        if (needs) {
+          args.forEach((a, i) => {
+            if (a.type === 'variable') a.input = addInput(a.name, needs[i]);
+          });
         }
         return { type: 'call', fn, args, pos: t.pos };
       }
       if (!variables.includes(t.text)) variables.push(t.text);
-      return { type: 'variable', name: t.text, pos: t.pos };
+      return { type: 'variable', name: t.text, pos: t.pos, input: t.text };
     }
     if (t.kind === '(') {
       const inner = expression();
@@ -161,14 +215,23 @@ export function parseExpression(text: string): ParsedExpression {
   const ast = expression();
   const rest = peek();
   if (rest.kind !== 'end') fail(text, rest.pos, describe(rest));
-  return { text, ast, variables };
+  // variables used outside ocean-function arguments are read as they are
+  const walk = (node: ExprNode): void => {
+    if (node.type === 'variable' && node.input === node.name) addInput(node.name);
+    else if (node.type === 'negate') walk(node.arg);
+    else if (node.type === 'binary') [node.left, node.right].forEach(walk);
+    else if (node.type === 'call') node.args.forEach(walk);
+  };
+  walk(ast);
+  return { text, ast, variables, inputs };
 }
 
 export type ExprInput = Float32Array | Float64Array | number;
 
 /**
- * Evaluate over arrays of length n (numbers broadcast). Names not given are an error naming the
- * name and its position. Result Float32Array, NaN wherever an input is NaN or the value undefined.
+ * Evaluate over arrays of length n (numbers broadcast). Inputs are looked up by ExpressionInput.key (the
+ * plain name for a variable read as it is). Names not given are an error naming the name and its position.
+ * Result Float32Array, NaN wherever an input is NaN or the value undefined.
  */
 export function evaluateExpression(parsed: ParsedExpression, inputs: Record<string, ExprInput>, n: number): Float32Array {
   const values = evalNode(parsed.ast, parsed.text, inputs, n);
@@ -183,7 +246,7 @@ function evalNode(node: ExprNode, text: string, inputs: Record<string, ExprInput
     case 'number':
       return node.value;
     case 'variable': {
-      const v = Object.prototype.hasOwnProperty.call(inputs, node.name) ? inputs[node.name] : undefined;
+      const v = Object.prototype.hasOwnProperty.call(inputs, node.input) ? inputs[node.input] : undefined;
       if (v === undefined) fail(text, node.pos, `no variable named '${node.name}'`);
       if (typeof v === 'number') return v;
       if (v.length !== n) fail(text, node.pos, `variable '${node.name}' has ${v.length} values, expected ${n}`);
@@ -222,10 +285,23 @@ function evalNode(node: ExprNode, text: string, inputs: Record<string, ExprInput
           return args.reduce((acc, x) => map2(acc, x, n, Math.min));
         case 'max':
           return args.reduce((acc, x) => map2(acc, x, n, Math.max));
+        case 'oxygen_saturation':
+          return oxygenSaturationLevel(spread(args[0], n), spread(args[1], n));
+        case 'aou':
+          return aouLevel(spread(args[0], n), spread(args[1], n), spread(args[2], n));
+        case 'nstar':
+          return nStarLevel(spread(args[0], n), spread(args[1], n), 'gruber-sarmiento-1997').values;
+        case 'nstar_simple':
+          return nStarLevel(spread(args[0], n), spread(args[1], n), 'simplified').values;
       }
     }
   }
   throw new StillwaterError('E_INTERNAL', 'unknown expression node');
+}
+
+/** A number broadcast to n values (arrays pass through). */
+function spread(a: Float64Array | number, n: number): Float64Array {
+  return typeof a === 'number' ? new Float64Array(n).fill(a) : a;
 }
 
 function map1(a: Float64Array | number, f: (x: number) => number): Float64Array | number {

@@ -17,8 +17,8 @@ export function nStar(n: number, p: number, form: NStarForm = 'gruber-sarmiento-
 }
 
 /** N* over a level; NaN wherever N or P is missing. */
-export function nStarLevel(n: Float32Array, p: Float32Array, form: NStarForm = 'gruber-sarmiento-1997'): { values: Float32Array; form: NStarForm; formula: string } {
-  const out = new Float32Array(n.length);
+export function nStarLevel(n: ArrayLike<number>, p: ArrayLike<number>, form: NStarForm = 'gruber-sarmiento-1997'): { values: Float64Array; form: NStarForm; formula: string } {
+  const out = new Float64Array(n.length);
   for (let i = 0; i < n.length; i++) out[i] = nStar(n[i], p[i], form);
   return { values: out, form, formula: NSTAR_FORMULA[form] };
 }

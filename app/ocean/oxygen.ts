@@ -21,8 +21,3 @@ export function oxygenSolubilityT68(sp: number, t68: number): number {
 export function oxygenSolubility(sp: number, pt90: number): number {
   return oxygenSolubilityT68(sp, pt90 * 1.00024);
 }
-
-/** Apparent oxygen utilisation (µmol/kg): saturation minus observed O₂ (common practice). */
-export function apparentOxygenUtilisation(o2: number, sp: number, pt90: number): number {
-  return oxygenSolubility(sp, pt90) - o2;
-}

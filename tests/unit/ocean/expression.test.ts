@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
 import { evaluateExpression, parseExpression } from '../../../app/ocean/expression.js';
 
 const ev = (text: string, inputs: Record<string, Float32Array | number> = {}, n = 1): Float32Array => evaluateExpression(parseExpression(text), inputs, n);
@@ -47,5 +48,57 @@ describe('derived-tracer expressions', () => {
     expect(() => parseExpression('process.exit(1)')).toThrow(/unexpected character '\.'/);
     expect(() => parseExpression('constructor')).not.toThrow();
     expect(() => ev('constructor', {})).toThrow(/no variable named 'constructor'/);
+  });
+});
+
+describe('ocean functions of the expression language', () => {
+  const fx = JSON.parse(readFileSync(new URL('../../fixtures/ocean/seawater.json', import.meta.url), 'utf8')) as { oxygen: { sp: number; pt: number; o2sol: number }[] };
+  /** Evaluate with each input given by recipe name; the keys the parser asks for are looked up by name. */
+  function evalByName(text: string, byName: Record<string, Float32Array>, n: number): Float32Array {
+    const parsed = parseExpression(text);
+    const inputs: Record<string, Float32Array> = {};
+    for (const i of parsed.inputs) inputs[i.key] = byName[i.name];
+    return evaluateExpression(parsed, inputs, n);
+  }
+
+  it('oxygen_saturation(theta, S) matches gsw.O2sol_SP_pt to 0.01 µmol/kg (tests/fixtures/ocean/make_fixtures.py)', () => {
+    const theta = Float32Array.from(fx.oxygen.map((r) => r.pt)), s = Float32Array.from(fx.oxygen.map((r) => r.sp));
+    const got = evalByName('oxygen_saturation(theta, S)', { theta, S: s }, s.length);
+    fx.oxygen.forEach((r, i) => expect(Math.abs(got[i] - r.o2sol)).toBeLessThan(0.01));
+    expect(fx.oxygen.length).toBeGreaterThan(20);
+  });
+
+  it('aou(O2, theta, S) at S = 35, θ = 10 °C, O2 = 200 is 274.5957 − 200 by hand (gsw.O2sol_SP_pt(35, 10), REFERENCES.md)', () => {
+    const got = evalByName('aou(O2, theta, S)', { O2: Float32Array.of(200, NaN), theta: Float32Array.of(10, 10), S: Float32Array.of(35, 35) }, 2);
+    expect(Math.abs(got[0] - 74.5957)).toBeLessThan(0.01);
+    expect(Number.isNaN(got[1])).toBe(true);
+  });
+
+  it('nstar is (N − 16 P + 2.90) × 0.87 (Gruber & Sarmiento 1997; from memory), nstar_simple N − 16 P + 2.9', () => {
+    const by = { N: Float32Array.of(30), P: Float32Array.of(2) };
+    expect(evalByName('nstar(N, P)', by, 1)[0]).toBeCloseTo((30 - 32 + 2.9) * 0.87, 5);
+    expect(evalByName('nstar_simple(N, P)', by, 1)[0]).toBeCloseTo(0.9, 5);
+  });
+
+  it('a plain variable given to a function is read in the units the function needs; elsewhere as it is', () => {
+    const p = parseExpression('aou(O2, T, S) + O2 - nstar(NO3, PO4 * 1)');
+    expect(p.variables).toEqual(['O2', 'T', 'S', 'NO3', 'PO4']);
+    const byKey = Object.fromEntries(p.inputs.map((i) => [i.key, i.need ?? null]));
+    expect(byKey).toEqual({
+      'O2 [umol kg-1]': { units: 'umol kg-1', oxygen: true },
+      'T [degC]': { units: 'degC' },
+      'S [salinity]': { salinity: true },
+      'NO3 [umol kg-1]': { units: 'umol kg-1' },
+      O2: null,
+      PO4: null,
+    });
+  });
+
+  it('checks the number of arguments and looks functions up without a prototype', () => {
+    expect(() => parseExpression('aou(O2, T)')).toThrow(/aou takes 3 arguments, got 2/);
+    for (const name of ['constructor', 'toString', '__proto__', 'hasOwnProperty']) {
+      expect(() => parseExpression(`${name}(x)`)).toThrow(new RegExp(`unknown function '${name}'`));
+    }
+    expect(() => ev('constructor + 1')).toThrow(/no variable named 'constructor'/);
   });
 });
