@@ -32,6 +32,8 @@ export interface LayerChoice {
   bottom: number | null;
   /** level index for kind 'level' */
   k?: number;
+  /** bottom only: the recipe's bottom tolerance, m (stations within it of the seafloor are drawn) */
+  bottomTolerance?: number | null;
 }
 
 /** The common lat-lon-depth grid every field is regridded onto. */

@@ -132,6 +132,7 @@ function layerChoices(recipe: Recipe, grid: Grid): LayerChoice[] {
   for (const l of [...recipe.layers, { kind: 'bottom' } as LayerSpec]) {
     const c = choiceOf(l);
     if (c.kind === 'surface' || seen.has(c.id)) continue;
+    if (c.kind === 'bottom') c.bottomTolerance = recipe.options.bottomTolerance;
     seen.add(c.id);
     out.push(c);
   }

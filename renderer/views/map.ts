@@ -4,7 +4,7 @@
  * depth, variable or range only recolours.
  */
 import { DIVERGING, SEQUENTIAL } from '../../app/render/colour-scales.js';
-import { buildPixelLookup, canvasHeightFor, pixelToProjected } from '../../app/render/pixel-lookup.js';
+import { buildPixelLookup, canvasHeightFor, cellAt, pixelToProjected } from '../../app/render/pixel-lookup.js';
 import type { LevelData } from '../../contract/view-types.js';
 import { getLevel } from '../data.js';
 import { h, s } from '../dom.js';
@@ -175,10 +175,18 @@ export function mapView(difference: boolean): ViewFactory {
       stage.dataset.drawn = `${data.variable}|${data.run}|${data.layer.id}|${st.sel.projection}|${difference ? 'diff' : st.sel.mapField}`;
       if (stations && stationsMark && fig) {
         const f = fig;
+        const d = data;
+        const grid = st.session!.grid;
+        // the seafloor under a station: the bottom edge of the deepest cell of the map's bottom layer there
+        const floorAt = (lon: number, lat: number): { floor: number; deepestTop: number } => {
+          const c = cellAt(grid.lonEdges, grid.latEdges, lon, lat);
+          const k = c >= 0 && d.bottomLevel ? d.bottomLevel[c] : -1;
+          return k >= 0 ? { floor: grid.depthEdges[k + 1], deepestTop: grid.depthEdges[k] } : { floor: NaN, deepestTop: NaN };
+        };
         stations.draw(stationsMark, st, (lon, lat) => {
           const q = proj.forward(lon, lat);
           return q ? f.toFigure(q[0], q[1]) : null;
-        }, choice.diverging ? DIVERGING : SEQUENTIAL, choice.min, choice.max);
+        }, choice.diverging ? DIVERGING : SEQUENTIAL, choice.min, choice.max, d.layer, floorAt);
       }
       drawProbe();
     };

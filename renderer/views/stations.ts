@@ -2,8 +2,11 @@
  * Station observations on the map: a small toolbar control (the station CSV, typed as a path) and an
  * overlay that draws each station on the map's colour scale (observed value in the disc, the shown run's
  * value in its ring), from the lines part's service 'points.compare'. Stations the model cannot sample
- * (on land, below the seafloor) are drawn hollow. The probe, when near a station, gets its values.
+ * (on land, below the seafloor) are drawn hollow. Only the stations in the map's depth slice are drawn
+ * (app/render/stations-on-slice.ts); how many are shown and hidden is said beside the control. The probe,
+ * when near a station, gets its values.
  */
+import { stationsOnSlice, type SliceForStations } from '../../app/render/stations-on-slice.js';
 import { colourFor, type ColourScale } from '../../app/render/colour-scales.js';
 import type { PointsData } from '../../app/services/lines.js';
 import { sessionRecipe, tracked } from '../data.js';
@@ -14,7 +17,7 @@ export interface StationsOverlay {
   /** the toolbar control */
   control: HTMLElement;
   /** draw the stations into the map's overlay group */
-  draw(g: SVGGElement, st: AppState, project: (lon: number, lat: number) => [number, number] | null, scale: ColourScale, min: number, max: number): void;
+  draw(g: SVGGElement, st: AppState, project: (lon: number, lat: number) => [number, number] | null, scale: ColourScale, min: number, max: number, slice: SliceForStations, floorAt: (lon: number, lat: number) => { floor: number; deepestTop: number }): void;
   /** a line for the probe: the nearest station within `km` of the point, or null */
   probeText(lon: number, lat: number, run: string, km?: number): string | null;
   /** show the probe's nearest station (observed and modelled values) beside the control */
@@ -65,7 +68,8 @@ export function stationsOverlay(onChange: () => void): StationsOverlay {
       if (my !== token) return;
       data = r;
       const left = r.problems.length;
-      summary = `${r.stations.id.length} stations (${r.units})${left ? `, ${left} not sampled by every source` : ''}`;
+      loaded = `${r.stations.id.length} stations (${r.units})${left ? `, ${left} not sampled by every source` : ''}`;
+      summary = loaded;
       status.textContent = summary;
       onChange();
     } catch (e) {
@@ -74,15 +78,20 @@ export function stationsOverlay(onChange: () => void): StationsOverlay {
   }
 
   let summary = '';
+  let loaded = '';
   const overlay: StationsOverlay = {
     control,
-    draw(g, st, project, scale, min, max) {
+    draw(g, st, project, scale, min, max, slice, floorAt) {
       lastState = st;
       g.replaceChildren();
       if (!data || data.variable !== st.sel.variable) return;
       const source = data.sources.find((x) => x.label === st.sel.run) ?? data.sources[0];
       const stn = data.stations;
+      const on = stationsOnSlice(stn, slice, (i) => floorAt(stn.lon[i], stn.lat[i]));
+      summary = `${loaded}; ${on.nShown} shown (${on.rule}), ${on.nHidden} hidden`;
+      status.textContent = summary;
       for (let i = 0; i < stn.id.length; i++) {
+        if (!on.shown[i]) continue;
         const p = project(stn.lon[i], stn.lat[i]);
         if (!p) continue;
         const obs = colourFor(scale, stn.value[i], min, max) ?? '#ffffff';
