@@ -15,6 +15,9 @@
  */
 import type { Attributes, DType, RawArray, RawVariable } from '../io/types.js';
 
+/** NC_FILL_DOUBLE of netcdf.h; NC_FILL_FLOAT is the same number in single precision. */
+export const NC_FILL_DOUBLE = 9.969209968386869e36;
+
 /** NetCDF default fill values (netcdf.h: NC_FILL_BYTE, NC_FILL_SHORT, ...). */
 export const DEFAULT_FILL: Partial<Record<DType, number>> = {
   i1: -127,
@@ -25,8 +28,8 @@ export const DEFAULT_FILL: Partial<Record<DType, number>> = {
   u4: 4294967295,
   i8: Number(-9223372036854775806n), // not exact as a double; 64-bit fills are compared after conversion
   u8: Number(18446744073709551614n),
-  f4: Math.fround(9.969209968386869e36),
-  f8: 9.969209968386869e36,
+  f4: Math.fround(NC_FILL_DOUBLE),
+  f8: NC_FILL_DOUBLE,
 };
 
 export interface MaskRules {

@@ -3,7 +3,8 @@
  * column-means.csv / column-means.json (one value per sample). NaN is an empty CSV field or JSON null.
  */
 import type { LineResult, SectionOf } from './line-report.js';
-import { csvNumber, csvText, jsonNumber } from './write-files.js';
+import { csvTable, type CsvCell } from '../output/csv.js';
+import { dataNumber } from '../output/number-format.js';
 
 function columns(r: LineResult): { label: string; role: string; s: SectionOf }[] {
   return [
@@ -17,44 +18,40 @@ export function sectionCsv(r: LineResult): string {
   const n = r.line.lon.length;
   const nz = r.depth.centres.length;
   const cols = columns(r);
-  const rows = [['distance_km', 'lon', 'lat', 'depth_m', 'seafloor_m', ...cols.map((c) => csvText(c.label))].join(',')];
+  const rows: CsvCell[][] = [];
   for (let s = 0; s < n; s++) {
     for (let k = 0; k < nz; k++) {
       const i = k * n + s;
       // rows below the seafloor of every field carry nothing: leave them out
       if (!cols.some((c) => c.s.values[i] === c.s.values[i])) continue;
-      rows.push(
-        [
-          csvNumber(r.line.distanceKm[s], 9),
-          csvNumber(r.line.lon[s], 9),
-          csvNumber(r.line.lat[s], 9),
-          csvNumber(r.depth.centres[k]),
-          csvNumber(r.seafloorM[s]),
-          ...cols.map((c) => csvNumber(c.s.values[i])),
-        ].join(','),
-      );
+      rows.push([
+        dataNumber(r.line.distanceKm[s], 9),
+        dataNumber(r.line.lon[s], 9),
+        dataNumber(r.line.lat[s], 9),
+        dataNumber(r.depth.centres[k], 7),
+        dataNumber(r.seafloorM[s], 7),
+        ...cols.map((c) => dataNumber(c.s.values[i], 7)),
+      ]);
     }
   }
-  return rows.join('\n') + '\n';
+  return csvTable(['distance_km', 'lon', 'lat', 'depth_m', 'seafloor_m', ...cols.map((c) => c.label)], rows);
 }
 
 export function columnMeansCsv(r: LineResult): string {
   const n = r.line.lon.length;
   const cols = columns(r);
-  const rows = [['distance_km', 'lon', 'lat', 'seafloor_m', 'wet_thickness_m', ...cols.map((c) => csvText(c.label))].join(',')];
+  const rows: CsvCell[][] = [];
   for (let s = 0; s < n; s++) {
-    rows.push(
-      [
-        csvNumber(r.line.distanceKm[s], 9),
-        csvNumber(r.line.lon[s], 9),
-        csvNumber(r.line.lat[s], 9),
-        csvNumber(r.seafloorM[s]),
-        csvNumber(r.rangeThicknessM[s]),
-        ...cols.map((c) => csvNumber(c.s.columnMean[s])),
-      ].join(','),
-    );
+    rows.push([
+      dataNumber(r.line.distanceKm[s], 9),
+      dataNumber(r.line.lon[s], 9),
+      dataNumber(r.line.lat[s], 9),
+      dataNumber(r.seafloorM[s], 7),
+      dataNumber(r.rangeThicknessM[s], 7),
+      ...cols.map((c) => dataNumber(c.s.columnMean[s], 7)),
+    ]);
   }
-  return rows.join('\n') + '\n';
+  return csvTable(['distance_km', 'lon', 'lat', 'seafloor_m', 'wet_thickness_m', ...cols.map((c) => c.label)], rows);
 }
 
 function lineHeader(r: LineResult): Record<string, unknown> {
@@ -64,11 +61,11 @@ function lineHeader(r: LineResult): Record<string, unknown> {
     kind: r.line.kind,
     method: r.method,
     spacing_km: r.line.spacingKm,
-    waypoints: r.line.waypoints.map((p, i) => ({ lon: p.lon, lat: p.lat, distance_km: jsonNumber(r.line.waypointKm[i], 9) })),
-    distance_km: Array.from(r.line.distanceKm, (v) => jsonNumber(v, 9)),
-    lon: Array.from(r.line.lon, (v) => jsonNumber(v, 9)),
-    lat: Array.from(r.line.lat, (v) => jsonNumber(v, 9)),
-    seafloor_m: Array.from(r.seafloorM, (v) => jsonNumber(v)),
+    waypoints: r.line.waypoints.map((p, i) => ({ lon: p.lon, lat: p.lat, distance_km: dataNumber(r.line.waypointKm[i], 9) })),
+    distance_km: Array.from(r.line.distanceKm, (v) => dataNumber(v, 9)),
+    lon: Array.from(r.line.lon, (v) => dataNumber(v, 9)),
+    lat: Array.from(r.line.lat, (v) => dataNumber(v, 9)),
+    seafloor_m: Array.from(r.seafloorM, (v) => dataNumber(v, 7)),
   };
 }
 
@@ -83,7 +80,7 @@ export function sectionJson(r: LineResult): Record<string, unknown> {
     fields: columns(r).map((c) => ({
       label: c.label,
       role: c.role,
-      values: Array.from({ length: nz }, (_, k) => Array.from(c.s.values.subarray(k * n, (k + 1) * n), (v) => jsonNumber(v))),
+      values: Array.from({ length: nz }, (_, k) => Array.from(c.s.values.subarray(k * n, (k + 1) * n), (v) => dataNumber(v, 7))),
     })),
   };
 }
@@ -93,7 +90,7 @@ export function columnMeansJson(r: LineResult): Record<string, unknown> {
   return {
     ...lineHeader(r),
     depth_range_m: [r.range.top, r.range.bottom],
-    wet_thickness_m: Array.from(r.rangeThicknessM, (v) => jsonNumber(v)),
-    fields: columns(r).map((c) => ({ label: c.label, role: c.role, values: Array.from(c.s.columnMean, (v) => jsonNumber(v)) })),
+    wet_thickness_m: Array.from(r.rangeThicknessM, (v) => dataNumber(v, 7)),
+    fields: columns(r).map((c) => ({ label: c.label, role: c.role, values: Array.from(c.s.columnMean, (v) => dataNumber(v, 7)) })),
   };
 }

@@ -7,7 +7,8 @@ import { columnMeansCsv, columnMeansJson, sectionCsv, sectionJson } from './line
 import type { PointMethod } from './point-weights.js';
 import { prepareFields } from './recipe-fields.js';
 import { DEFAULT_SPACING_KM, sampleGreatCircles, sampleMeridian, sampleParallel, type SampledLine } from './sample-path.js';
-import { writeFilesAtomic } from './write-files.js';
+import { jsonText } from '../output/json.js';
+import { writeOutputFiles } from '../output/output-set.js';
 
 /** Which line: waypoints joined by great circles, a meridian, or a parallel. */
 export type LineSpec =
@@ -46,13 +47,15 @@ export async function runLine(recipe: Recipe, req: LineRequest): Promise<LineRun
   }
 }
 
-/** section.csv, section.json, column-means.csv, column-means.json in `dir` (temp then rename). */
-export function writeLineFiles(dir: string, r: LineRun): string[] {
-  const withNotes = (o: Record<string, unknown>) => JSON.stringify({ ...o, notes: r.notes }) + '\n';
-  return writeFilesAtomic(dir, {
-    'section.csv': sectionCsv(r),
-    'section.json': withNotes({ ...sectionJson(r), skill: r.skill }),
-    'column-means.csv': columnMeansCsv(r),
-    'column-means.json': withNotes(columnMeansJson(r)),
-  });
+export const LINE_FILES = ['section.csv', 'section.json', 'column-means.csv', 'column-means.json'] as const;
+
+/** section.csv, section.json, column-means.csv, column-means.json in `dir`, as one output set. */
+export async function writeLineFiles(dir: string, r: LineRun): Promise<string[]> {
+  const withNotes = (o: Record<string, unknown>) => jsonText({ ...o, notes: r.notes });
+  return writeOutputFiles(dir, [
+    { name: 'section.csv', data: sectionCsv(r) },
+    { name: 'section.json', data: withNotes({ ...sectionJson(r), skill: r.skill }) },
+    { name: 'column-means.csv', data: columnMeansCsv(r) },
+    { name: 'column-means.json', data: withNotes(columnMeansJson(r)) },
+  ]);
 }

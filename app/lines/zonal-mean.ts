@@ -10,7 +10,8 @@ import type { Recipe, ResolvedRegion } from '../recipe/types.js';
 import { zonalMeans } from '../render/slices.js';
 import type { NamedField } from './line-report.js';
 import { prepareFields } from './recipe-fields.js';
-import { csvNumber, csvText, jsonNumber } from './write-files.js';
+import { csvTable, type CsvCell } from '../output/csv.js';
+import { dataNumber } from '../output/number-format.js';
 
 export interface ZonalSection {
   label: string;
@@ -97,15 +98,15 @@ export async function runZonalMean(recipe: Recipe, variable: string, basin: stri
 /** zonal.csv: one row per latitude and level with a value in some field. */
 export function zonalCsv(r: ZonalResult): string {
   const ny = r.lat.length;
-  const rows = [['lat', 'depth_m', ...r.fields.map((f) => csvText(f.label))].join(',')];
+  const rows: CsvCell[][] = [];
   for (let k = 0; k < r.depthCentres.length; k++) {
     for (let j = 0; j < ny; j++) {
       const i = k * ny + j;
       if (!r.fields.some((f) => f.values[i] === f.values[i])) continue;
-      rows.push([csvNumber(r.lat[j], 9), csvNumber(r.depthCentres[k]), ...r.fields.map((f) => csvNumber(f.values[i]))].join(','));
+      rows.push([dataNumber(r.lat[j], 9), dataNumber(r.depthCentres[k], 7), ...r.fields.map((f) => dataNumber(f.values[i], 7))]);
     }
   }
-  return rows.join('\n') + '\n';
+  return csvTable(['lat', 'depth_m', ...r.fields.map((f) => f.label)], rows);
 }
 
 /** zonal.json: values[level][latitude] per field. */
@@ -121,7 +122,7 @@ export function zonalJson(r: ZonalResult): Record<string, unknown> {
     fields: r.fields.map((f) => ({
       label: f.label,
       role: f.role,
-      values: Array.from({ length: r.depthCentres.length }, (_, k) => Array.from(f.values.subarray(k * ny, (k + 1) * ny), (v) => jsonNumber(v))),
+      values: Array.from({ length: r.depthCentres.length }, (_, k) => Array.from(f.values.subarray(k * ny, (k + 1) * ny), (v) => dataNumber(v, 7))),
     })),
     notes: r.notes,
   };

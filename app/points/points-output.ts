@@ -3,7 +3,8 @@
  * value, model minus observed, status and the depth the value stands for), points-skill.csv (statistics
  * per source) and points.json (both, with notes). NaN is an empty CSV field or JSON null.
  */
-import { csvNumber, csvText, jsonNumber } from '../lines/write-files.js';
+import { csvTable, type CsvCell } from '../output/csv.js';
+import { dataNumber } from '../output/number-format.js';
 import type { SkillNumbers } from '../stats/weighted.js';
 import type { PointsResult } from './run-points.js';
 
@@ -11,16 +12,16 @@ export function pointsCsv(r: PointsResult): string {
   const st = r.stations;
   const head = ['id', 'line', 'lon', 'lat', 'depth_m', 'time', 'observed'];
   for (const s of r.sources) head.push(s.label, `${s.label} minus observed`, `${s.label} status`, `${s.label} depth_m`);
-  const rows = [head.map(csvText).join(',')];
+  const rows: CsvCell[][] = [];
   for (let i = 0; i < st.n; i++) {
-    const row = [csvText(st.id[i]), String(st.line[i]), csvNumber(st.lon[i], 9), csvNumber(st.lat[i], 9), st.seafloor[i] ? 'seafloor' : csvNumber(st.depth[i]), csvText(st.time[i]), csvNumber(st.value[i])];
+    const row: CsvCell[] = [st.id[i], st.line[i], dataNumber(st.lon[i], 9), dataNumber(st.lat[i], 9), st.seafloor[i] ? 'seafloor' : dataNumber(st.depth[i], 7), st.time[i], dataNumber(st.value[i], 7)];
     for (const s of r.sources) {
       const m = s.samples.model[i];
-      row.push(csvNumber(m), csvNumber(m - st.value[i]), s.samples.status[i], csvNumber(s.samples.modelDepthM[i]));
+      row.push(dataNumber(m, 7), dataNumber(m - st.value[i], 7), s.samples.status[i], dataNumber(s.samples.modelDepthM[i], 7));
     }
-    rows.push(row.join(','));
+    rows.push(row);
   }
-  return rows.join('\n') + '\n';
+  return csvTable(head, rows);
 }
 
 const STAT_KEYS: (keyof SkillNumbers)[] = ['n', 'bias', 'rmse', 'crmse', 'corr', 'model_mean', 'ref_mean', 'model_std', 'ref_std', 'std_ratio', 'nse'];
@@ -29,16 +30,16 @@ const statName = (k: string) => k.replace('ref_', 'obs_');
 
 export function pointsSkillCsv(r: PointsResult): string {
   const head = ['source', 'role', 'variable', 'units', 'ok', 'from_neighbour', 'on_land', 'below_seafloor', 'outside_grid', ...STAT_KEYS.map(statName), ...STAT_KEYS.map((k) => `log10_${statName(k)}`)];
-  const rows = [head.join(',')];
+  const rows: CsvCell[][] = [];
   for (const s of r.sources) {
     const c = s.skill.counts;
-    const num = (v: number | null) => (v === null ? '' : csvNumber(v));
+    const num = (v: number | null) => dataNumber(v, 7);
     rows.push(
       [
-        csvText(s.label),
+        s.label,
         s.role,
-        csvText(r.variable),
-        csvText(r.units),
+        r.variable,
+        r.units,
         c.ok,
         c.from_neighbour,
         c.on_land,
@@ -46,10 +47,10 @@ export function pointsSkillCsv(r: PointsResult): string {
         c.outside_grid,
         ...STAT_KEYS.map((k) => num(s.skill.stats[k])),
         ...STAT_KEYS.map((k) => num(s.skill.log10[k])),
-      ].join(','),
+      ],
     );
   }
-  return rows.join('\n') + '\n';
+  return csvTable(head, rows);
 }
 
 export function pointsJson(r: PointsResult): Record<string, unknown> {
@@ -66,17 +67,17 @@ export function pointsJson(r: PointsResult): Record<string, unknown> {
       line: Array.from(st.line),
       lon: Array.from(st.lon),
       lat: Array.from(st.lat),
-      depth_m: Array.from(st.depth, (v, i) => (st.seafloor[i] ? 'seafloor' : jsonNumber(v))),
+      depth_m: Array.from(st.depth, (v, i) => (st.seafloor[i] ? 'seafloor' : dataNumber(v, 7))),
       time: st.time,
       observed: Array.from(st.value),
     },
     sources: r.sources.map((s) => ({
       label: s.label,
       role: s.role,
-      model: Array.from(s.samples.model, (v) => jsonNumber(v)),
+      model: Array.from(s.samples.model, (v) => dataNumber(v, 7)),
       status: s.samples.status,
-      model_depth_m: Array.from(s.samples.modelDepthM, (v) => jsonNumber(v)),
-      seafloor_m: Array.from(s.samples.seafloorM, (v) => jsonNumber(v)),
+      model_depth_m: Array.from(s.samples.modelDepthM, (v) => dataNumber(v, 7)),
+      seafloor_m: Array.from(s.samples.seafloorM, (v) => dataNumber(v, 7)),
     })),
     notes: r.notes,
   };

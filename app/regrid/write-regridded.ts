@@ -2,14 +2,17 @@ import type { FieldSource } from '../cf/field.js';
 import type { ParsedUnits } from '../cf/units.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid } from '../grid/types.js';
+import { basename, dirname } from 'node:path';
+import { encodeValues, encodingAttributes, floatEncoding } from '../cf/encode.js';
 import { createNetcdf, type NetcdfWriter, type WriteVariable } from '../io/netcdf-writer.js';
+import { openOutputSet } from '../output/output-set.js';
 import type { Attributes } from '../io/types.js';
 import { convertLevel } from '../ocean/convert.js';
 import type { RemapMethod } from './csr.js';
 import { regridField, type RegriddedField } from './field.js';
 
-/** NetCDF's default fill value for floats; NaN is written as this and declared as _FillValue. */
-const FILL = 9.969209968386869e36;
+/** NaN is written as NetCDF's default fill value for floats, declared as _FillValue (app/cf/encode.ts). */
+const ENCODING = floatEncoding('f4');
 
 export interface WriteRegriddedOptions {
   method: RemapMethod;
@@ -44,7 +47,7 @@ export interface RegridSummary {
 
 /**
  * Regrid a field onto a grid and write it, level by level, as a CF NetCDF file with the variable
- * and its covered fraction. Nothing appears at `outPath` unless the whole file was written.
+ * and its covered fraction, through an output set (app/output): the file at `outPath` is complete or unchanged.
  */
 export async function writeRegridded(src: FieldSource, target: Grid, outPath: string, opts: WriteRegriddedOptions): Promise<RegridSummary> {
   const r = await regridField(src, target, { method: opts.method, coverage: opts.coverage, vertical: opts.vertical, cacheDir: opts.cacheDir });
@@ -84,7 +87,7 @@ export async function writeRegridded(src: FieldSource, target: Grid, outPath: st
   }
   const unitsText = opts.units ? opts.units.text : src.units.text;
   const dataDims = [...lead, yDim, xDim];
-  const dataAttrs: Attributes = { units: unitsText, _FillValue: [FILL] };
+  const dataAttrs: Attributes = { units: unitsText, ...encodingAttributes(ENCODING) };
   if (src.standardName) dataAttrs.standard_name = src.standardName;
   if (src.longName) dataAttrs.long_name = src.longName;
   if (!rect) dataAttrs.coordinates = 'lat lon';
@@ -95,7 +98,7 @@ export async function writeRegridded(src: FieldSource, target: Grid, outPath: st
     units: '1',
     long_name: `fraction of the target cell covered by valid values of ${src.variable}`,
     valid_range: [0, 1],
-    _FillValue: [FILL],
+    ...encodingAttributes(ENCODING),
   };
   if (!rect) coverageAttrs.coordinates = 'lat lon';
   vars.push({ name: src.variable, dims: dataDims, dtype: 'f4', attrs: dataAttrs });
@@ -110,7 +113,14 @@ export async function writeRegridded(src: FieldSource, target: Grid, outPath: st
   };
 
   let note: string | undefined;
-  const writer = await createNetcdf(outPath, { dimensions: dims, attrs: globalAttrs, variables: vars });
+  const set = await openOutputSet(dirname(outPath));
+  let writer: NetcdfWriter;
+  try {
+    writer = await createNetcdf(set.stagedPath(basename(outPath)), { dimensions: dims, attrs: globalAttrs, variables: vars });
+  } catch (e) {
+    await set.discard();
+    throw e;
+  }
   try {
     await writeCoordinates(writer, src, target, r.grid.vertical, rect);
     const nz = v ? v.nz : 1;
@@ -127,7 +137,7 @@ export async function writeRegridded(src: FieldSource, target: Grid, outPath: st
         }
         for (let i = 0; i < values.length; i++) if (values[i] === values[i]) valid++;
         const start = [...(src.time ? [t] : []), ...(v ? [k] : []), 0, 0];
-        await writer.write(src.variable, withFill(values), start);
+        await writer.write(src.variable, encodeValues(values, ENCODING), start);
         await writer.write(coverageName, level.coverage, start);
         opts.progress?.(t * nz + k + 1, total);
       }
@@ -136,6 +146,7 @@ export async function writeRegridded(src: FieldSource, target: Grid, outPath: st
       throw new StillwaterError('E_INPUT', `${src.file}, variable '${src.variable}': every value is missing, so there is nothing to regrid.`, { file: src.file, variable: src.variable });
     }
     await writer.close();
+    await set.commit();
     return {
       out: outPath,
       source: src.file,
@@ -155,14 +166,9 @@ export async function writeRegridded(src: FieldSource, target: Grid, outPath: st
     };
   } catch (e) {
     await writer.abort().catch(() => undefined);
+    await set.discard();
     throw e;
   }
-}
-
-function withFill(a: Float32Array): Float32Array {
-  const out = new Float32Array(a.length);
-  for (let i = 0; i < a.length; i++) out[i] = a[i] === a[i] ? a[i] : FILL;
-  return out;
 }
 
 function uniqueName(name: string, taken: string[]): string {

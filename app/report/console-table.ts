@@ -1,6 +1,6 @@
 /** The compact table the compare command prints on stdout. */
 import type { SkillRow } from '../compare/rows.js';
-import { fmtCount, fmtNumber } from './format.js';
+import { formatCount as fmtCount, formatNumber as fmtNumber } from '../output/number-format.js';
 
 const COLS: [string, (r: SkillRow) => string][] = [
   ['run', (r) => r.run],

@@ -1,14 +1,14 @@
 /**
  * Kept fields as CF NetCDF (classic 64-bit offset, via app/io/netcdf-writer.ts): for each run × variable the
- * model on the common grid and the difference model − reference. Files go to a staging folder first and are
- * moved into place only when the whole comparison has succeeded.
+ * model on the common grid and the difference model − reference. The files are staged in an output set
+ * (app/output) and placed with the tables only when the whole comparison has succeeded.
  */
-import { mkdir, readdir, rename, rm } from 'node:fs/promises';
-import { join } from 'node:path';
+import { encodeValues, encodingAttributes, floatEncoding } from '../cf/encode.js';
 import type { FieldSinkFactory, FieldSinkInfo, LevelSink } from '../compare/field-sink.js';
 import { createNetcdf, type WriteHeader } from '../io/netcdf-writer.js';
+import type { OutputSet } from '../output/output-set.js';
 
-const FILL = 9.969209968386869e36; // the NetCDF default fill value for float
+const ENCODING = floatEncoding('f4');
 
 export function slug(s: string): string {
   return s.replace(/[^A-Za-z0-9._-]+/g, '_').replace(/^_+|_+$/g, '') || 'x';
@@ -53,8 +53,8 @@ function header(info: FieldSinkInfo): WriteHeader {
   }
   const name = slug(info.variable);
   variables.push(
-    { name, dims: dataDims, dtype: 'f4', attrs: { long_name: `${info.variable} of ${info.run} on the common grid`, units: info.units, _FillValue: [FILL], coordinates: rect ? '' : coords } },
-    { name: `${name}_minus_reference`, dims: dataDims, dtype: 'f4', attrs: { long_name: `${info.variable}: ${info.run} minus the reference`, units: info.units, _FillValue: [FILL], coordinates: rect ? '' : coords } },
+    { name, dims: dataDims, dtype: 'f4', attrs: { long_name: `${info.variable} of ${info.run} on the common grid`, units: info.units, ...encodingAttributes(ENCODING), coordinates: rect ? '' : coords } },
+    { name: `${name}_minus_reference`, dims: dataDims, dtype: 'f4', attrs: { long_name: `${info.variable}: ${info.run} minus the reference`, units: info.units, ...encodingAttributes(ENCODING), coordinates: rect ? '' : coords } },
   );
   for (const x of variables) if (x.attrs && x.attrs.coordinates === '') delete x.attrs.coordinates;
   return { dimensions: dims, attrs: { Conventions: 'CF-1.10', title: `${info.variable}: ${info.run} on the common grid`, source: 'stillwater compare' }, variables };
@@ -69,23 +69,20 @@ function bounds(edges: Float64Array): Float64Array {
   return out;
 }
 
-function filled(a: Float32Array): Float32Array {
-  const out = new Float32Array(a.length);
-  for (let i = 0; i < a.length; i++) out[i] = a[i] - a[i] === 0 ? a[i] : FILL;
-  return out;
+/** Non-finite values (NaN, and ±Infinity that CF has no use for) are written as the fill value. */
+function filled(a: Float32Array): Float32Array | Float64Array {
+  return encodeValues(a.map((x) => (Number.isFinite(x) ? x : NaN)), ENCODING);
 }
 
-/** A staging folder inside `outDir`, a sink factory writing into it, and the final move (or the clean-up). */
-export async function netcdfFieldSinks(outDir: string): Promise<{ factory: FieldSinkFactory; commit(): Promise<string[]>; discard(): Promise<void> }> {
-  const staging = join(outDir, `.stillwater-fields-${process.pid}-${Date.now()}`);
-  await mkdir(staging, { recursive: true });
+/** A sink factory writing each run × variable as a file of the output set. */
+export function netcdfFieldSinks(set: OutputSet): FieldSinkFactory {
   const used = new Set<string>();
   const factory: FieldSinkFactory = async (info) => {
     // two runs whose labels differ only in punctuation would share a name: number the later one
     let name0 = fieldsFileName(info.run, info.variable);
     for (let i = 2; used.has(name0); i++) name0 = fieldsFileName(`${info.run}_${i}`, info.variable);
     used.add(name0);
-    const file = join(staging, name0);
+    const file = set.stagedPath(name0);
     const w = await createNetcdf(file, header(info));
     const h = info.grid.horizontal;
     const v = info.grid.vertical;
@@ -119,14 +116,5 @@ export async function netcdfFieldSinks(outDir: string): Promise<{ factory: Field
     };
     return sink;
   };
-  return {
-    factory,
-    async commit() {
-      const names = (await readdir(staging)).filter((f) => f.endsWith('.nc'));
-      for (const f of names) await rename(join(staging, f), join(outDir, f));
-      await rm(staging, { recursive: true, force: true });
-      return names.map((f) => join(outDir, f));
-    },
-    discard: () => rm(staging, { recursive: true, force: true }),
-  };
+  return factory;
 }

@@ -3,14 +3,15 @@
  * of rows breaks across pages (needs \usepackage{booktabs,longtable}).
  */
 import type { ComparisonResult } from '../compare/run.js';
-import { DASH, fmtCount, fmtNumber } from './format.js';
+import { formatCount as fmtCount, formatNumber as fmtNumber, MISSING } from '../output/number-format.js';
 
 const SPECIAL: Record<string, string> = {
   '\\': '\\textbackslash{}', '&': '\\&', '%': '\\%', $: '\\$', '#': '\\#', _: '\\_', '{': '\\{', '}': '\\}', '~': '\\textasciitilde{}', '^': '\\textasciicircum{}',
 };
 
+/** Text for LaTeX: special characters escaped; a line break (a blank line ends a table row) becomes a space. */
 export function texEscape(s: string): string {
-  return s.replace(/[\\&%$#_{}~^]/g, (c) => SPECIAL[c]).replace(/[µμ]/g, '$\\mu$').replace(/—/g, '---').replace(/−/g, '$-$');
+  return s.replace(/\r\n|[\r\n\u2028\u2029]/g, ' ').replace(/[\\&%$#_{}~^]/g, (c) => SPECIAL[c]).replace(/[µμ]/g, '$\\mu$').replace(/—/g, '---').replace(/−/g, '$-$');
 }
 
 /** "umol kg-1" → "$\mu$mol\,kg$^{-1}$" */
@@ -32,7 +33,7 @@ export function texUnits(u: string): string {
 
 function num(x: number | null | undefined, digits = 4): string {
   const s = fmtNumber(x, digits);
-  return s === DASH ? '---' : `$${s.replace(/e([+-]?)(\d+)/, (_m, sign, d) => `\\times 10^{${sign === '-' ? '-' : ''}${d}}`)}$`;
+  return s === MISSING ? '---' : `$${s.replace(/e([+-]?)(\d+)/, (_m, sign, d) => `\\times 10^{${sign === '-' ? '-' : ''}${d}}`)}$`;
 }
 
 export function skillLatex(result: ComparisonResult, caption = 'Skill of the model runs against the reference'): string {
@@ -57,7 +58,7 @@ export function skillLatex(result: ComparisonResult, caption = 'Skill of the mod
     out.push(`\\multicolumn{10}{l}{\\textbf{${texEscape(v.variable)}} (${texUnits(v.units)})} \\\\`, '\\midrule');
     for (const r of result.rows.filter((x) => x.variable === v.variable)) {
       out.push(
-        [texEscape(r.run), texEscape(r.region), texEscape(r.layer), fmtCount(r.n), num(r.bias), num(r.rmse), num(r.crmse), num(r.corr, 3), num(r.std_ratio, 3), num(r.taylor_skill, 3)].join(' & ') +
+        [texEscape(r.run), texEscape(r.region), texEscape(r.layer), texEscape(fmtCount(r.n)), num(r.bias), num(r.rmse), num(r.crmse), num(r.corr, 3), num(r.std_ratio, 3), num(r.taylor_skill, 3)].join(' & ') +
           ' \\\\',
       );
     }

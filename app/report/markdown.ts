@@ -1,17 +1,18 @@
 /** skill.md: a readable table per variable, the run costs, and the notes. */
 import type { ComparisonResult } from '../compare/run.js';
-import { fmtCount, fmtNumber, fmtPercent } from './format.js';
+import { formatCount as fmtCount, formatNumber as fmtNumber, formatPercent as fmtPercent, MISSING } from '../output/number-format.js';
 import type { Provenance } from './types.js';
 
 const HEAD = ['run', 'region', 'layer', 'n', 'model mean', 'ref mean', 'bias', 'RMSE', "E'", 'r', 'σm/σr', 'Taylor S', 'NSE', 'compared'];
 
+/** Text in a table cell: a pipe would end the cell and a line break the row. */
 function esc(s: string): string {
-  return s.replace(/\|/g, '\\|');
+  return s.replace(/\|/g, '\\|').replace(/\r\n|[\r\n\u2028\u2029]/g, ' ');
 }
 
 export function skillMarkdown(result: ComparisonResult, prov: Provenance, title = 'Skill'): string {
   const out: string[] = [`# ${esc(title)}`, ''];
-  out.push(`Compared on ${prov.date} by ${prov.tool} ${prov.version}. Bias = model − reference; RMSE and centred RMS difference E' in the variable's units; r weighted Pearson correlation; Taylor S from Taylor (2001) eq. 4 with R0 = 1; NSE after Nash & Sutcliffe (1970); weights are cell volumes (cell areas for the bottom layer and 2-D fields). "—" marks a value that is undefined.`, '');
+  out.push(`Compared on ${esc(prov.date)} by ${esc(prov.tool)} ${esc(prov.version)}. Bias = model − reference; RMSE and centred RMS difference E' in the variable's units; r weighted Pearson correlation; Taylor S from Taylor (2001) eq. 4 with R0 = 1; NSE after Nash & Sutcliffe (1970); weights are cell volumes (cell areas for the bottom layer and 2-D fields). "${MISSING}" marks a value that is undefined.`, '');
   for (const v of result.variables) {
     const rows = result.rows.filter((r) => r.variable === v.variable);
     out.push(`## ${esc(v.variable)} (${esc(v.units)})`, '');

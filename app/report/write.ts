@@ -1,7 +1,6 @@
-/** Writes skill.json, skill.csv, skill.md and skill.tex into a folder, all or nothing. */
-import { join } from 'node:path';
+/** Writes skill.json, skill.csv, skill.md and skill.tex into a folder, as one set (app/output). */
 import type { ComparisonResult } from '../compare/run.js';
-import { ensureWritableDir, writeFilesAtomically } from './atomic.js';
+import { writeOutputFiles } from '../output/output-set.js';
 import { skillCsv } from './csv.js';
 import { skillJson } from './json.js';
 import { skillLatex } from './latex.js';
@@ -10,14 +9,16 @@ import type { Provenance } from './types.js';
 
 export const TABLE_FILES = ['skill.json', 'skill.csv', 'skill.md', 'skill.tex'] as const;
 
-export async function writeSkillTables(dir: string, result: ComparisonResult, prov: Provenance, title?: string): Promise<string[]> {
-  await ensureWritableDir(dir);
-  const files = [
-    { path: join(dir, 'skill.json'), text: skillJson(result, prov) },
-    { path: join(dir, 'skill.csv'), text: skillCsv(result.rows) },
-    { path: join(dir, 'skill.md'), text: skillMarkdown(result, prov, title) },
-    { path: join(dir, 'skill.tex'), text: skillLatex(result, title) },
+/** The four tables as files of an output set. */
+export function skillTableFiles(result: ComparisonResult, prov: Provenance, title?: string): { name: (typeof TABLE_FILES)[number]; data: string }[] {
+  return [
+    { name: 'skill.json', data: skillJson(result, prov) },
+    { name: 'skill.csv', data: skillCsv(result.rows) },
+    { name: 'skill.md', data: skillMarkdown(result, prov, title) },
+    { name: 'skill.tex', data: skillLatex(result, title) },
   ];
-  await writeFilesAtomically(files);
-  return files.map((f) => f.path);
+}
+
+export async function writeSkillTables(dir: string, result: ComparisonResult, prov: Provenance, title?: string): Promise<string[]> {
+  return writeOutputFiles(dir, skillTableFiles(result, prov, title));
 }

@@ -9,21 +9,13 @@ import { runComparison, type ComparisonResult } from '../compare/run.js';
 import { isStillwaterError } from '../errors.js';
 import { loadRecipe } from '../recipe/load.js';
 import { recipeToJson } from '../recipe/to-json.js';
-import type { Recipe } from '../recipe/types.js';
-import { validateRecipe } from '../recipe/validate.js';
 import { ARCTIC_LIMIT, ATLANTIC_OUTLINE, BUILT_IN_REGIONS, HUDSON_BOX, INDIAN_OUTLINE, SOUTHERN_LIMIT } from '../regions/basins.js';
-import { writeFilesAtomically } from '../report/atomic.js';
-import { entry, type ServiceContext, type ServiceEntry } from './types.js';
+import { checkOutputFile } from '../output/output-target.js';
+import { writeOutputFile } from '../output/output-set.js';
+import { recipeFiles } from '../recipe/recipe-files.js';
+import { guardedRecipe, guardRecipe } from './recipe-guard.js';
+import { entry, type ServiceEntry } from './types.js';
 
-/** Every file a recipe reads must lie in the folders the person allowed. */
-function guard(recipe: Recipe, ctx: ServiceContext): Recipe {
-  const files = [
-    ...[recipe.reference, ...recipe.runs].flatMap((s) => [...Object.values(s.variables).map((v) => v.file), ...(s.snapshots ?? []).map((x) => x.file)]),
-    ...recipe.regions.flatMap((r) => (r.kind === 'built-in' ? [] : [r.file])),
-  ];
-  for (const f of files) ctx.resolvePath(f);
-  return recipe;
-}
 
 const recipeInput = z.object({
   /** the recipe as JSON (an object) */
@@ -38,7 +30,7 @@ export const compareServices: ServiceEntry[] = [
     summary: 'Read and check a recipe file; returns it with absolute paths and defaults filled in.',
     input: z.object({ path: z.string() }),
     async run(input, ctx) {
-      const recipe = guard(await loadRecipe(ctx.resolvePath(input.path), { confine: ctx.resolvePath }), ctx);
+      const recipe = guardRecipe(await loadRecipe(ctx.resolvePath(input.path), { confine: ctx.resolvePath }), ctx);
       return { recipe: recipeToJson(recipe), baseDir: recipe.baseDir, variables: recipe.variables };
     },
   }),
@@ -48,7 +40,7 @@ export const compareServices: ServiceEntry[] = [
     input: recipeInput,
     async run(input, ctx) {
       try {
-        const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath }), ctx);
+        const recipe = guardedRecipe(input, ctx);
         return { ok: true as const, variables: recipe.variables };
       } catch (e) {
         if (isStillwaterError(e) && e.isBadInput) return { ok: false as const, message: e.message, path: e.subject.path ?? null };
@@ -58,12 +50,13 @@ export const compareServices: ServiceEntry[] = [
   }),
   entry({
     name: 'recipe.save',
-    summary: 'Save a recipe (the state of a session) to a file, with paths relative to its folder.',
+    summary: 'Save a recipe (the state of a session) to a .json file, with paths relative to its folder; never over a file the recipe reads.',
     input: z.object({ path: z.string(), recipe: z.unknown(), baseDir: z.string() }),
     async run(input, ctx) {
       const path = ctx.resolvePath(input.path);
-      const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath }), ctx);
-      await writeFilesAtomically([{ path, text: JSON.stringify(recipeToJson(recipe, dirname(path)), null, 2) + '\n' }]);
+      const recipe = guardedRecipe(input, ctx);
+      checkOutputFile(path, { extension: '.json', inputs: recipeFiles(recipe).map((f) => f.file) });
+      await writeOutputFile(path, JSON.stringify(recipeToJson(recipe, dirname(path)), null, 2) + '\n');
       return { path };
     },
   }),
@@ -73,7 +66,7 @@ export const compareServices: ServiceEntry[] = [
     input: recipeInput,
     heavy: true,
     async run(input, ctx): Promise<ComparisonResult> {
-      const recipe = guard(validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath }), ctx);
+      const recipe = guardedRecipe(input, ctx);
       return runComparison(recipe, { cacheDir: ctx.cacheDir, signal: ctx.signal, onProgress: (f, m) => ctx.progress(f, m) });
     },
   }),

@@ -4,14 +4,12 @@
  * compared with the reference and the runs. Every file goes through ctx.resolvePath.
  */
 import { z } from 'zod';
-import { StillwaterError } from '../errors.js';
 import { runLine, type LineSpec } from '../lines/run-line.js';
 import { parseWaypoints } from '../lines/waypoints.js';
 import { readStations, runPoints, stationProblems } from '../points/run-points.js';
-import { validateRecipe } from '../recipe/index.js';
-import type { Recipe } from '../recipe/types.js';
+import { besideRecipe, guardedRecipe, guardFile } from './recipe-guard.js';
 import type { SkillNumbers } from '../stats/weighted.js';
-import { entry, type ServiceContext, type ServiceEntry } from './types.js';
+import { entry, type ServiceEntry } from './types.js';
 
 const recipeJson = { recipe: z.unknown(), baseDir: z.string().min(1) };
 const lonLat = z.object({ lon: z.number().finite(), lat: z.number().finite() });
@@ -37,22 +35,6 @@ const pointsInput = z.object({
   method: z.enum(['trilinear', 'nearest']).optional(),
 });
 
-/** Every file the recipe names for this variable must lie in the folders the workbench may read. */
-function guardedRecipe(input: { recipe: unknown; baseDir: string }, variable: string, ctx: ServiceContext): Recipe {
-  const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath });
-  const sources = [{ s: recipe.reference, path: 'reference' }, ...recipe.runs.map((s, i) => ({ s, path: `runs[${i}]` }))];
-  for (const { s, path } of sources) {
-    const v = s.variables[variable];
-    if (!v) continue;
-    try {
-      ctx.resolvePath(v.file);
-    } catch (e) {
-      if (e instanceof StillwaterError) throw new StillwaterError(e.code, `${path}.variables.${variable}.file: ${e.message}`, { ...e.subject, path });
-      throw e;
-    }
-  }
-  return recipe;
-}
 
 export interface LineFieldView {
   label: string;
@@ -109,7 +91,7 @@ export const linesServices: ServiceEntry[] = [
     input: lineInput,
     heavy: true,
     async run(input, ctx): Promise<LineData> {
-      const recipe = guardedRecipe(input, input.variable, ctx);
+      const recipe = guardedRecipe(input, ctx);
       const spec: LineSpec =
         input.line.kind === 'waypoints'
           ? { kind: 'waypoints', points: typeof input.line.points === 'string' ? parseWaypoints(input.line.points, 'waypoints') : input.line.points }
@@ -160,10 +142,11 @@ export const linesServices: ServiceEntry[] = [
     input: pointsInput,
     heavy: true,
     async run(input, ctx): Promise<PointsData> {
-      const recipe = guardedRecipe(input, input.variable, ctx);
+      const recipe = guardedRecipe(input, ctx);
+      const stationsFile = guardFile({ file: besideRecipe(recipe, input.stations), path: 'stations' }, ctx);
       const r = await runPoints(recipe, {
         variable: input.variable,
-        stationsFile: ctx.resolvePath(input.stations),
+        stationsFile,
         method: input.method,
         cacheDir: ctx.cacheDir,
         progress: (f, m) => ctx.progress(f, m),

@@ -8,11 +8,12 @@
 import { readFile } from 'node:fs/promises';
 import { z } from 'zod';
 import { StillwaterError } from '../errors.js';
-import type { Recipe } from '../recipe/types.js';
-import { validateRecipe } from '../recipe/validate.js';
+import { recipeFiles } from '../recipe/recipe-files.js';
+import { guardedRecipe } from './recipe-guard.js';
 import { spinupFromRecipe } from '../spinup/run-spinup.js';
 import type { SpinupResult, SpinupSummary } from '../spinup/types.js';
 import { cacheKey, readCachedResult, restoreNaN, writeCachedResult } from '../spinup/result-cache.js';
+import { spinupFromJson } from '../spinup/write-output.js';
 import { entry, type ServiceContext, type ServiceEntry } from './types.js';
 
 const spinupInput = z.object({
@@ -34,30 +35,15 @@ const spinupInput = z.object({
 
 type SpinupInput = z.infer<typeof spinupInput>;
 
-function guardedRecipe(input: SpinupInput, ctx: ServiceContext): Recipe {
-  const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath });
-  for (const s of [recipe.reference, ...recipe.runs]) {
-    for (const v of Object.values(s.variables)) ctx.resolvePath(v.file);
-    for (const x of s.snapshots ?? []) ctx.resolvePath(x.file);
-  }
-  for (const r of recipe.regions) if (r.kind !== 'built-in') ctx.resolvePath(r.file);
-  return recipe;
-}
 
 /** Results of this thread, so that the banner asks again for free (keyed like the disk cache). */
 const recent = new Map<string, SpinupResult>();
 const RECENT_MAX = 8;
 
-function recipeFiles(recipe: Recipe): string[] {
-  return [
-    ...[recipe.reference, ...recipe.runs].flatMap((s) => [...Object.values(s.variables).map((v) => v.file), ...(s.snapshots ?? []).map((x) => x.file)]),
-    ...recipe.regions.flatMap((r) => (r.kind === 'built-in' ? [] : [r.file])),
-  ];
-}
 
 async function follow(input: SpinupInput, ctx: ServiceContext, skill: boolean): Promise<SpinupResult> {
   const recipe = guardedRecipe(input, ctx);
-  const files = recipeFiles(recipe);
+  const files = recipeFiles(recipe).map((f) => f.file);
   const keyOf = (withSkill: boolean) => cacheKey({ ...input, baseDir: recipe.baseDir, skill: withSkill }, files);
   const key = await keyOf(skill);
   // a result with skill also answers a request without it
@@ -99,7 +85,7 @@ export const spinupServices: ServiceEntry[] = [
     input: spinupInput.omit({ variables: true, skill: true }),
     heavy: true,
     async run(input, ctx): Promise<SpinupSummary | null> {
-      const recipe = validateRecipe(input.recipe, ctx.resolvePath(input.baseDir), { confine: ctx.resolvePath });
+      const recipe = guardedRecipe(input, ctx);
       const run = input.run !== undefined ? recipe.runs.find((r) => r.label === input.run) : recipe.runs.find((r) => r.snapshots?.length);
       if (!run?.snapshots?.length) return null;
       return (await follow({ ...input, run: run.label }, ctx, false)).summary;
@@ -107,13 +93,13 @@ export const spinupServices: ServiceEntry[] = [
   }),
   entry({
     name: 'spinup.open',
-    summary: 'Read a spinup.json written by `stillwater spinup`.',
+    summary: 'Read a spinup.json written by `stillwater spinup` (snake_case keys; files from before that change read too).',
     input: z.object({ path: z.string() }),
     async run(input, ctx): Promise<SpinupResult> {
       const path = ctx.resolvePath(input.path);
       let json: unknown;
       try {
-        json = JSON.parse(await readFile(path, 'utf8'));
+        json = spinupFromJson(JSON.parse(await readFile(path, 'utf8')));
       } catch (e) {
         throw new StillwaterError('E_FILE', `${path}: cannot read it as spin-up results (${(e as Error).message}).`, { file: path });
       }

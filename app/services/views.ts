@@ -5,8 +5,7 @@
  * so that a change of depth is fast.
  */
 import { randomUUID } from 'node:crypto';
-import { rename, writeFile } from 'node:fs/promises';
-import { basename, dirname, join } from 'node:path';
+import { basename, dirname } from 'node:path';
 import { z } from 'zod';
 import { parseUnits, type ParsedUnits } from '../cf/units.js';
 import { commonGridFor } from '../compare/common-grid.js';
@@ -28,6 +27,10 @@ import type { Region } from '../regions/region.js';
 import { areaMean, atLevels, bottomLevels, layerMeans, levelsOf, meridianSection, parallelSection, seafloorOf, zonalMeans } from '../render/slices.js';
 import { findInterval } from '../render/pixel-lookup.js';
 import type { LayerChoice, LevelData, ProfileData, SectionData, SessionInfo, SourceInfo, TableText, ViewGrid } from '../../contract/view-types.js';
+import { checkOutputFile } from '../output/output-target.js';
+import { writeOutputFile } from '../output/output-set.js';
+import { recipeFiles } from '../recipe/recipe-files.js';
+import { guardRecipe } from './recipe-guard.js';
 import { entry, type ServiceContext, type ServiceEntry } from './types.js';
 
 // ---------- sessions ----------
@@ -61,29 +64,6 @@ function sessionOf(id: string): Session {
   const s = sessions.get(id);
   if (!s) throw new StillwaterError('E_INPUT', `The workbench session '${id}' is no longer open; open the recipe again.`);
   return s;
-}
-
-/** Every file a recipe names must lie in the folders this workbench may read. */
-function guardRecipe(recipe: Recipe, ctx: ServiceContext): void {
-  const check = (file: string | undefined, path: string): void => {
-    if (!file) return;
-    try {
-      ctx.resolvePath(file);
-    } catch (e) {
-      if (e instanceof StillwaterError) throw new StillwaterError(e.code, `${path}: ${e.message}`, { ...e.subject, path });
-      throw e;
-    }
-  };
-  const source = (s: Recipe['reference'], path: string): void => {
-    check(s.file, `${path}.file`);
-    for (const [k, v] of Object.entries(s.variables)) check(v.file, `${path}.variables.${k}.file`);
-    s.snapshots?.forEach((x, i) => check(x.file, `${path}.snapshots[${i}].file`));
-  };
-  source(recipe.reference, 'reference');
-  recipe.runs.forEach((r, i) => source(r, `runs[${i}]`));
-  recipe.regions.forEach((r, i) => {
-    if (r.kind !== 'built-in') check(r.file, `regions[${i}]`);
-  });
 }
 
 function tableUnits(u: ParsedUnits): string {
@@ -470,12 +450,6 @@ async function profileData(s: Session, variable: string, regionName: string, ctx
 
 const sessionInput = z.object({ session: z.string().min(1) });
 
-async function writeAtomically(path: string, text: string): Promise<void> {
-  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.${Date.now()}.tmp`);
-  await writeFile(tmp, text, 'utf8');
-  await rename(tmp, path);
-}
-
 export const viewsServices: ServiceEntry[] = [
   entry({
     name: 'view.open',
@@ -549,13 +523,13 @@ export const viewsServices: ServiceEntry[] = [
   }),
   entry({
     name: 'view.save',
-    summary: 'Save the session as a recipe file (written to a temporary file, then renamed into place).',
+    summary: 'Save the session as a recipe .json file (app/output: complete or unchanged), never over a file it reads.',
     input: z.object({ session: z.string().min(1), path: z.string().min(1) }),
     async run(input, ctx): Promise<{ path: string }> {
       const s = sessionOf(input.session);
-      if (!/\.json$/i.test(input.path)) throw new StillwaterError('E_INPUT', `${input.path}: a recipe is saved as a .json file.`, { file: input.path });
       const path = ctx.resolvePath(input.path);
-      await writeAtomically(path, JSON.stringify(recipeToJson(s.recipe, dirname(path)), null, 2) + '\n');
+      checkOutputFile(path, { extension: '.json', inputs: recipeFiles(s.recipe).map((f) => f.file) });
+      await writeOutputFile(path, JSON.stringify(recipeToJson(s.recipe, dirname(path)), null, 2) + '\n');
       s.recipePath = path;
       s.info = { ...s.info, recipePath: path, modified: false };
       return { path };

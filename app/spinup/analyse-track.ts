@@ -2,7 +2,7 @@ import { fitFirstOrder, firstOrderValue, t90 } from './first-order-fit.js';
 import { linearSlope, mean } from './linear-slope.js';
 import { chooseTail } from './tail-window.js';
 import { turningPoints } from './turning-points.js';
-import { fmt, fmtSigned, years as yrs } from './format.js';
+import { formatNumber as fmt, formatSigned as fmtSigned, formatYears as yrs } from '../output/number-format.js';
 import type { DriftRate, FirstOrderFit, TrackVerdict } from './types.js';
 
 /** A run shorter than this has not settled in the deep ocean (England 1995; common practice: "a few thousand years"). */
@@ -169,13 +169,13 @@ function verdictFor(
   let status: TrackVerdict['status'];
   if (drift.percentPerKyr === null) {
     status = 'undetermined';
-    parts.push(`Undetermined: the mean is zero, so a relative drift has no meaning; the drift is ${fmtSigned(drift.perKyr)} ${input.units} per 1000 years ${over}.`);
+    parts.push(`Undetermined: the mean is zero, so a relative drift has no meaning; the drift is ${fmtSigned(drift.perKyr, 3)} ${input.units} per 1000 years ${over}.`);
   } else if (Math.abs(drift.percentPerKyr) <= input.thresholdPercentPerKyr) {
     status = 'settled';
-    parts.push(`Settled: drift ${fmtSigned(drift.percentPerKyr)} % ${ofMean} per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr)} %).`);
+    parts.push(`Settled: drift ${fmtSigned(drift.percentPerKyr, 3)} % ${ofMean} per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr, 3)} %).`);
   } else {
     status = 'drifting';
-    parts.push(`Still drifting: ${fmtSigned(drift.percentPerKyr)} % ${ofMean} per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr)} %).`);
+    parts.push(`Still drifting: ${fmtSigned(drift.percentPerKyr, 3)} % ${ofMean} per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr, 3)} %).`);
   }
   if (turningYears.length) {
     parts.push(`The track overshoots and turns back (turning point${turningYears.length > 1 ? 's' : ''} at model year ${turningYears.map(yrs).join(', ')}), so it is not monotonic; the fit uses only the snapshots after the last turning point.`);
@@ -191,7 +191,7 @@ function verdictFor(
             ? `; about ${yrs(fit.yearsToSettle)} more model years until the drift falls below the threshold`
             : '';
       parts.push(
-        `First-order fit from model year ${yrs(fit.t0)}: heading for ${fmt(fit.xInf)} ${input.units} with τ = ${yrs(fit.tau)} years (90 % of the change takes ${yrs(fit.t90)} years; ${fit.yearsTo90 > 0 ? `${yrs(fit.yearsTo90)} more model years to get there` : 'already past that'})${toSettle}.`,
+        `First-order fit from model year ${yrs(fit.t0)}: heading for ${fmt(fit.xInf, 3)} ${input.units} with τ = ${yrs(fit.tau)} years (90 % of the change takes ${yrs(fit.t90)} years; ${fit.yearsTo90 > 0 ? `${yrs(fit.yearsTo90)} more model years to get there` : 'already past that'})${toSettle}.`,
       );
     }
   }

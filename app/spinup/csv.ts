@@ -1,12 +1,5 @@
+import { csvTable, type CsvCell } from '../output/csv.js';
 import type { SkillPoint, SpinupResult, SpinupTrack } from './types.js';
-
-/** A CSV field: numbers as they are (empty for NaN/null), text quoted when it needs to be (RFC 4180). */
-export function csvField(v: unknown): string {
-  if (v === null || v === undefined) return '';
-  if (typeof v === 'number') return Number.isFinite(v) ? String(v) : '';
-  const s = String(v);
-  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
 
 const yearKey = (y: number): string => String(Math.round(y * 1000) / 1000);
 
@@ -23,7 +16,7 @@ export function tracksCsv(r: SpinupResult): string {
     ...r.years.map((y) => `mean_y${yearKey(y)}`),
     ...r.years.map((y) => `inventory_y${yearKey(y)}`),
   ];
-  const row = (t: SpinupTrack): unknown[] => [
+  const row = (t: SpinupTrack): CsvCell[] => [
     r.run, t.tracer, t.variable, t.region, t.layer, t.units, t.inventoryUnits, t.volume, t.verdict.status, t.verdict.deepCaution,
     t.drift?.perKyr, t.drift?.percentPerKyr, t.drift?.inventoryPerKyr, t.drift?.fromYear, t.drift?.toYear, t.drift?.n,
     t.monotonic, t.turningYears.join(' '), t.fit?.t0, t.fit?.x0, t.fit?.xInf, t.fit?.tau, t.fit?.t90, t.fit?.yearsTo90,
@@ -31,11 +24,11 @@ export function tracksCsv(r: SpinupResult): string {
     ...t.mean,
     ...t.inventory,
   ];
-  return [head, ...r.tracks.map(row)].map((cols) => cols.map(csvField).join(',')).join('\n') + '\n';
+  return csvTable(head, r.tracks.map(row));
 }
 
 /** spinup-skill.csv: the skill rows of every snapshot, model year first. */
 export function skillCsv(points: SkillPoint[]): string {
   const head = ['year', 'run', 'variable', 'region', 'layer', 'units', 'n', 'weight', 'model_mean', 'ref_mean', 'bias', 'rmse', 'crmse', 'corr', 'model_std', 'ref_std', 'std_ratio'] as const;
-  return [head.join(','), ...points.map((p) => head.map((k) => csvField(p[k])).join(','))].join('\n') + '\n';
+  return csvTable(head, points.map((p) => head.map((k) => p[k] as CsvCell)));
 }

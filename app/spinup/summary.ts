@@ -1,4 +1,4 @@
-import { fmtSigned } from './format.js';
+import { formatSigned as fmtSigned } from '../output/number-format.js';
 import type { SpinupSummary, SpinupTrack } from './types.js';
 
 /** The whole run in one verdict, for the banner on the scores view. */
@@ -17,7 +17,7 @@ export function summarise(run: string, lastYear: number, tracks: SpinupTrack[]):
   } else {
     const w = worst[0];
     parts.push(
-      `Run ${run} at model year ${Math.round(lastYear)} has not settled: ${drifting.length} of ${tracks.length} tracks still drift (most: ${w.tracer}, ${w.region}, ${w.layer}, ${w.percentPerKyr === null ? '?' : fmtSigned(w.percentPerKyr)} % per 1000 years); its scores describe a transient.`,
+      `Run ${run} at model year ${Math.round(lastYear)} has not settled: ${drifting.length} of ${tracks.length} tracks still drift (most: ${w.tracer}, ${w.region}, ${w.layer}, ${w.percentPerKyr === null ? '?' : fmtSigned(w.percentPerKyr, 3)} % per 1000 years); its scores describe a transient.`,
     );
   }
   if (undetermined > 0) parts.push(`${undetermined} track${undetermined > 1 ? 's' : ''} could not be judged.`);

@@ -1,4 +1,4 @@
-import { fmt, fmtSigned, years } from './format.js';
+import { formatNumber as fmt, formatSigned as fmtSigned, formatYears as years } from '../output/number-format.js';
 import type { SpinupResult, SpinupTrack } from './types.js';
 
 /**
@@ -12,7 +12,7 @@ export function fullVerdictTable(r: SpinupResult): string {
     t.region,
     t.layer,
     t.verdict.status,
-    t.drift?.percentPerKyr == null ? '-' : fmtSigned(t.drift.percentPerKyr),
+    t.drift?.percentPerKyr == null ? '-' : fmtSigned(t.drift.percentPerKyr, 3),
     t.fit?.constrained ? fmt(t.fit.xInf, 4) : '-',
     t.fit?.constrained ? years(t.fit.tau) : '-',
     t.fit?.yearsToSettle == null ? '-' : years(t.fit.yearsToSettle),
@@ -25,7 +25,7 @@ export function fullVerdictTable(r: SpinupResult): string {
   const line = (cells: string[]): string => cells.map((c, i) => (right.has(i) ? c.padStart(widths[i]) : c.padEnd(widths[i]))).join('  ').trimEnd();
   const lines = [
     r.summary.sentence,
-    `Snapshots: ${r.years.length}, model years ${years(r.years[0])}–${years(r.years[r.years.length - 1])}; threshold ${fmt(r.settings.thresholdPercentPerKyr)} % of the mean per 1000 years.`,
+    `Snapshots: ${r.years.length}, model years ${years(r.years[0])}–${years(r.years[r.years.length - 1])}; threshold ${fmt(r.settings.thresholdPercentPerKyr, 3)} % of the mean per 1000 years.`,
     '',
     line(head),
     ...rows.map(line),
@@ -69,11 +69,11 @@ export function verdictTable(r: SpinupResult): string {
         ? 'the fit cannot place its end yet (the tail still looks straight)'
         : `heading for ${fmt(f.xInf, 4)} ${t.units}, τ ${years(f.tau)} yr` +
           (t.verdict.status === 'drifting' ? (f.yearsToSettle == null ? ', time to settle not estimable' : `, about ${years(f.yearsToSettle)} more years to settle`) : '');
-    return `  ${tr}: ${t.verdict.status}${t.drift?.percentPerKyr != null ? ` (${fmtSigned(t.drift.percentPerKyr)} %/kyr)` : ''}; ${fitText}`;
+    return `  ${tr}: ${t.verdict.status}${t.drift?.percentPerKyr != null ? ` (${fmtSigned(t.drift.percentPerKyr, 3)} %/kyr)` : ''}; ${fitText}`;
   });
   const lines = [
     r.summary.sentence,
-    `Snapshots: ${r.years.length}, model years ${years(r.years[0])}–${years(r.years[r.years.length - 1])}. Drift over the tail in % of the mean per 1000 years; settled below ${fmt(r.settings.thresholdPercentPerKyr)}.`,
+    `Snapshots: ${r.years.length}, model years ${years(r.years[0])}–${years(r.years[r.years.length - 1])}. Drift over the tail in % of the mean per 1000 years; settled below ${fmt(r.settings.thresholdPercentPerKyr, 3)}.`,
     '',
     line(head),
     ...rows.map(line),

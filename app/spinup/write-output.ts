@@ -1,37 +1,26 @@
-import { mkdir, rename, rm, writeFile } from 'node:fs/promises';
-import { join } from 'node:path';
-import { StillwaterError } from '../errors.js';
+/** spinup.json (keys in snake_case, app/output/README.md), spinup.csv and spinup-skill.csv, as one output set. */
+import { camelKeys, jsonText, snakeKeys } from '../output/json.js';
+import { writeOutputFiles } from '../output/output-set.js';
 import { skillCsv, tracksCsv } from './csv.js';
 import type { SpinupResult } from './types.js';
 
-/**
- * Write spinup.json, spinup.csv (and spinup-skill.csv when there is skill) into `dir`. Every file is first
- * written under a temporary name; only when all are complete are they renamed into place, so a failure
- * leaves no half-written result. Returns the paths written.
- */
+export const SPINUP_FILES = ['spinup.json', 'spinup.csv', 'spinup-skill.csv'] as const;
+
+export function spinupJson(result: SpinupResult): string {
+  return jsonText(snakeKeys(result), 1);
+}
+
+/** A spinup.json read back as the in-memory result; files written before keys were snake_case read too. */
+export function spinupFromJson(json: unknown): unknown {
+  return camelKeys(json, new Set(['skill']));
+}
+
+/** Write the files into `dir`; returns the paths written. */
 export async function writeSpinupOutputs(dir: string, result: SpinupResult): Promise<string[]> {
-  try {
-    await mkdir(dir, { recursive: true });
-  } catch (e) {
-    throw new StillwaterError('E_FILE', `${dir}: cannot create the output folder (${(e as Error).message}).`, { file: dir });
-  }
-  const files: [string, string][] = [
-    ['spinup.json', JSON.stringify(result, null, 1) + '\n'],
-    ['spinup.csv', tracksCsv(result)],
+  const files = [
+    { name: 'spinup.json', data: spinupJson(result) },
+    { name: 'spinup.csv', data: tracksCsv(result) },
   ];
-  if (result.skill.length) files.push(['spinup-skill.csv', skillCsv(result.skill)]);
-  const stamp = `.tmp-${process.pid}-${Date.now()}`;
-  const temps: string[] = [];
-  try {
-    for (const [name, text] of files) {
-      const tmp = join(dir, name + stamp);
-      temps.push(tmp);
-      await writeFile(tmp, text, { flag: 'wx' });
-    }
-    for (let i = 0; i < files.length; i++) await rename(temps[i], join(dir, files[i][0]));
-  } catch (e) {
-    await Promise.all(temps.map((t) => rm(t, { force: true })));
-    throw new StillwaterError('E_FILE', `${dir}: cannot write the spin-up results (${(e as Error).message}).`, { file: dir });
-  }
-  return files.map(([name]) => join(dir, name));
+  if (result.skill.length) files.push({ name: 'spinup-skill.csv', data: skillCsv(result.skill) });
+  return writeOutputFiles(dir, files);
 }

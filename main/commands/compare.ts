@@ -4,14 +4,17 @@ import { layerLabel } from '../../app/regions/layers.js';
 import { loadRecipe } from '../../app/recipe/load.js';
 import { recipeToJson } from '../../app/recipe/to-json.js';
 import { consoleTable } from '../../app/report/console-table.js';
-import { ensureWritableDir } from '../../app/report/atomic.js';
 import { netcdfFieldSinks } from '../../app/report/fields-netcdf.js';
 import type { Provenance } from '../../app/report/types.js';
-import { writeSkillTables } from '../../app/report/write.js';
+import { skillTableFiles, TABLE_FILES } from '../../app/report/write.js';
+import { openOutputSet } from '../../app/output/output-set.js';
+import { checkOutputFolder } from '../../app/output/output-target.js';
+import { recipeFiles } from '../../app/recipe/recipe-files.js';
 import { allowOnly, optional, parseArgs, required } from '../args.js';
 import type { Command } from '../command.js';
 import { err, out } from '../command.js';
 import { toolVersion } from '../paths.js';
+import { formatNumber } from '../../app/output/number-format.js';
 
 /** A one-line bar redrawn in place; only when stderr is a terminal. */
 function progressBar(): { update(f: number, msg: string): void; done(): void } {
@@ -51,8 +54,8 @@ export const compareCommand: Command = {
     const outDir = resolve(required(args, 'out'));
     const cache = optional(args, 'cache');
     const recipe = await loadRecipe(recipePath);
-    await ensureWritableDir(outDir);
-    const fields = args.switches.has('fields') ? await netcdfFieldSinks(outDir) : null;
+    checkOutputFolder(outDir, TABLE_FILES, { inputs: [recipePath, ...recipeFiles(recipe).map((f) => f.file)], label: '--out' });
+    const set = await openOutputSet(outDir);
     const bar = progressBar();
     let result: ComparisonResult;
     let written: string[];
@@ -60,7 +63,7 @@ export const compareCommand: Command = {
       result = await runComparison(recipe, {
         cacheDir: cache ? resolve(cache) : undefined,
         onProgress: (f, m) => bar.update(f, m),
-        keepFields: fields?.factory,
+        keepFields: args.switches.has('fields') ? netcdfFieldSinks(set) : undefined,
       });
       bar.done();
       const prov: Provenance = {
@@ -74,11 +77,11 @@ export const compareCommand: Command = {
         layers: recipe.layers.map(layerLabel),
         variables: result.variables,
       };
-      written = await writeSkillTables(outDir, result, prov, recipe.title);
-      if (fields) written.push(...(await fields.commit()));
+      for (const f of skillTableFiles(result, prov, recipe.title)) await set.add(f.name, f.data);
+      written = await set.commit();
     } catch (e) {
       bar.done();
-      await fields?.discard();
+      await set.discard();
       throw e;
     }
     if (args.switches.has('json')) {
@@ -86,7 +89,7 @@ export const compareCommand: Command = {
     } else {
       out(consoleTable(result.rows));
       out('');
-      for (const c of result.costs) out(`cost ${c.run}: ${c.cost === null ? '—' : c.cost.toPrecision(4)}`);
+      for (const c of result.costs) out(`cost ${c.run}: ${formatNumber(c.cost)}`);
       err(`wrote ${written.join(', ')}`);
     }
     return 0;

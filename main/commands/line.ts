@@ -1,8 +1,12 @@
 import { resolve } from 'node:path';
 import { StillwaterError } from '../../app/errors.js';
 import { parseRange, parseWaypoints } from '../../app/lines/waypoints.js';
-import { runLine, writeLineFiles, type LineSpec } from '../../app/lines/run-line.js';
-import { writeFilesAtomic } from '../../app/lines/write-files.js';
+import { LINE_FILES, runLine, writeLineFiles, type LineSpec } from '../../app/lines/run-line.js';
+import { jsonText } from '../../app/output/json.js';
+import { formatNumber } from '../../app/output/number-format.js';
+import { writeOutputFiles } from '../../app/output/output-set.js';
+import { checkOutputFolder } from '../../app/output/output-target.js';
+import { recipeFiles } from '../../app/recipe/recipe-files.js';
 import { runZonalMean, zonalCsv, zonalJson } from '../../app/lines/zonal-mean.js';
 import { loadRecipe } from '../../app/recipe/index.js';
 import { allowOnly, optional, optionalNumber, parseArgs, required } from '../args.js';
@@ -46,9 +50,7 @@ function lineSpec(args: ReturnType<typeof parseArgs>): LineSpec {
   return { kind: 'parallel', lat: parallel!, lon0, lon1 };
 }
 
-function fmt(v: number | null): string {
-  return v === null ? '-' : Number(v.toPrecision(4)).toString();
-}
+const fmt = (v: number | null): string => formatNumber(v);
 
 export const lineCommand: Command = {
   name: 'line',
@@ -63,8 +65,13 @@ export const lineCommand: Command = {
     const basin = optional(args, 'zonal-mean');
     if (basin !== undefined) {
       if (['path', 'meridian', 'parallel'].some((k) => args.options.has(k))) throw new StillwaterError('E_INPUT', 'Give exactly one of --path, --meridian, --parallel or --zonal-mean.');
-      const z = await runZonalMean(await loadRecipe(recipePath), variable, basin);
-      const files = writeFilesAtomic(outDir, { 'zonal.csv': zonalCsv(z), 'zonal.json': JSON.stringify(zonalJson(z)) + '\n' });
+      const zr = await loadRecipe(recipePath);
+      checkOutputFolder(outDir, ['zonal.csv', 'zonal.json'], { inputs: [resolve(recipePath), ...recipeFiles(zr).map((f) => f.file)], label: '--out' });
+      const z = await runZonalMean(zr, variable, basin);
+      const files = await writeOutputFiles(outDir, [
+        { name: 'zonal.csv', data: zonalCsv(z) },
+        { name: 'zonal.json', data: jsonText(zonalJson(z)) },
+      ]);
       if (args.switches.has('json')) out(JSON.stringify({ variable, units: z.units, basin, latitudes: z.lat.length, levels: z.depthCentres.length, files, notes: z.notes }, null, 1));
       else {
         out(`${variable} (${z.units}): zonal mean of ${basin} over ${z.lat.length} latitudes and ${z.depthCentres.length} levels`);
@@ -80,6 +87,7 @@ export const lineCommand: Command = {
     const method = optional(args, 'method') ?? 'bilinear';
     if (method !== 'bilinear' && method !== 'nearest') throw new StillwaterError('E_INPUT', `--method must be bilinear or nearest, got '${method}'.`);
     const recipe = await loadRecipe(recipePath);
+    checkOutputFolder(outDir, LINE_FILES, { inputs: [resolve(recipePath), ...recipeFiles(recipe).map((f) => f.file)], label: '--out' });
     const tty = process.stderr.isTTY;
     const result = await runLine(recipe, {
       variable,
@@ -92,7 +100,7 @@ export const lineCommand: Command = {
       },
     });
     if (tty) process.stderr.write('\n');
-    const files = writeLineFiles(outDir, result);
+    const files = await writeLineFiles(outDir, result);
     const n = result.line.lon.length;
     const lengthKm = result.line.distanceKm[n - 1];
     if (args.switches.has('json')) {

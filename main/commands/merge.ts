@@ -1,7 +1,9 @@
 import { resolve } from 'node:path';
 import { consoleTable } from '../../app/report/console-table.js';
 import { mergedProvenance, mergeSkillDocuments, readSkillJson } from '../../app/report/merge.js';
-import { writeSkillTables } from '../../app/report/write.js';
+import { TABLE_FILES, writeSkillTables } from '../../app/report/write.js';
+import { formatNumber } from '../../app/output/number-format.js';
+import { checkOutputFolder } from '../../app/output/output-target.js';
 import { StillwaterError } from '../../app/errors.js';
 import { allowOnly, parseArgs, required } from '../args.js';
 import { err, out, type Command } from '../command.js';
@@ -23,6 +25,7 @@ export const mergeCommand: Command = {
     allowOnly(args, 'merge', ['out', 'json']);
     const outDir = resolve(required(args, 'out'));
     if (args.positional.length < 2) throw new StillwaterError('E_INPUT', 'stillwater merge needs at least two skill.json files.');
+    checkOutputFolder(outDir, TABLE_FILES, { inputs: args.positional.map((p) => resolve(p)), label: '--out' });
     const docs = [];
     for (const p of args.positional) docs.push({ path: resolve(p), doc: await readSkillJson(resolve(p)) });
     const { result, mergedFrom } = mergeSkillDocuments(docs);
@@ -31,7 +34,7 @@ export const mergeCommand: Command = {
     else {
       out(consoleTable(result.rows));
       out('');
-      for (const c of result.costs) out(`cost ${c.run}: ${c.cost === null ? '—' : c.cost.toPrecision(4)}`);
+      for (const c of result.costs) out(`cost ${c.run}: ${formatNumber(c.cost)}`);
       err(`merged ${mergedFrom.length} tables (${result.rows.length} rows); wrote ${written.join(', ')}`);
     }
     return 0;

@@ -1,6 +1,10 @@
 import { resolve } from 'node:path';
 import { StillwaterError } from '../../app/errors.js';
-import { writeFilesAtomic } from '../../app/lines/write-files.js';
+import { jsonText } from '../../app/output/json.js';
+import { formatNumber } from '../../app/output/number-format.js';
+import { writeOutputFiles } from '../../app/output/output-set.js';
+import { checkOutputFolder } from '../../app/output/output-target.js';
+import { recipeFiles } from '../../app/recipe/recipe-files.js';
 import { pointsCsv, pointsJson, pointsSkillCsv } from '../../app/points/points-output.js';
 import { runPoints, stationProblems } from '../../app/points/run-points.js';
 import { loadRecipe } from '../../app/recipe/index.js';
@@ -26,9 +30,7 @@ sentence each, and left out of that source's statistics.
   --out DIR              output folder (created if needed)
   --json                 print the statistics as JSON on stdout`;
 
-function fmt(v: number | null): string {
-  return v === null ? '-' : Number(v.toPrecision(4)).toString();
-}
+const fmt = (v: number | null): string => formatNumber(v);
 
 export const pointsCommand: Command = {
   name: 'points',
@@ -44,14 +46,15 @@ export const pointsCommand: Command = {
     const method = optional(args, 'method') ?? 'trilinear';
     if (method !== 'trilinear' && method !== 'nearest') throw new StillwaterError('E_INPUT', `--method must be trilinear or nearest, got '${method}'.`);
     const recipe = await loadRecipe(recipePath);
+    checkOutputFolder(outDir, ['points.csv', 'points-skill.csv', 'points.json'], { inputs: [resolve(recipePath), stationsFile, ...recipeFiles(recipe).map((f) => f.file)], label: '--out' });
     const result = await runPoints(recipe, { variable, stationsFile, method });
     for (const p of stationProblems(result)) err(p);
     const json = pointsJson(result);
-    const files = writeFilesAtomic(outDir, {
-      'points.csv': pointsCsv(result),
-      'points-skill.csv': pointsSkillCsv(result),
-      'points.json': JSON.stringify(json) + '\n',
-    });
+    const files = await writeOutputFiles(outDir, [
+      { name: 'points.csv', data: pointsCsv(result) },
+      { name: 'points-skill.csv', data: pointsSkillCsv(result) },
+      { name: 'points.json', data: jsonText(json) },
+    ]);
     if (args.switches.has('json')) {
       out(JSON.stringify({ variable, units: result.units, stations: result.stations.n, spans_decades: result.spansDecades, skill: json.skill, files, notes: result.notes }, null, 1));
       return 0;

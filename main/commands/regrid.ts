@@ -1,5 +1,4 @@
 import { resolve } from 'node:path';
-import { realpathSync } from 'node:fs';
 import { openField } from '../../app/cf/open-field.js';
 import type { FieldSource } from '../../app/cf/field.js';
 import { parseUnits } from '../../app/cf/units.js';
@@ -9,6 +8,7 @@ import { openDataset } from '../../app/io/open.js';
 import { canConvert } from '../../app/ocean/convert.js';
 import { defaultCacheDir } from '../../app/regrid/weight-cache.js';
 import { writeRegridded } from '../../app/regrid/write-regridded.js';
+import { checkOutputFile } from '../../app/output/output-target.js';
 import type { RemapMethod } from '../../app/regrid/csr.js';
 import { allowOnly, optional, optionalNumber, parseArgs, required } from '../args.js';
 import type { Command } from '../command.js';
@@ -51,9 +51,7 @@ export const regridCommand: Command = {
     if (!(coverage >= 0 && coverage <= 1)) throw new StillwaterError('E_INPUT', `--coverage must lie between 0 and 1, got ${coverage}.`);
     const vertical = optional(args, 'vertical') ?? 'overlap';
     if (vertical !== 'overlap' && vertical !== 'linear') throw new StillwaterError('E_INPUT', `--vertical must be overlap or linear, got '${vertical}'.`);
-    for (const input of [source, target]) {
-      if (sameFile(input, outPath)) throw new StillwaterError('E_INPUT', `--out ${outPath} is one of the input files; inputs are never overwritten.`, { file: outPath });
-    }
+    checkOutputFile(required(args, 'out'), { inputs: [source, target], label: '--out' });
     const unitsText = optional(args, 'units');
 
     const src = await openField(source, variable);
@@ -95,14 +93,6 @@ export const regridCommand: Command = {
 function isOxygen(f: FieldSource): boolean {
   const names = [f.variable, f.standardName ?? '', f.longName ?? ''].join(' ').toLowerCase();
   return /\bo2\b|oxygen|^o2|doxy/.test(names);
-}
-
-function sameFile(a: string, b: string): boolean {
-  try {
-    return realpathSync(a) === realpathSync(b);
-  } catch {
-    return a === b;
-  }
 }
 
 /** The target file's first variable that decodes as a field on a grid. */

@@ -4,7 +4,9 @@ import { loadRecipe } from '../../app/recipe/index.js';
 import { spinupFromFiles, spinupFromRecipe } from '../../app/spinup/run-spinup.js';
 import { parseSnapshotOption } from '../../app/spinup/snapshot-list.js';
 import { fullVerdictTable, verdictTable } from '../../app/spinup/verdict-table.js';
-import { writeSpinupOutputs } from '../../app/spinup/write-output.js';
+import { SPINUP_FILES, writeSpinupOutputs } from '../../app/spinup/write-output.js';
+import { checkOutputFolder } from '../../app/output/output-target.js';
+import { recipeFiles } from '../../app/recipe/recipe-files.js';
 import type { SpinupResult } from '../../app/spinup/types.js';
 import { allowOnly, optional, optionalNumber, parseArgs, required } from '../args.js';
 import type { Command } from '../command.js';
@@ -68,9 +70,11 @@ export const spinupCommand: Command = {
     try {
       if (recipePath) {
         const recipe = await loadRecipe(recipePath);
+        checkOutputFolder(outDir, SPINUP_FILES, { inputs: [resolve(recipePath), ...recipeFiles(recipe).map((f) => f.file)], label: '--out' });
         result = await spinupFromRecipe(recipe, { run: optional(args, 'run'), variables, snapshots, settings, skill: !args.switches.has('no-skill'), progress });
       } else {
         if (optional(args, 'run')) throw new StillwaterError('E_INPUT', '--run needs --recipe.');
+        checkOutputFolder(outDir, SPINUP_FILES, { inputs: snapshots!.map((s) => s.file), label: '--out' });
         result = await spinupFromFiles(snapshots!, variables ?? [], { settings, progress });
       }
     } finally {

@@ -274,12 +274,23 @@ print(json.dumps({"units": f['PO4'].units, "shape": list(m.shape), "maxerr": flo
     expect(existsSync(out) ? readdirSync(out) : []).toEqual([]);
   });
 
+  it('outputs checked before any work: /proc/x, and a skill table that would replace the recipe, are refused in one sentence', () => {
+    const p = cli(['--recipe', join(dir, 'recipe.json'), '--out', '/proc/x']);
+    expect(p.status).toBe(2);
+    expect(p.stderr.trim()).toMatch(/^stillwater compare: --out \/proc\/x: lies in a system pseudo file system \(\/proc or \/sys\), not a place for outputs\.$/);
+    // a recipe named skill.json in the output folder: the table would replace it
+    writeFileSync(join(dir, 'skill.json'), readFileSync(join(dir, 'recipe.json')));
+    const q = cli(['--recipe', join(dir, 'skill.json'), '--out', dir]);
+    expect(q.status).toBe(2);
+    expect(q.stderr).toMatch(/skill\.json: is an input of this run/);
+  });
+
   it('an output folder that cannot be written: one sentence, exit 2', () => {
     const blocked = join(dir, 'blocked');
     writeFileSync(blocked, 'a file, not a folder');
     const p = cli(['--recipe', join(dir, 'recipe.json'), '--out', join(blocked, 'out')]);
     expect(p.status).toBe(2);
-    expect(p.stderr).toMatch(/blocked\/out: the output folder cannot be written/);
+    expect(p.stderr).toMatch(/--out .*blocked\/out: '.*blocked' is not a folder, so nothing can be written there\./);
     if (process.getuid?.() !== 0) {
       const ro = join(dir, 'readonly');
       spawnSync('mkdir', [ro]);

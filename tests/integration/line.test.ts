@@ -14,7 +14,7 @@ beforeAll(() => {
 });
 
 function csv(path: string): Record<string, string>[] {
-  const [head, ...rows] = readFileSync(path, 'utf8').trim().split('\n');
+  const [head, ...rows] = readFileSync(path, 'utf8').trim().split(/\r?\n/);
   const names = head.split(',');
   return rows.map((r) => Object.fromEntries(r.split(',').map((v, i) => [names[i], v])));
 }

@@ -100,7 +100,10 @@ describe('stillwater regrid: bad input gets one sentence, exit 2, and nothing at
     ['a source with all values missing', ['--source', 'empty.nc', '--var', 'o2', '--target', 'target.nc'], /empty\.nc, variable 'o2': every value is missing/],
     ['units with no conversion path', ['--source', 'source.nc', '--var', 'thetao', '--target', 'target.nc', '--units', 'umol kg-1'], /variable 'thetao': there is no conversion from 'degC' to 'umol kg-1'/],
     ['an unknown method', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--method', 'spline'], /--method must be one of conservative, bilinear, nearest/],
-    ['an output that is an input', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', 'source.nc'], /inputs are never overwritten/],
+    ['an output that is an input', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', 'source.nc'], /--out .*source\.nc: is an input of this run .*; outputs never replace inputs\./],
+    ['a device as the output (checked before any work)', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', '/dev/null'], /^stillwater regrid: --out \/dev\/null: is not a regular file \(a device or other special file\)/],
+    ['a folder as the output (checked before any work)', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', tmpdir()], /--out .*: is a folder; give a file name\./],
+    ['a place in \/proc as the output', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', '/proc/x'], /--out \/proc\/x: lies in a system pseudo file system/],
   ];
   it.each(cases)('%s', (_name, args, message) => {
     const named = args.map((a) => (a.endsWith('.nc') ? join(dir, a) : a));

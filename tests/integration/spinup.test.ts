@@ -11,6 +11,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import type { SpinupResult, SpinupSummary, SpinupTrack } from '../../app/spinup/types.js';
 import { spinupServices } from '../../app/services/spinup.js';
 import { cacheKey } from '../../app/spinup/result-cache.js';
+import { spinupFromJson } from '../../app/spinup/write-output.js';
 import { StillwaterError } from '../../app/errors.js';
 
 const root = join(__dirname, '../..');
@@ -67,7 +68,7 @@ describe('stillwater spinup on a recipe', () => {
   beforeAll(() => {
     writeRecipe('recipe.json', snapshotList(expected.years));
     run = stillwater('--recipe', 'recipe.json', '--variables', 'PO4,o2', '--out', 'out');
-    r = JSON.parse(readFileSync(join(dir, 'out/spinup.json'), 'utf8'));
+    r = spinupFromJson(JSON.parse(readFileSync(join(dir, 'out/spinup.json'), 'utf8'))) as SpinupResult;
   });
 
   it('exits 0, prints the verdict table and writes spinup.json, spinup.csv and spinup-skill.csv', () => {
@@ -149,7 +150,7 @@ describe('stillwater spinup on a recipe', () => {
     const o = JSON.parse(j.stdout);
     expect(o.summary.tracks).toBe(3);
     expect(o.verdicts[0]).toMatchObject({ tracer: 'PO4', region: 'global', layer: 'all' });
-    const saved: SpinupResult = JSON.parse(readFileSync(join(dir, 'out-json/spinup.json'), 'utf8'));
+    const saved: SpinupResult = spinupFromJson(JSON.parse(readFileSync(join(dir, 'out-json/spinup.json'), 'utf8'))) as SpinupResult;
     expect(saved.settings.thresholdPercentPerKyr).toBe(0.5);
     expect(saved.tracks[0].drift!.fromYear).toBe(1500);
     expect(saved.skill).toEqual([]);
@@ -170,7 +171,7 @@ describe('stillwater spinup with --snapshots', () => {
   it('replaces the recipe run’s snapshots and still scores them against the reference', () => {
     const j = stillwater('--recipe', 'recipe.json', '--snapshots', 'year-0500.nc:500,year-1000.nc:1000,year-1500.nc:1500', '--out', 'out-override');
     expect(j.code, j.stderr).toBe(0);
-    const saved: SpinupResult = JSON.parse(readFileSync(join(dir, 'out-override/spinup.json'), 'utf8'));
+    const saved: SpinupResult = spinupFromJson(JSON.parse(readFileSync(join(dir, 'out-override/spinup.json'), 'utf8'))) as SpinupResult;
     expect(saved.years).toEqual([500, 1000, 1500]);
     expect([...new Set(saved.skill.map((p) => p.year))]).toEqual([500, 1000, 1500]);
   });
@@ -222,7 +223,7 @@ describe('spin-up services for the workbench', () => {
 
   it('spinup.verdict gives the banner summary of the run, the same as the command line', async () => {
     const v = (await service('spinup.verdict').run({ recipe: recipeJson(), baseDir: dir }, ctx())) as SpinupSummary;
-    const cli: SpinupResult = JSON.parse(readFileSync(join(dir, 'out/spinup.json'), 'utf8'));
+    const cli: SpinupResult = spinupFromJson(JSON.parse(readFileSync(join(dir, 'out/spinup.json'), 'utf8'))) as SpinupResult;
     expect(v.run).toBe('spin');
     expect(v.lastYear).toBe(2000);
     expect(v.shortForDeep).toBe(true);
@@ -259,5 +260,18 @@ describe('spin-up services for the workbench', () => {
     expect(r.years).toEqual(expected.years);
     expect(r.tracks[0].mean.every((m) => typeof m === 'number')).toBe(true);
     await expect(service('spinup.open').run({ path: 'expected.json' }, ctx())).rejects.toThrow(/not a spinup\.json/);
+  });
+
+  it('spinup.json keys are snake_case like skill.json, and a file from before (camelCase) still opens', async () => {
+    const raw = readFileSync(join(dir, 'out/spinup.json'), 'utf8');
+    const keys = [...raw.matchAll(/"([^"\\]+)":/g)].map((m) => m[1]);
+    expect(keys).toContain('threshold_percent_per_kyr');
+    expect(keys.filter((k) => /[A-Z]/.test(k) && !/^[A-Z][\w]*$/.test(k))).toEqual([]);
+    const current = (await service('spinup.open').run({ path: 'out/spinup.json' }, ctx())) as SpinupResult;
+    writeFileSync(join(dir, 'old-style.json'), JSON.stringify(current));
+    const older = (await service('spinup.open').run({ path: 'old-style.json' }, ctx())) as SpinupResult;
+    expect(older.settings.thresholdPercentPerKyr).toBe(current.settings.thresholdPercentPerKyr);
+    expect(older.tracks[0].fit?.yearsTo90).toBe(current.tracks[0].fit?.yearsTo90);
+    expect(older.skill[0]?.model_mean).toBe(current.skill[0]?.model_mean);
   });
 });

@@ -1,15 +1,18 @@
 /**
  * Skill table writers. CSV per RFC 4180 (quotes doubled, CRLF); LaTeX special characters per the LaTeX manual
- * (common practice); undefined numbers print "—" in human tables, never NaN; outputs are all-or-nothing.
+ * (common practice); undefined numbers print "—" in human tables, never NaN; text cells that a spreadsheet
+ * would run as a formula are neutralised (common practice: OWASP "CSV Injection"); a line break in a label
+ * keeps a Markdown row (CommonMark 0.31, §4.10 tables extension: a row is one line) and a LaTeX row whole.
+ * The all-or-nothing writing is tested in tests/unit/output.
  */
-import { chmodSync, existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { ComparisonResult } from '../../../app/compare/run.js';
 import { makeRow, NO_CELLS_NOTE } from '../../../app/compare/rows.js';
 import { emptyMoments, pairMoments } from '../../../app/stats/moments.js';
-import { consoleTable, skillCsv, skillLatex, skillMarkdown, texEscape, texUnits, writeFilesAtomically, writeSkillTables, type Provenance } from '../../../app/report/index.js';
+import { consoleTable, skillCsv, skillLatex, skillMarkdown, texEscape, texUnits, writeSkillTables, type Provenance } from '../../../app/report/index.js';
 
 const ctx = { run: 'Run "A", v2', variable: 'PO4', region: 'global', layer: '0-100 m', units: 'umol kg-1', weightUnits: 'm3' };
 const full = makeRow(ctx, { region: 0, layer: 0, moments: pairMoments(Float64Array.of(1, 2, 4), Float64Array.of(1.5, 2, 3), Float64Array.of(1, 1, 2)), refWeight: 8 });
@@ -70,26 +73,31 @@ describe('skill tables', () => {
     expect(json.provenance.version).toBe('0.1.0');
   });
 
-  it('all or nothing: when one file cannot be written, none is, and no temporary is left', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'sw-report-'));
-    writeFileSync(join(dir, 'old.md'), 'before');
-    // the second target is a folder, so its rename fails after the first file was staged
-    const blocker = join(dir, 'b.csv');
-    writeFileSync(join(dir, 'keep'), '');
-    await import('node:fs').then((fs) => fs.mkdirSync(blocker));
-    await expect(writeFilesAtomically([{ path: join(dir, 'a.json'), text: '{}' }, { path: blocker, text: 'x' }])).rejects.toThrow(/cannot be written/);
-    expect(readdirSync(dir).sort()).toEqual(['b.csv', 'keep', 'old.md']);
-    expect(existsSync(join(dir, 'a.json'))).toBe(false);
-    // an earlier file at a target survives a failed write unchanged
-    await expect(writeFilesAtomically([{ path: join(dir, 'old.md'), text: 'after' }, { path: blocker, text: 'x' }])).rejects.toThrow(/b\.csv: cannot be written/);
-    expect(readFileSync(join(dir, 'old.md'), 'utf8')).toBe('before');
-    expect(readdirSync(dir).sort()).toEqual(['b.csv', 'keep', 'old.md']);
-    await writeFilesAtomically([{ path: join(dir, 'old.md'), text: 'after' }]);
-    expect(readFileSync(join(dir, 'old.md'), 'utf8')).toBe('after');
-    if (process.getuid?.() !== 0) {
-      chmodSync(dir, 0o500);
-      await expect(writeSkillTables(dir, result, prov)).rejects.toThrow(/the output folder cannot be written/);
-      chmodSync(dir, 0o700);
-    }
+  describe('labels that other programs would misread', () => {
+    const hostile: ComparisonResult = {
+      ...result,
+      rows: [makeRow({ ...ctx, run: '=HYPERLINK("http://x")\nsecond line', region: '@SUM(A1)', layer: '+1' }, { region: 0, layer: 0, moments: pairMoments(Float64Array.of(-3, 2), Float64Array.of(-1.5, 2), Float64Array.of(1, 1)), refWeight: 2 })],
+      costs: [],
+    };
+    it('CSV: text cells beginning with = + - @ get an apostrophe; negative numbers stay numbers', () => {
+      const lines = skillCsv(hostile.rows).split('\r\n');
+      const cells = lines[1];
+      expect(cells.startsWith(`"'=HYPERLINK(""http://x"")\nsecond line",PO4,'@SUM(A1),'+1,`)).toBe(true);
+      // the means and the bias are negative numbers, written as numbers (model mean −0.5 − ref mean 0.25 = −0.75)
+      expect(cells).toMatch(/,-0\.5,0\.25,-0\.75,/);
+      expect(skillCsv([{ ...hostile.rows[0], run: '-2+3', region: 'atlantic', layer: 'all' }]).split('\r\n')[1]).toMatch(/^'-2\+3,PO4,atlantic,all,/);
+    });
+    it('Markdown: a line break in a run label stays inside its table row', () => {
+      const md = skillMarkdown(hostile, prov);
+      const row = md.split('\n').find((l) => l.includes('HYPERLINK'))!;
+      expect(row).toMatch(/^\| =HYPERLINK\("http:\/\/x"\) second line \| @SUM\(A1\) \| \+1 \| 2 \|/);
+      expect(row.split(' | ')).toHaveLength(14);
+    });
+    it('LaTeX: a line break becomes a space, so no blank line ends the row early', () => {
+      expect(texEscape('a\n\nb_c')).toBe('a  b\\_c');
+      const tex = skillLatex(hostile);
+      expect(tex).not.toMatch(/\n\s*\n/);
+      expect(tex).toMatch(/=HYPERLINK\("http:\/\/x"\) second line & @SUM\(A1\) & \+1 & 2 &/);
+    });
   });
 });
