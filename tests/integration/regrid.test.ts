@@ -103,7 +103,7 @@ describe('stillwater regrid: bad input gets one sentence, exit 2, and nothing at
     ['an output that is an input', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', 'source.nc'], /--out .*source\.nc: is an input of this run .*; outputs never replace inputs\./],
     ['a device as the output (checked before any work)', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', '/dev/null'], /^stillwater regrid: --out \/dev\/null: is not a regular file \(a device or other special file\)/],
     ['a folder as the output (checked before any work)', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', tmpdir()], /--out .*: is a folder; give a file name\./],
-    ['a place in \/proc as the output', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', '/proc/x'], /--out \/proc\/x: lies in a system pseudo file system/],
+    ['a place in /proc as the output', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', '/proc/x'], /--out \/proc\/x: lies in a system pseudo file system/],
   ];
   it.each(cases)('%s', (_name, args, message) => {
     const named = args.map((a) => (a.endsWith('.nc') ? join(dir, a) : a));
