@@ -5,6 +5,7 @@
 import { BrowserWindow, app, ipcMain } from 'electron';
 import { dirname, join } from 'node:path';
 import { serviceTable } from '../app/service.js';
+import { defaultCacheDir } from '../app/regrid/weight-cache.js';
 import { IPC } from '../contract/transport.js';
 import { Dispatcher } from './dispatch.js';
 import { registerIpc } from './ipc.js';
@@ -35,7 +36,7 @@ void app.whenReady().then(() => {
   const guard = new PathGuard(roots.length ? roots : [join(root, 'sample-data'), process.cwd()]);
   // the recipe named at start may be read, and the data beside it (its paths are relative to its folder)
   if (recipe) guard.grant(dirname(recipe));
-  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: join(app.getPath('userData'), 'cache'), heavy: workerRunner(join(distDir, 'worker.mjs')) });
+  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: workerRunner(join(distDir, 'worker.mjs')) });
   const openDialog = async (o: Parameters<typeof showOpenDialog>[1]): Promise<string[] | null> => {
     const paths = await showOpenDialog(win, o);
     // a file the person picked may be read, even outside the folders named at start; for a recipe, its folder

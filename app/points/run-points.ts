@@ -57,11 +57,37 @@ function stationUnits(st: Stations): ParsedUnits | undefined {
   }
 }
 
+/**
+ * The variable the stations are compared with: the one their file names (a `# variable: NAME` line), else the
+ * one asked for. A file naming a variable the recipe does not compare is refused.
+ */
+function stationsVariable(recipe: Recipe, asked: string, st: Stations): string {
+  if (st.variable === undefined) return asked;
+  if (!recipe.variables.includes(st.variable)) {
+    throw new StillwaterError('E_INPUT', `${st.file}: its '# variable: ${st.variable}' line names a variable the recipe does not compare (it compares ${recipe.variables.join(', ')}).`, { file: st.file });
+  }
+  return st.variable;
+}
+
 export async function runPoints(recipe: Recipe, req: PointsRequest): Promise<PointsResult> {
   const stations = await readStations(req.stationsFile);
   const units = stationUnits(stations);
-  const fields = await prepareFields(recipe, req.variable, { cacheDir: req.cacheDir, units, native: true });
+  const variable = stationsVariable(recipe, req.variable, stations);
+  let fields: Awaited<ReturnType<typeof prepareFields>>;
+  try {
+    fields = await prepareFields(recipe, variable, { cacheDir: req.cacheDir, units, native: true });
+  } catch (e) {
+    if (isStillwaterError(e) && e.code === 'E_UNITS' && units && stations.variable === undefined) {
+      throw new StillwaterError(
+        'E_UNITS',
+        `${stations.file}: its values in '${units.text}' do not match the variable ${variable}, whose units cannot be converted to them; choose the variable the file holds, or name it in a '# variable: NAME' line.`,
+        { file: stations.file, variable },
+      );
+    }
+    throw e;
+  }
   const notes = [...fields.notes];
+  if (variable !== req.variable) notes.push(`${stations.file} holds ${variable} (its '# variable' line), so the stations are compared with ${variable}, not ${req.variable}.`);
   if (!units) notes.push(`${stations.file} names no units; its values are taken to be in ${fields.units.text}, the units of the comparison.`);
   const method = req.method ?? 'trilinear';
   try {
@@ -82,7 +108,7 @@ export async function runPoints(recipe: Recipe, req: PointsRequest): Promise<Poi
       throw new StillwaterError('E_INPUT', `${stations.file}: none of its ${stations.n} stations lies in the water of the reference or any run (on land, below the seafloor or outside the grids).`, { file: stations.file });
     }
     return {
-      variable: req.variable,
+      variable,
       units: units?.text ?? fields.units.text,
       method,
       stations,

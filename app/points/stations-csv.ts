@@ -3,6 +3,7 @@
  *
  * Format (our own):
  *   # units: mmol m-2 d-1          optional comment line naming the units of `value`
+ *   # variable: PO4                optional comment line naming the recipe variable the values are of
  *   id,longitude,latitude,depth,value,time
  *   A1,-25.5,10.0,seafloor,0.31,2019-04-02
  *   A2,-25.5,10.0,150,0.12,
@@ -33,6 +34,8 @@ export interface Stations {
   line: Int32Array;
   /** units of `value` as written, or undefined when the file does not say */
   units?: string;
+  /** the recipe variable the values are of (a `# variable: NAME` line), when the file says */
+  variable?: string;
 }
 
 const ALIASES: Record<string, string[]> = {
@@ -72,6 +75,7 @@ export function splitCsvLine(line: string): string[] {
 export function parseStations(text: string, file: string): Stations {
   const lines = text.replace(/^\uFEFF/, '').split(/\r?\n/);
   let units: string | undefined;
+  let variable: string | undefined;
   let header: Record<string, number> | null = null;
   let width = 0;
   const id: string[] = [];
@@ -94,6 +98,8 @@ export function parseStations(text: string, file: string): Stations {
     if (raw.startsWith('#')) {
       const m = /^#\s*units\s*[:=]\s*(.+)$/i.exec(raw);
       if (m) units = m[1].trim();
+      const v = /^#\s*variable\s*[:=]\s*(.+)$/i.exec(raw);
+      if (v) variable = v[1].trim();
       continue;
     }
     const fields = splitCsvLine(raw);
@@ -169,5 +175,6 @@ export function parseStations(text: string, file: string): Stations {
     time,
     line: Int32Array.from(lineNo),
     units: units ?? unitsFromColumn,
+    ...(variable !== undefined ? { variable } : {}),
   };
 }

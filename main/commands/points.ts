@@ -56,10 +56,10 @@ export const pointsCommand: Command = {
       { name: 'points.json', data: jsonText(json) },
     ]);
     if (args.switches.has('json')) {
-      out(JSON.stringify({ variable, units: result.units, stations: result.stations.n, spans_decades: result.spansDecades, skill: json.skill, files, notes: result.notes }, null, 1));
+      out(JSON.stringify({ variable: result.variable, units: result.units, stations: result.stations.n, spans_decades: result.spansDecades, skill: json.skill, files, notes: result.notes }, null, 1));
       return 0;
     }
-    out(`${variable} (${result.units}) at ${result.stations.n} stations, ${result.method} sampling${result.spansDecades ? '; observations span decades: read the log10 columns' : ''}`);
+    out(`${result.variable} (${result.units}) at ${result.stations.n} stations, ${result.method} sampling${result.spansDecades ? '; observations span decades: read the log10 columns' : ''}`);
     const w = Math.max(6, ...result.sources.map((s) => s.label.length));
     out(`${'source'.padEnd(w)}  ${'n'.padStart(5)} ${'bias'.padStart(10)} ${'rmse'.padStart(10)} ${'corr'.padStart(8)} ${'log10 rmse'.padStart(11)} ${'not sampled'.padStart(11)}`);
     for (const s of result.sources) {

@@ -8,6 +8,7 @@ import { existsSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { ensureDemo } from '../../sample-data/generator/generate.js';
 import { serviceTable } from '../../app/service.js';
+import { defaultCacheDir } from '../../app/regrid/weight-cache.js';
 import { StillwaterError } from '../../app/errors.js';
 import { allowOnly, optional, optionalNumber, parseArgs, type ParsedArgs } from '../args.js';
 import { err, out, type Command } from '../command.js';
@@ -41,7 +42,7 @@ async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean
   const guard = new PathGuard(s.roots);
   // a recipe named at start may be read, and the data beside it (its paths are relative to its folder)
   if (s.recipe) guard.grant(dirname(s.recipe));
-  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: join(process.cwd(), '.stillwater-cache'), heavy: workerRunner() });
+  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: workerRunner() });
   const server = await startServer({ dispatcher, port: s.port, startRecipe: s.recipe, root });
   // Ctrl+C is handled before the address is printed: whoever reads the address may stop us at once
   const stopped = new Promise<number>((done) => {

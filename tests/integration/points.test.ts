@@ -81,12 +81,29 @@ describe('stillwater points', () => {
   });
 });
 
+describe('a stations file that names its variable', () => {
+  it('is compared with its own variable, whichever variable was asked for, and says so', () => {
+    // a recipe with a second (derived) variable; the file's values are PO4, 0.1 below the reference
+    writeFileSync(join(dir, 'two-variables.json'), JSON.stringify({ ...JSON.parse(readFileSync(join(dir, 'recipe.json'), 'utf8')), options: { derived: { P2: { expression: 'PO4 * 2', units: 'umol kg-1' } } } }));
+    const rows = ['# variable: PO4', '# units: umol kg-1', 'id,longitude,latitude,depth,value'];
+    for (const [id, lon, lat, z] of good) rows.push(`${id},${lon},${lat},${z},${(truth(lat, z as number) - 0.1).toFixed(6)}`);
+    const file = stationsFile('po4-named.csv', rows);
+    const r = stillwater(['points', '--recipe', join(dir, 'two-variables.json'), '--var', 'P2', '--stations', file, '--out', join(dir, 'own-variable'), '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    const summary = JSON.parse(r.stdout);
+    expect(summary.variable).toBe('PO4');
+    expect(summary.skill[0].stats.bias).toBeCloseTo(0.1, 5);
+    expect(summary.notes.join(' ')).toMatch(/po4-named\.csv holds PO4 \(its '# variable' line\), so the stations are compared with PO4, not P2\./);
+  });
+});
+
 describe('stillwater points refuses bad station files with one sentence and exit 2', () => {
   const cases: [string, string, string[], RegExp][] = [
     ['an empty file', 'empty.csv', [], /empty\.csv: the file is empty \(no header and no stations\)\./],
     ['a malformed row', 'malformed.csv', ['longitude,latitude,depth,value', '1,2,3,4', '1,2,x,4'], /malformed\.csv line 3: depth 'x' is neither metres nor the word seafloor\./],
     ['only stations on land', 'land-only.csv', ['longitude,latitude,depth,value', '0,0,10,1', '5,-5,20,1'], /land-only\.csv: none of its 2 stations lies in the water of the reference or any run/],
-    ['units that cannot be converted', 'celsius.csv', ['# units: degC', 'longitude,latitude,depth,value', '-30,20,200,1.5'], /cannot convert 'umol kg-1' to 'degC'/],
+    ['units that cannot be converted (a file of another variable)', 'celsius.csv', ['# units: degC', 'longitude,latitude,depth,value', '-30,20,200,1.5'], /celsius\.csv: its values in 'degC' do not match the variable PO4, whose units cannot be converted to them; choose the variable the file holds, or name it in a '# variable: NAME' line\./],
+    ['a variable the recipe does not compare', 'temperature.csv', ['# variable: T', 'longitude,latitude,depth,value', '-30,20,200,1.5'], /temperature\.csv: its '# variable: T' line names a variable the recipe does not compare \(it compares PO4\)\./],
   ];
   for (const [name, fileName, lines, message] of cases) {
     it(name, () => {
