@@ -140,3 +140,10 @@ export function getSkill(session: string, variable: string | null = null): Promi
 export function getTable(result: ComparisonResult, recipePath: string | null, format: TableFormat): Promise<TableText> {
   return tracked(`Writing ${format}`, 'view.table', { result, recipePath, format });
 }
+
+const regionCells = new PromiseCache<{ region: string; cells: Int32Array }>(16);
+
+/** The common grid's cells of one region of the session (crop to region, region statistics). */
+export function getRegionCells(session: string, region: string): Promise<{ region: string; cells: Int32Array }> {
+  return regionCells.get(JSON.stringify([session, region]), () => call('view.region', { session, region }));
+}

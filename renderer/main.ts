@@ -10,7 +10,7 @@ import { probePanel } from './panels/probe.js';
 import { sourcesPanel } from './panels/sources.js';
 import { statusLine } from './panels/status.js';
 import { savePng, saveSvg } from './plot/export.js';
-import { VIEWS, setSession, state, subscribe, type ViewId } from './state.js';
+import { VIEWS, redo, setSession, state, subscribe, undo, type ViewId } from './state.js';
 import { diagramView } from './views/diagram.js';
 import { lineView } from './views/line.js';
 import { mapView } from './views/map.js';
@@ -96,6 +96,22 @@ async function main(): Promise<void> {
   };
   ui.exportSvg.addEventListener('click', () => void doExport('svg'));
   ui.exportPng.addEventListener('click', () => void doExport('png'));
+
+  // undo and redo of view changes; inside a text field the keys stay the field's own
+  document.addEventListener('keydown', (ev) => {
+    if (!(ev.ctrlKey || ev.metaKey) || ev.altKey) return;
+    const t = ev.target;
+    if (t instanceof HTMLInputElement && t.type !== 'checkbox' && t.type !== 'radio') return;
+    if (t instanceof HTMLTextAreaElement) return;
+    const key = ev.key.toLowerCase();
+    if (key === 'z' && !ev.shiftKey) {
+      ev.preventDefault();
+      if (!undo()) status.say('There is nothing to undo.');
+    } else if (key === 'y' || (key === 'z' && ev.shiftKey)) {
+      ev.preventDefault();
+      if (!redo()) status.say('There is nothing to redo.');
+    }
+  });
 
   let resizeTimer = 0;
   window.addEventListener('resize', () => {

@@ -162,6 +162,31 @@ export function choose(patch: Partial<Selection>): void {
   notify(changed);
 }
 
+/** A change in progress (a drag): shown at once, recorded for undo once, by commitPreview. */
+let previewBefore: Selection | null = null;
+
+export function preview(patch: Partial<Selection>): void {
+  previewBefore ??= copy(state.sel);
+  const changed = new Set<string>();
+  for (const [k, v] of Object.entries(patch) as [keyof Selection, unknown][]) {
+    if (JSON.stringify(state.sel[k]) !== JSON.stringify(v)) {
+      (state.sel as unknown as Record<string, unknown>)[k] = v;
+      changed.add(k);
+    }
+  }
+  if (changed.size) notify(changed);
+}
+
+/** The end of a drag: one step of history for all of it. */
+export function commitPreview(): void {
+  if (!previewBefore) return;
+  if (JSON.stringify(previewBefore) !== JSON.stringify(state.sel)) {
+    undoStack.push(previewBefore);
+    redoStack.length = 0;
+  }
+  previewBefore = null;
+}
+
 function restore(to: Selection): void {
   const changed = new Set<string>();
   for (const k of Object.keys(to) as (keyof Selection)[]) if (JSON.stringify(state.sel[k]) !== JSON.stringify(to[k])) changed.add(k);

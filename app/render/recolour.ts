@@ -19,6 +19,9 @@ export interface RecolourStyle {
   missing: number;
   /** colour of pixels off the map */
   background: number;
+  /** metres of water per cell: a missing value where there is water is drawn in `noData`, not as land */
+  water?: ArrayLike<number>;
+  noData?: number;
 }
 
 /** Index into the palette for a value, or -1 for a missing value. */
@@ -31,7 +34,8 @@ export function paletteIndex(v: number, min: number, max: number, n: number): nu
 
 /** Fill `pixels` (one per lookup entry) with the colours of `values` (one per grid cell). */
 export function recolour(values: Float32Array, lookup: Int32Array, pixels: Uint32Array, style: RecolourStyle): void {
-  const { palette, min, max, missing, background } = style;
+  const { palette, min, max, missing, background, water } = style;
+  const noData = style.noData ?? missing;
   const n = palette.length;
   const scale = max > min ? n / (max - min) : 0;
   const mid = n >> 1;
@@ -40,7 +44,7 @@ export function recolour(values: Float32Array, lookup: Int32Array, pixels: Uint3
   for (let c = 0; c < values.length; c++) {
     const v = values[c];
     if (v !== v) {
-      cellColour[c] = missing;
+      cellColour[c] = water !== undefined && water[c] > 0 ? noData : missing;
       continue;
     }
     let k = scale === 0 ? mid : Math.floor((v - min) * scale);

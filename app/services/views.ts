@@ -544,6 +544,15 @@ export const viewsServices: ServiceEntry[] = [
     },
   }),
   entry({
+    name: 'view.region',
+    summary: "The cells of the common grid (j * nx + i) that belong to one of the session's regions.",
+    input: z.object({ session: z.string().min(1), region: z.string().min(1) }),
+    async run(input): Promise<{ region: string; cells: Int32Array }> {
+      const r = await regionNamed(sessionOf(input.session), input.region);
+      return { region: r.name, cells: Int32Array.from(r.cells) };
+    },
+  }),
+  entry({
     name: 'view.section',
     summary: 'A section along a meridian or a parallel, or the zonal mean of a region, with the seafloor.',
     input: z.object({

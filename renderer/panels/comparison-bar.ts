@@ -2,6 +2,8 @@
 import { PROJECTIONS, type ProjectionId } from '../../app/render/projections.js';
 import { h, select } from '../dom.js';
 import { VIEWS, choose, subscribe, type AppState, type ViewId } from '../state.js';
+import { keepFocus } from '../widgets/keep-focus.js';
+import { NOT_HERE, type BarControl } from './bar-applies.js';
 
 export function comparisonBar(el: HTMLElement, tabs: HTMLElement): void {
   el.classList.add('comparison-bar');
@@ -47,16 +49,26 @@ export function comparisonBar(el: HTMLElement, tabs: HTMLElement): void {
       return;
     }
     const variable = s.variables.find((v) => v.key === st.sel.variable);
-    el.replaceChildren(
-      select('Variable', s.variables.map((v) => ({ value: v.key, label: `${v.key} (${v.units})` })), st.sel.variable, (value) => {
+    const controls: [BarControl, HTMLLabelElement][] = [
+      ['variable', select('Variable', s.variables.map((v) => ({ value: v.key, label: `${v.key} (${v.units})` })), st.sel.variable, (value) => {
         const runs = s.variables.find((v) => v.key === value)?.runs ?? [];
         choose({ variable: value, run: runs.includes(st.sel.run) ? st.sel.run : (runs[0] ?? '') });
-      }, 'choose-variable'),
-      select('Run', (variable?.runs ?? []).map((r) => ({ value: r, label: r })), st.sel.run, (value) => choose({ run: value }), 'choose-run'),
-      select('Region', s.regions.map((r) => ({ value: r, label: r })), st.sel.region, (value) => choose({ region: value }), 'choose-region'),
-      select('Depth', s.layers.map((l) => ({ value: l.id, label: l.label })), st.sel.layer, (value) => choose({ layer: value }), 'choose-layer'),
-      select('Projection', PROJECTIONS.map((p) => ({ value: p.id, label: p.label })), st.sel.projection, (value) => choose({ projection: value as ProjectionId }), 'choose-projection'),
-    );
+      }, 'choose-variable')],
+      ['run', select('Run', (variable?.runs ?? []).map((r) => ({ value: r, label: r })), st.sel.run, (value) => choose({ run: value }), 'choose-run')],
+      ['region', select('Region', s.regions.map((r) => ({ value: r, label: r })), st.sel.region, (value) => choose({ region: value }), 'choose-region')],
+      ['layer', select('Depth', s.layers.map((l) => ({ value: l.id, label: l.label })), st.sel.layer, (value) => choose({ layer: value }), 'choose-layer')],
+      ['projection', select('Projection', PROJECTIONS.map((p) => ({ value: p.id, label: p.label })), st.sel.projection, (value) => choose({ projection: value as ProjectionId }), 'choose-projection')],
+    ];
+    const why = NOT_HERE[st.sel.view];
+    for (const [name, label] of controls) {
+      let reason = name === 'region' && st.sel.cropToRegion && (st.sel.view === 'map' || st.sel.view === 'difference') ? undefined : why[name];
+      if (name === 'region' && st.sel.view === 'section' && st.sel.sectionKind !== 'zonal') reason = 'Only the zonal-mean section uses the region.';
+      const control = label.querySelector('select')!;
+      control.disabled = !!reason;
+      label.classList.toggle('not-here', !!reason);
+      label.title = reason ?? '';
+    }
+    keepFocus(el, () => el.replaceChildren(...controls.map(([, label]) => label)));
   };
   subscribe((st, changed) => {
     if (changed.has('probe')) return;

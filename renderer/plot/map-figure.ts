@@ -6,7 +6,11 @@
 import type { ColourScale } from '../../app/render/colour-scales.js';
 import type { MapProjection } from '../../app/render/projections.js';
 import { s } from '../dom.js';
-import { colourBar, figureRoot, INK, title, type Rect } from './svg-parts.js';
+import { logTicks } from '../../app/render/colour-mapping.js';
+import { formatTick, niceTicks } from '../../app/render/colour-scales.js';
+import { contourSegments } from '../../app/render/contours.js';
+import type { ViewGrid } from '../../contract/view-types.js';
+import { colourBar, figureRoot, INK, title, type ColourBarOptions, type Rect } from './svg-parts.js';
 
 export interface MapFigureSpec {
   width: number;
@@ -21,6 +25,10 @@ export interface MapFigureSpec {
   units: string;
   caption: string;
   coast: Float64Array[];
+  /** logarithmic stretch and clip arrows of the colour bar */
+  bar?: ColourBarOptions;
+  /** labelled contour lines of these values at the colour bar's ticks */
+  contours?: { values: Float32Array; grid: ViewGrid } | null;
 }
 
 export interface MapFigure {
@@ -85,26 +93,65 @@ export function mapFigure(spec: MapFigureSpec): MapFigure {
   coast.append(s('path', { d }));
   svg.append(coast);
 
-  svg.append(s('path', { d: outlinePath(spec.projection, toFigure), fill: 'none', stroke: INK, 'stroke-width': 0.9 }));
+  svg.append(s('path', { d: outlinePath(spec.projection, toFigure), fill: 'none', stroke: INK, 'stroke-width': 0.9, 'clip-path': `url(#${clipId})` }));
+  if (spec.contours) svg.append(contourGroup(spec, toFigure, clipId));
+  const inPlot = (x: number, y: number): boolean => x >= plot.x - 0.5 && x <= plot.x + plot.w + 0.5 && y >= plot.y - 0.5 && y <= plot.y + plot.h + 0.5;
+  const lonLabel = (lon: number): string => (lon === 0 || Math.abs(lon) === 180 ? `${Math.abs(lon)}°` : `${Math.abs(lon)}°${lon < 0 ? 'W' : 'E'}`);
+  const latLabel = (lat: number): string => (lat === 0 ? '0°' : `${Math.abs(lat)}°${lat < 0 ? 'S' : 'N'}`);
+  const ticks = s('g', { 'font-size': 11, fill: INK, class: 'graticule-labels' });
+  const at = (lon: number, lat: number): [number, number] | null => {
+    const q = spec.projection.forward(lon, lat);
+    return q ? toFigure(q[0], q[1]) : null;
+  };
   if (plate) {
-    const ticks = s('g', { 'font-size': 11, fill: INK });
     for (let lon = -180; lon <= 180; lon += 60) {
-      const [x] = toFigure(spec.projection.forward(Math.max(-179.9999, Math.min(179.9999, lon)), 0)![0], 0);
-      ticks.append(s('line', { x1: x, x2: x, y1: plot.y + ph, y2: plot.y + ph + 4, stroke: INK }));
-      ticks.append(s('text', { x, y: plot.y + ph + 16, 'text-anchor': 'middle' }, lon === 0 ? '0°' : `${Math.abs(lon)}°${lon < 0 ? 'W' : 'E'}`));
+      const p = at(Math.max(-179.9999, Math.min(179.9999, lon)), 0);
+      if (!p || p[0] < plot.x - 0.5 || p[0] > plot.x + plot.w + 0.5) continue;
+      ticks.append(s('line', { x1: p[0], x2: p[0], y1: plot.y + ph, y2: plot.y + ph + 4, stroke: INK }));
+      ticks.append(s('text', { x: p[0], y: plot.y + ph + 16, 'text-anchor': 'middle' }, lon === 0 ? '0°' : lonLabel(lon)));
     }
     for (let lat = -90; lat <= 90; lat += 30) {
-      const [, y] = toFigure(0, spec.projection.forward(0, Math.max(-89.9999, Math.min(89.9999, lat)))![1]);
-      ticks.append(s('line', { x1: plot.x - 4, x2: plot.x, y1: y, y2: y, stroke: INK }));
-      ticks.append(s('text', { x: plot.x - 6, y: y + 4, 'text-anchor': 'end' }, lat === 0 ? '0°' : `${Math.abs(lat)}°${lat < 0 ? 'S' : 'N'}`));
+      const p = at(0, Math.max(-89.9999, Math.min(89.9999, lat)));
+      if (!p || p[1] < plot.y - 0.5 || p[1] > plot.y + ph + 0.5) continue;
+      ticks.append(s('line', { x1: plot.x - 4, x2: plot.x, y1: p[1], y2: p[1], stroke: INK }));
+      ticks.append(s('text', { x: plot.x - 6, y: p[1] + 4, 'text-anchor': 'end' }, latLabel(lat)));
     }
-    svg.append(ticks);
+  } else if (spec.projection.info.latitudeLimit === null) {
+    // world map: parallels labelled where they meet the left edge of the globe, meridians along the equator
+    for (let lat = -60; lat <= 60; lat += 30) {
+      const p = at(-179.9, lat);
+      if (p && inPlot(p[0], p[1])) ticks.append(s('text', { x: p[0] + 3, y: p[1] - 3, 'text-anchor': 'start', class: 'halo' }, latLabel(lat)));
+    }
+    for (let lon = -120; lon <= 120; lon += 60) {
+      const p = at(lon, 0);
+      if (p && inPlot(p[0], p[1])) ticks.append(s('text', { x: p[0] + 3, y: p[1] + 12, 'text-anchor': 'start', class: 'halo' }, lonLabel(lon)));
+    }
+  } else {
+    // polar map: parallels labelled along the 45° meridian, meridians inside the limit circle
+    const lim = spec.projection.info.latitudeLimit;
+    const sign = lim > 0 ? 1 : -1;
+    for (const l of [50, 60, 70, 80]) {
+      const p = at(45, sign * l);
+      if (p && inPlot(p[0], p[1])) ticks.append(s('text', { x: p[0] + 3, y: p[1] - 3, class: 'halo' }, latLabel(sign * l)));
+    }
+    for (let lon = -150; lon <= 180; lon += 30) {
+      const p = at(lon, lim + sign * 3);
+      if (p && inPlot(p[0], p[1])) ticks.append(s('text', { x: p[0], y: p[1] + 4, 'text-anchor': 'middle', class: 'halo' }, lonLabel(lon)));
+    }
   }
+  // white halos keep labels legible over the field
+  for (const tx of ticks.querySelectorAll('text.halo')) {
+    tx.setAttribute('paint-order', 'stroke');
+    tx.setAttribute('stroke', '#ffffff');
+    tx.setAttribute('stroke-width', '3');
+    tx.setAttribute('stroke-linejoin', 'round');
+  }
+  svg.append(ticks);
   const overlay = s('g', { class: 'overlay' });
   svg.append(overlay);
 
   const barH = Math.min(ph * 0.8, 300);
-  colourBar(svg, { x: plot.x + plot.w + 18, y: plot.y + (ph - barH) / 2, w: 14, h: barH }, spec.scale, spec.min, spec.max, spec.units, spec.caption);
+  colourBar(svg, { x: plot.x + plot.w + 18, y: plot.y + (ph - barH) / 2, w: 14, h: barH }, spec.scale, spec.min, spec.max, spec.units, spec.caption, spec.bar);
   return { svg, plot, overlay, toFigure };
 }
 
@@ -155,4 +202,38 @@ function pathOf(p: MapProjection, lines: [number, number][][], toFigure: (x: num
     }
   }
   return d;
+}
+
+/** Contour lines at the colour bar's ticks, each level labelled a few times along its length. */
+function contourGroup(spec: MapFigureSpec, toFigure: (x: number, y: number) => [number, number], clipId: string): SVGGElement {
+  const c = spec.contours!;
+  const log = !!spec.bar?.log;
+  const levels = log ? logTicks(spec.min, spec.max) : niceTicks(spec.min, spec.max, 6);
+  const values = log ? c.values.map((v) => (v > 0 ? Math.log10(v) : -Infinity)) : c.values;
+  const lines = contourSegments(values, c.grid.lonEdges, c.grid.latEdges, log ? levels.map(Math.log10) : levels);
+  const g = s('g', { class: 'contours', 'clip-path': `url(#${clipId})` });
+  const step = levels.length > 1 ? levels[1] - levels[0] : 1;
+  lines.forEach((line, li) => {
+    let d = '';
+    const seg = line.segments;
+    let labels = 0;
+    let lastLabel: [number, number] | null = null;
+    for (let k = 0; k < seg.length; k += 4) {
+      const a = spec.projection.forward(seg[k], seg[k + 1]);
+      const b = spec.projection.forward(seg[k + 2], seg[k + 3]);
+      if (!a || !b) continue;
+      const [ax, ay] = toFigure(a[0], a[1]);
+      const [bx, by] = toFigure(b[0], b[1]);
+      // a segment that jumps across the map (the antimeridian, a polar cut) is not drawn
+      if (Math.abs(bx - ax) > spec.width / 8) continue;
+      d += `M${ax.toFixed(1)},${ay.toFixed(1)}L${bx.toFixed(1)},${by.toFixed(1)}`;
+      if (labels < 6 && (!lastLabel || Math.hypot(ax - lastLabel[0], ay - lastLabel[1]) > 140)) {
+        lastLabel = [ax, ay];
+        labels++;
+        g.append(s('text', { x: ax, y: ay, 'font-size': 9.5, 'text-anchor': 'middle', 'dominant-baseline': 'middle', fill: INK, stroke: '#ffffff', 'stroke-width': 2.5, 'paint-order': 'stroke', class: 'contour-label' }, log ? formatTick(levels[li], levels[li] / 10) : formatTick(levels[li], step)));
+      }
+    }
+    g.prepend(s('path', { d, fill: 'none', stroke: '#1d2228', 'stroke-width': 0.7, 'stroke-opacity': 0.8 }));
+  });
+  return g;
 }

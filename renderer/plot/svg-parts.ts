@@ -4,6 +4,7 @@
  * looks the same outside the workbench.
  */
 import type { ColourScale } from '../../app/render/colour-scales.js';
+import { logTicks } from '../../app/render/colour-mapping.js';
 import { cssColour, formatTick, niceTicks } from '../../app/render/colour-scales.js';
 import { s } from '../dom.js';
 import type { Scale } from './scale.js';
@@ -105,8 +106,16 @@ export function leftAxis(g: SVGElement, r: Rect, sc: Scale, label: string, opts:
   g.append(text(cx, cy, label, { 'text-anchor': 'middle', 'font-size': 12, transform: `rotate(-90 ${cx} ${cy})` }));
 }
 
+export interface ColourBarOptions {
+  /** logarithmic stretch: min and max are the values (> 0), ticks at 1, 2, 5 × 10^k */
+  log?: boolean;
+  /** values lie below min / above max: an arrow at that end says they are drawn in the end colour */
+  below?: boolean;
+  above?: boolean;
+}
+
 /** A vertical colour bar in `r`, ticks and the units label to its right. */
-export function colourBar(g: SVGElement, r: Rect, scale: ColourScale, min: number, max: number, units: string, caption: string): void {
+export function colourBar(g: SVGElement, r: Rect, scale: ColourScale, min: number, max: number, units: string, caption: string, opts: ColourBarOptions = {}): void {
   const n = scale.packed.length;
   const id = `cb-${Math.random().toString(36).slice(2, 9)}`;
   const grad = s('linearGradient', { id, x1: 0, y1: 1, x2: 0, y2: 0 });
@@ -117,16 +126,28 @@ export function colourBar(g: SVGElement, r: Rect, scale: ColourScale, min: numbe
   }
   g.append(s('defs', {}, grad));
   g.append(s('rect', { x: r.x, y: r.y, width: r.w, height: r.h, fill: `url(#${id})`, stroke: INK, 'stroke-width': 0.75 }));
-  const ticks = niceTicks(min, max, 6);
+  // clip arrows: triangles in the end colours, beyond the bar's ends
+  const arrow = (top: boolean): void => {
+    const k = top ? n - 1 : 0;
+    const y0 = top ? r.y : r.y + r.h;
+    const tip = top ? y0 - r.w : y0 + r.w;
+    g.append(s('path', { d: `M${r.x},${y0}L${r.x + r.w / 2},${tip}L${r.x + r.w},${y0}Z`, fill: cssColour(scale, k), stroke: INK, 'stroke-width': 0.75, class: top ? 'clip-above' : 'clip-below' }));
+  };
+  if (opts.above) arrow(true);
+  if (opts.below) arrow(false);
+  const lmin = opts.log ? Math.log10(min) : min;
+  const lmax = opts.log ? Math.log10(max) : max;
+  const ticks = opts.log ? logTicks(min, max) : niceTicks(min, max, 6);
   const step = ticks.length > 1 ? ticks[1] - ticks[0] : 1;
   for (const t of ticks) {
-    const y = r.y + r.h - ((t - min) / (max - min)) * r.h;
+    const v = opts.log ? Math.log10(t) : t;
+    const y = r.y + r.h - ((v - lmin) / (lmax - lmin)) * r.h;
     g.append(s('line', { x1: r.x + r.w, x2: r.x + r.w + 4, y1: y, y2: y, stroke: INK }));
-    g.append(text(r.x + r.w + 7, y + 4, formatTick(t, step), { 'font-size': 11 }));
+    g.append(text(r.x + r.w + 7, y + 4, opts.log ? formatTick(t, t / 10) : formatTick(t, step), { 'font-size': 11 }));
   }
   const cx = r.x + r.w + 58;
   const cy = r.y + r.h / 2;
-  g.append(text(cx, cy, `${caption} (${units})`, { 'text-anchor': 'middle', 'font-size': 12, transform: `rotate(-90 ${cx} ${cy})` }));
+  g.append(text(cx, cy, `${caption} (${units})${opts.log ? ', log scale' : ''}`, { 'text-anchor': 'middle', 'font-size': 12, transform: `rotate(-90 ${cx} ${cy})` }));
 }
 
 export interface LegendItem {

@@ -3,14 +3,18 @@
  * lookup is built once per projection, grid and canvas size, so a change of depth, variable or range only
  * recolours.
  */
-import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
+import { clipped, log10Values, positiveRange } from '../../app/render/colour-mapping.js';
+import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange, type ColourScale } from '../../app/render/colour-scales.js';
+import { DIFF_SCALES, FIELD_SCALES, namedScale } from '../../app/render/named-scales.js';
 import { buildPixelLookup } from '../../app/render/pixel-lookup.js';
 import { makeProjection, type MapProjection, type ProjectionId } from '../../app/render/projections.js';
 import { packRgba, recolour } from '../../app/render/recolour.js';
 import type { LevelData, ViewGrid } from '../../contract/view-types.js';
 import { currentVariable, type AppState } from '../state.js';
 
-const MISSING = packRgba(200, 200, 196);
+/** land (no water in the common grid) and water without values: two greys a person can tell apart */
+export const LAND = packRgba(190, 188, 182);
+export const NO_DATA = packRgba(236, 236, 240);
 const BACKGROUND = packRgba(255, 255, 255, 0);
 
 const lookups = new Map<string, Int32Array>();
@@ -27,7 +31,8 @@ export function projectionOf(id: ProjectionId): MapProjection {
 
 /** The lookup for one projection × grid × canvas size, built once and kept (a few of them). */
 export function lookupFor(proj: MapProjection, grid: ViewGrid, w: number, h: number): Int32Array {
-  const key = `${proj.info.id}|${grid.nx}x${grid.ny}|${grid.lonEdges[0]}|${grid.latEdges[0]}|${w}x${h}`;
+  const e = proj.extent;
+  const key = `${proj.info.id}|${e.xmin},${e.xmax},${e.ymin},${e.ymax}|${grid.nx}x${grid.ny}|${grid.lonEdges[0]}|${grid.latEdges[0]}|${w}x${h}`;
   let lut = lookups.get(key);
   if (!lut) {
     lut = buildPixelLookup(proj, grid.lonEdges, grid.latEdges, w, h);
@@ -38,7 +43,9 @@ export function lookupFor(proj: MapProjection, grid: ViewGrid, w: number, h: num
 }
 
 export interface MapChoice {
+  /** the values shown, in their units */
   values: Float32Array;
+  /** range of the colour bar, in the values' units */
   min: number;
   max: number;
   diverging: boolean;
@@ -46,12 +53,21 @@ export interface MapChoice {
   title: string;
   subtitle: string;
   units: string;
+  /** the chosen scale (the default of its kind when absent) */
+  scale?: ColourScale;
+  /** logarithmic stretch */
+  log?: boolean;
+  /** values beyond the range (arrows on the colour bar) */
+  below?: boolean;
+  above?: boolean;
+  /** above zero where the cell has water (a value in the run or the reference), to tell no data from land */
+  water?: Float32Array;
 }
 
 /** Automatic ranges are worked out once per level that arrives. */
 const autoRanges = new WeakMap<LevelData, { field: [number, number] | null; diff: [number, number] | null }>();
 
-function autoRange(data: LevelData, difference: boolean): [number, number] | null {
+export function autoRange(data: LevelData, difference: boolean): [number, number] | null {
   let r = autoRanges.get(data);
   if (!r) {
     r = { field: null, diff: null };
@@ -61,39 +77,73 @@ function autoRange(data: LevelData, difference: boolean): [number, number] | nul
   return (r.field ??= quantileRange([data.model, data.reference]));
 }
 
-/** What the view shows for a level: which array, which range, which words. */
-export function mapChoice(st: AppState, data: LevelData, difference: boolean): MapChoice | null {
+/** One automatic range over the reference and every run's level (the range locked across runs). */
+export function sharedRange(levels: LevelData[], difference: boolean): [number, number] | null {
+  return difference ? symmetricRange(levels.map((d) => d.difference)) : quantileRange([levels[0]?.reference ?? new Float32Array(0), ...levels.map((d) => d.model)]);
+}
+
+/** log10 of a level's values, worked out once per array. */
+const logged = new WeakMap<Float32Array, Float32Array>();
+function logOf(values: Float32Array): Float32Array {
+  let l = logged.get(values);
+  if (!l) {
+    l = log10Values(values);
+    logged.set(values, l);
+  }
+  return l;
+}
+
+/**
+ * 1 where the run or the reference has a value: a missing value there is water without data (drawn apart from
+ * land, where both are missing).
+ */
+const presence = new WeakMap<LevelData, Float32Array>();
+function eitherPresent(data: LevelData): Float32Array {
+  let p = presence.get(data);
+  if (!p) {
+    p = new Float32Array(data.model.length);
+    for (let i = 0; i < p.length; i++) p[i] = data.model[i] === data.model[i] || data.reference[i] === data.reference[i] ? 1 : 0;
+    presence.set(data, p);
+  }
+  return p;
+}
+
+/** What the view shows for a level: which array, which range, which words, which colours. */
+export function mapChoice(st: AppState, data: LevelData, difference: boolean, locked: [number, number] | null = null): MapChoice | null {
   const session = st.session!;
   const v = currentVariable();
   const name = v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : data.variable;
-  const where = `${data.layer.label}; ${projectionOf(st.sel.projection).info.label}`;
-  if (difference) {
-    const r = st.sel.diffRange ?? autoRange(data, true);
-    if (!r) return null;
-    return {
-      values: data.difference,
-      min: r[0],
-      max: r[1],
-      diverging: true,
-      caption: `${data.variable} difference`,
-      title: `${name}: ${data.run} minus ${session.reference.label}`,
-      subtitle: where,
-      units: data.units,
-    };
-  }
-  const r = st.sel.fieldRange ?? autoRange(data, false);
+  const where = `${data.layer.label}; ${projectionOf(st.sel.projection).info.label}${st.sel.lockRange ? '; colour range shared by every run' : ''}`;
+  const values = difference ? data.difference : st.sel.mapField === 'model' ? data.model : data.reference;
+  let r = (difference ? st.sel.diffRange : st.sel.fieldRange) ?? (st.sel.lockRange ? locked : null) ?? autoRange(data, difference);
   if (!r) return null;
+  const log = !difference && st.sel.logColour;
+  if (log) {
+    r = positiveRange(r[0], r[1]);
+    if (!r) return null;
+  }
+  const clip = clipped(values, r[0], r[1]);
   const showModel = st.sel.mapField === 'model';
   return {
-    values: showModel ? data.model : data.reference,
+    values,
     min: r[0],
     max: r[1],
-    diverging: false,
-    caption: data.variable,
-    title: `${name}: ${showModel ? data.run : session.reference.label}`,
+    diverging: difference,
+    caption: difference ? `${data.variable} difference` : data.variable,
+    title: difference ? `${name}: ${data.run} minus ${session.reference.label}` : `${name}: ${showModel ? data.run : session.reference.label}`,
     subtitle: where,
     units: data.units,
+    scale: difference ? namedScale(DIFF_SCALES, st.sel.diffScale) : namedScale(FIELD_SCALES, st.sel.fieldScale),
+    log,
+    below: clip.below,
+    above: clip.above,
+    water: eitherPresent(data),
   };
+}
+
+/** The scale a choice is drawn in. */
+export function scaleOf(choice: MapChoice): ColourScale {
+  return choice.scale ?? (choice.diverging ? DIVERGING : SEQUENTIAL);
 }
 
 /** Colour one level into a canvas through the lookup. */
@@ -108,13 +158,14 @@ export function paint(canvas: HTMLCanvasElement, lut: Int32Array, choice: MapCho
     images.set(canvas, img);
   }
   const px = new Uint32Array(img.data.buffer);
-  recolour(choice.values, lut, px, {
-    palette: (choice.diverging ? DIVERGING : SEQUENTIAL).packed,
-    min: choice.min,
-    max: choice.max,
-    missing: MISSING,
+  recolour(choice.log ? logOf(choice.values) : choice.values, lut, px, {
+    palette: scaleOf(choice).packed,
+    min: choice.log ? Math.log10(choice.min) : choice.min,
+    max: choice.log ? Math.log10(choice.max) : choice.max,
+    missing: LAND,
     background: BACKGROUND,
+    water: choice.water,
+    noData: NO_DATA,
   });
   ctx.putImageData(img, 0, 0);
 }
-

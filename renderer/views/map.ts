@@ -1,31 +1,82 @@
 /**
  * Map and Difference views: one level (or layer, or the bottom) of the chosen variable on the chosen
- * projection. The pixel-to-cell lookup is built once per projection, grid and canvas size; a change of
- * depth, variable or range only recolours.
+ * projection, composed of the toolbar (map-toolbar.ts), the raster (map-paint.ts), the frame with coastlines
+ * and colour bar (plot/map-figure.ts), the probe, zoom and pan, and, on the Map view, station observations.
+ * The pixel lookup is built once per projection, window, grid and canvas size; other changes only recolour.
  */
-import { DIVERGING, SEQUENTIAL } from '../../app/render/colour-scales.js';
+import { windowed, zoomWindow, panWindow } from '../../app/render/map-window.js';
 import { buildPixelLookup, canvasHeightFor, cellAt, pixelToProjected } from '../../app/render/pixel-lookup.js';
+import type { MapProjection } from '../../app/render/projections.js';
+import { regionSkill } from '../../app/render/region-skill.js';
 import type { LevelData } from '../../contract/view-types.js';
-import { getLevel } from '../data.js';
-import { h, s } from '../dom.js';
+import { getLevel, getRegionCells } from '../data.js';
+import { fmt, h, s } from '../dom.js';
 import { coastlines, coastlinesIfReady } from '../plot/coast.js';
 import { mapFigure, mapPlotRect, type MapFigure } from '../plot/map-figure.js';
-import { choose, setProbe, state, type AppState } from '../state.js';
-import { lookupFor, mapChoice, paint, projectionOf } from './map-paint.js';
-import { buttonGroup } from '../widgets/button-group.js';
+import { choose, commitPreview, preview, setProbe, state, type AppState } from '../state.js';
 import { figureFrame } from '../widgets/figure-frame.js';
-import { EXPORT_WIDTH, errorText, note, type ViewFactory, type ViewHandle } from './view.js';
+import { lookupFor, mapChoice, paint, projectionOf, scaleOf, sharedRange, type MapChoice } from './map-paint.js';
+import { mapToolbar } from './map-toolbar.js';
 import { stationsOverlay } from './stations.js';
+import { EXPORT_WIDTH, errorText, type ViewFactory, type ViewHandle } from './view.js';
 
 let firstDrawMarked = false;
+
+/** The level's values outside the region become missing (and not water), so that the crop shows as land. */
+function cropped(choice: MapChoice, cells: Int32Array | null): MapChoice {
+  if (!cells) return choice;
+  const values = new Float32Array(choice.values.length).fill(NaN);
+  const water = new Float32Array(choice.values.length);
+  for (const c of cells) {
+    values[c] = choice.values[c];
+    water[c] = choice.water ? choice.water[c] : 1;
+  }
+  return { ...choice, values, water };
+}
+
+/** The window that shows a region's cells whole, with the projection's aspect ratio. */
+function regionWindow(proj: MapProjection, st: AppState, cells: Int32Array): MapProjection['extent'] | null {
+  const g = st.session!.grid;
+  let xmin = Infinity;
+  let xmax = -Infinity;
+  let ymin = Infinity;
+  let ymax = -Infinity;
+  for (const c of cells) {
+    const i = c % g.nx;
+    const j = (c - i) / g.nx;
+    const q = proj.forward(0.5 * (g.lonEdges[i] + g.lonEdges[i + 1]), 0.5 * (g.latEdges[j] + g.latEdges[j + 1]));
+    if (!q) continue;
+    xmin = Math.min(xmin, q[0]);
+    xmax = Math.max(xmax, q[0]);
+    ymin = Math.min(ymin, q[1]);
+    ymax = Math.max(ymax, q[1]);
+  }
+  if (!(xmax > xmin && ymax > ymin)) return null;
+  const full = proj.extent;
+  const zoom = Math.min((full.xmax - full.xmin) / ((xmax - xmin) * 1.1), (full.ymax - full.ymin) / ((ymax - ymin) * 1.1));
+  if (zoom <= 1.05) return null;
+  return recentre(full, Math.min(zoom, 64), (xmin + xmax) / 2, (ymin + ymax) / 2);
+}
+
+function recentre(full: MapProjection['extent'], zoom: number, cx: number, cy: number): MapProjection['extent'] | null {
+  const w = (full.xmax - full.xmin) / zoom;
+  const hgt = (full.ymax - full.ymin) / zoom;
+  const win = { xmin: cx - w / 2, xmax: cx + w / 2, ymin: cy - hgt / 2, ymax: cy + hgt / 2 };
+  return panWindow(full, win, 0, 0);
+}
 
 export function mapView(difference: boolean): ViewFactory {
   return (el: HTMLElement): ViewHandle => {
     el.classList.add('map-view');
     const frame = figureFrame(el, { label: 'Map options' });
     const { toolbar, stage } = frame;
+    const regionStats = h('div', { class: 'region-stats', id: 'region-stats', role: 'status', hidden: true });
+    el.append(regionStats);
 
     let data: LevelData | null = null;
+    let locked: [number, number] | null = null;
+    let lockedKey = '';
+    let cells: Int32Array | null = null;
     let fig: MapFigure | null = null;
     let figKey = '';
     let canvas: HTMLCanvasElement | null = null;
@@ -35,26 +86,17 @@ export function mapView(difference: boolean): ViewFactory {
     // station observations on the field's colour scale (lines and points part); not on the difference map
     const stations = difference ? null : stationsOverlay(() => void draw(state, new Set(['stations'])));
 
-    // toolbar: which field (Map view only), colour range
-    const fieldGroup = difference
-      ? null
-      : buttonGroup({ label: 'Field shown', options: [['model', 'Run'], ['reference', 'Reference']] as const, value: state.sel.mapField, onPick: (v) => choose({ mapField: v }) });
-    if (fieldGroup) toolbar.append(fieldGroup.el);
-    const minIn = h('input', { type: 'number', step: 'any', 'aria-label': 'Colour range minimum', class: 'range-input' });
-    const maxIn = h('input', { type: 'number', step: 'any', 'aria-label': 'Colour range maximum', class: 'range-input' });
-    const applyRange = (): void => {
-      const a = Number(minIn.value);
-      const b = Number(maxIn.value);
-      if (minIn.value === '' || maxIn.value === '' || !(b > a)) return;
-      choose(difference ? { diffRange: [a, b] } : { fieldRange: [a, b] });
+    const shownProjection = (st: AppState): MapProjection => windowed(projectionOf(st.sel.projection), st.sel.mapWindow);
+
+    /** Zoom by a factor about a projected point (the window's centre by default); null: the whole map. */
+    const zoom = (factor: number | null, at?: [number, number]): void => {
+      if (factor === null) return choose({ mapWindow: null });
+      const full = projectionOf(state.sel.projection).extent;
+      const cur = state.sel.mapWindow ?? full;
+      const [cx, cy] = at ?? [(cur.xmin + cur.xmax) / 2, (cur.ymin + cur.ymax) / 2];
+      choose({ mapWindow: zoomWindow(full, state.sel.mapWindow, factor, cx, cy) });
     };
-    minIn.addEventListener('change', applyRange);
-    maxIn.addEventListener('change', applyRange);
-    const auto = h('button', { type: 'button', title: 'Range from the 2nd to the 98th percentile of this level' }, 'Auto range');
-    auto.addEventListener('click', () => choose(difference ? { diffRange: null } : { fieldRange: null }));
-    toolbar.append(h('span', { class: 'toolbar-label' }, 'Colour range'), minIn, h('span', { class: 'toolbar-sep' }, 'to'), maxIn, auto);
-    const hint = h('span', { class: 'toolbar-hint' }, 'Move over the map to probe; click to pin.');
-    toolbar.append(hint);
+    const bar = mapToolbar(toolbar, difference, state, (f) => zoom(f));
     if (stations) toolbar.append(stations.control);
 
     const drawProbe = (): void => {
@@ -65,6 +107,7 @@ export function mapView(difference: boolean): ViewFactory {
       const q = projectionOf(state.sel.projection).forward(p.lon, p.lat);
       if (!q) return;
       const [x, y] = fig.toFigure(q[0], q[1]);
+      if (x < fig.plot.x || x > fig.plot.x + fig.plot.w || y < fig.plot.y || y > fig.plot.y + fig.plot.h) return;
       const col = p.pinned ? '#c0392b' : '#111111';
       probeMark.append(
         s('circle', { cx: x, cy: y, r: 6, fill: 'none', stroke: '#ffffff', 'stroke-width': 3 }),
@@ -74,60 +117,152 @@ export function mapView(difference: boolean): ViewFactory {
       );
     };
 
-    const onPointer = (ev: MouseEvent, click: boolean): void => {
-      if (!canvas || !fig) return;
-      if (!click && state.probe?.pinned) return;
+    /** Projected metres under a pointer position. */
+    const projectedAt = (ev: MouseEvent): [number, number] | null => {
+      if (!canvas) return null;
       const r = canvas.getBoundingClientRect();
-      const proj = projectionOf(state.sel.projection);
-      const [x, y] = pixelToProjected(proj, r.width, r.height, ev.clientX - r.left - 0.5, ev.clientY - r.top - 0.5);
-      const ll = proj.inverse(x, y);
+      return pixelToProjected(shownProjection(state), r.width, r.height, ev.clientX - r.left - 0.5, ev.clientY - r.top - 0.5);
+    };
+
+    const onPointer = (ev: MouseEvent, click: boolean): void => {
+      if (!click && state.probe?.pinned) return;
+      const xy = projectedAt(ev);
+      const ll = xy && projectionOf(state.sel.projection).inverse(xy[0], xy[1]);
       if (!ll) return;
-      const pinned = click ? !state.probe?.pinned : false;
-      setProbe({ lon: ll[0], lat: ll[1], pinned });
+      setProbe({ lon: ll[0], lat: ll[1], pinned: click ? !state.probe?.pinned : false });
+    };
+
+    /** Arrow keys move the probe one cell of the common grid; Enter pins it; + and − zoom; 0 shows the whole map. */
+    const onKey = (ev: KeyboardEvent): void => {
+      const g = state.session?.grid;
+      if (!g) return;
+      const steps: Record<string, [number, number]> = { ArrowLeft: [-1, 0], ArrowRight: [1, 0], ArrowUp: [0, 1], ArrowDown: [0, -1] };
+      const step = steps[ev.key];
+      if (step) {
+        ev.preventDefault();
+        const p = state.probe ?? { lon: 0.5 * (g.lonEdges[0] + g.lonEdges[g.nx]), lat: 0 };
+        const i = Math.max(0, Math.min(g.nx - 1, cellIndex(g.lonEdges, p.lon) + step[0]));
+        const j = Math.max(0, Math.min(g.ny - 1, cellIndex(g.latEdges, p.lat) + step[1]));
+        setProbe({ lon: 0.5 * (g.lonEdges[i] + g.lonEdges[i + 1]), lat: 0.5 * (g.latEdges[j] + g.latEdges[j + 1]), pinned: true });
+      } else if (ev.key === 'Enter' || ev.key === ' ') {
+        ev.preventDefault();
+        if (state.probe) setProbe({ ...state.probe, pinned: !state.probe.pinned });
+      } else if (ev.key === '+' || ev.key === '=') zoom(2);
+      else if (ev.key === '-') zoom(0.5);
+      else if (ev.key === '0') zoom(null);
+    };
+
+    // drag to pan: the window follows the pointer; one step of undo for the whole drag
+    let drag: { x: number; y: number; moved: boolean } | null = null;
+    const onDown = (ev: MouseEvent): void => {
+      if (ev.button !== 0) return;
+      drag = { x: ev.clientX, y: ev.clientY, moved: false };
+    };
+    const onMove = (ev: MouseEvent): void => {
+      if (!drag || !canvas) return onPointer(ev, false);
+      const dxPx = ev.clientX - drag.x;
+      const dyPx = ev.clientY - drag.y;
+      if (!drag.moved && Math.hypot(dxPx, dyPx) < 4) return;
+      drag.moved = true;
+      const win = state.sel.mapWindow;
+      if (!win) return;
+      const r = canvas.getBoundingClientRect();
+      const dx = (-dxPx * (win.xmax - win.xmin)) / r.width;
+      const dy = (dyPx * (win.ymax - win.ymin)) / r.height;
+      drag.x = ev.clientX;
+      drag.y = ev.clientY;
+      preview({ mapWindow: panWindow(projectionOf(state.sel.projection).extent, win, dx, dy) });
+    };
+    const onUp = (ev: MouseEvent): void => {
+      const d = drag;
+      drag = null;
+      if (!d) return;
+      if (d.moved) commitPreview();
+      else onPointer(ev, true);
+    };
+    const onWheel = (ev: WheelEvent): void => {
+      ev.preventDefault();
+      const xy = projectedAt(ev);
+      if (xy) zoom(ev.deltaY < 0 ? 1.5 : 1 / 1.5, xy);
+    };
+
+    const showRegionStats = (st: AppState, d: LevelData): void => {
+      if (!difference || !st.sel.cropToRegion || !cells || !st.session) {
+        regionStats.hidden = true;
+        return;
+      }
+      const k = regionSkill(d.model, d.reference, st.session.grid.area, d.thickness, cells);
+      regionStats.hidden = false;
+      regionStats.replaceChildren(
+        h('strong', {}, `${st.sel.region}, ${d.layer.label}: `),
+        h('span', { 'data-stat': 'bias' }, `bias ${fmt(k.bias)} ${d.units}`),
+        ' · ',
+        h('span', { 'data-stat': 'rmse' }, `RMSE ${fmt(k.rmse)} ${d.units}`),
+        ' · ',
+        h('span', { 'data-stat': 'corr' }, `r ${fmt(k.corr, 3)}`),
+        h('span', { class: 'muted' }, ` (${k.n} cells, weighted by cell volume, as the skill rows)`),
+      );
     };
 
     const draw = async (st: AppState, changed: Set<string>): Promise<void> => {
       const session = st.session;
       if (!session || !st.sel.variable || !st.sel.run) {
-        note(stage, 'Open a recipe to see its fields.');
+        frame.say('Open a recipe to see its fields.');
         return;
       }
-      fieldGroup?.set(st.sel.mapField);
       const my = ++token;
-      const needData = !data || changed.has('session') || changed.has('variable') || changed.has('run') || changed.has('layer') || data.variable !== st.sel.variable || data.run !== st.sel.run || data.layer.id !== st.sel.layer;
+      const needData = !data || changed.has('session') || data.variable !== st.sel.variable || data.run !== st.sel.run || data.layer.id !== st.sel.layer;
       const width = Math.max(360, Math.floor(stage.clientWidth || el.clientWidth || 900));
       const maxHeight = Math.max(260, Math.floor(stage.clientHeight || 600));
       const dpr = Math.min(2, window.devicePixelRatio || 1);
-      const proj = projectionOf(st.sel.projection);
+      const proj = shownProjection(st);
       const canvasWidth = Math.round(mapPlotRect(proj, width, maxHeight).w * dpr);
-      if (needData) {
-        if (!fig) note(stage, 'Loading the field…', 'busy');
-        const pending = getLevel(session.session, st.sel.variable, st.sel.run, st.sel.layer);
-        // while the server reads the level, build the pixel lookup this drawing will need
-        lookupFor(proj, session.grid, canvasWidth, canvasHeightFor(proj, canvasWidth));
-        try {
+      try {
+        if (needData) {
+          if (!fig) frame.say('Loading the field…', 'busy');
+          const pending = getLevel(session.session, st.sel.variable, st.sel.run, st.sel.layer);
+          // while the server reads the level, build the pixel lookup this drawing will need
+          lookupFor(proj, session.grid, canvasWidth, canvasHeightFor(proj, canvasWidth));
           const d = await pending;
           if (my !== token) return;
           data = d;
-        } catch (e) {
-          if (my !== token) return;
-          fig = null;
-          figKey = '';
-          note(stage, errorText(e), 'error');
-          return;
         }
-      }
-      if (!data) return;
-      const choice = mapChoice(st, data, difference);
-      if (!choice) {
+        const key = `${session.session}|${st.sel.variable}|${st.sel.layer}`;
+        if (st.sel.lockRange && lockedKey !== key) {
+          const variable = session.variables.find((v) => v.key === st.sel.variable);
+          const all = await Promise.all((variable?.runs ?? [st.sel.run]).map((run) => getLevel(session.session, st.sel.variable, run, st.sel.layer)));
+          if (my !== token) return;
+          locked = sharedRange(all, difference);
+          lockedKey = key;
+        }
+        cells = st.sel.cropToRegion ? (await getRegionCells(session.session, st.sel.region)).cells : null;
+        if (my !== token) return;
+        if (cells && (changed.has('cropToRegion') || changed.has('region'))) {
+          const win = regionWindow(projectionOf(st.sel.projection), st, cells);
+          if (JSON.stringify(win) !== JSON.stringify(st.sel.mapWindow)) {
+            preview({ mapWindow: win });
+            commitPreview();
+            return;
+          }
+        }
+      } catch (e) {
+        if (my !== token) return;
         fig = null;
         figKey = '';
-        note(stage, `There are no values of ${data.variable} on ${data.layer.label}.`);
+        frame.say(errorText(e), 'error');
         return;
       }
-      minIn.value = String(Number(choice.min.toPrecision(4)));
-      maxIn.value = String(Number(choice.max.toPrecision(4)));
-
+      if (!data) return;
+      const base = mapChoice(st, data, difference, locked);
+      bar.show(st, base);
+      if (!base) {
+        fig = null;
+        figKey = '';
+        frame.say(`There are no values of ${data.variable} on ${data.layer.label}.`);
+        return;
+      }
+      const choice = cropped(base, cells);
+      performance.mark('map-redraw-start');
       // the field first; the coastlines join when they are loaded (a redraw, with the same canvas)
       let coast = coastlinesIfReady(proj.info.id);
       if (!coast) {
@@ -138,16 +273,25 @@ export function mapView(difference: boolean): ViewFactory {
           })
           .catch(() => undefined);
       }
-      const key = JSON.stringify([proj.info.id, width, maxHeight, choice.min, choice.max, choice.units, choice.title, choice.subtitle, choice.caption, coast.length]);
+      const contourOf = st.sel.contours ? { values: choice.values, grid: session.grid } : null;
+      const figSpec = { width, maxHeight, projection: proj, title: choice.title, subtitle: choice.subtitle, scale: scaleOf(choice), min: choice.min, max: choice.max, units: choice.units, caption: choice.caption, coast, bar: { log: choice.log, below: choice.below, above: choice.above }, contours: contourOf };
+      const key = JSON.stringify([proj.info.id, proj.extent, width, maxHeight, choice.min, choice.max, choice.units, choice.title, choice.subtitle, choice.caption, coast.length, figSpec.bar, scaleOf(choice).name, st.sel.contours ? `${data.variable}|${data.run}|${data.layer.id}|${st.sel.mapField}|${!!cells}` : '']);
       if (key !== figKey) {
-        fig = mapFigure({ width, maxHeight, projection: proj, title: choice.title, subtitle: choice.subtitle, scale: choice.diverging ? DIVERGING : SEQUENTIAL, min: choice.min, max: choice.max, units: choice.units, caption: choice.caption, coast });
+        fig = mapFigure(figSpec);
         figKey = key;
         const cw = canvasWidth;
         const ch = canvasHeightFor(proj, cw);
         if (!canvas || canvas.width !== cw || canvas.height !== ch) {
-          canvas = h('canvas', { class: 'map-canvas', width: cw, height: ch, 'aria-label': 'Map raster; move the pointer to probe values' });
-          canvas.addEventListener('mousemove', (ev) => onPointer(ev, false));
-          canvas.addEventListener('click', (ev) => onPointer(ev, true));
+          canvas = h('canvas', { class: 'map-canvas', width: cw, height: ch, tabindex: 0, role: 'application', 'aria-label': 'Map: arrow keys move the probe one grid cell, Enter pins it, + and − zoom, 0 shows the whole map' });
+          canvas.addEventListener('mousedown', onDown);
+          canvas.addEventListener('mousemove', onMove);
+          canvas.addEventListener('mouseup', onUp);
+          canvas.addEventListener('mouseleave', () => {
+            if (drag?.moved) commitPreview();
+            drag = null;
+          });
+          canvas.addEventListener('wheel', onWheel, { passive: false });
+          canvas.addEventListener('keydown', onKey);
         }
         canvas.style.left = `${fig.plot.x}px`;
         canvas.style.top = `${fig.plot.y}px`;
@@ -159,8 +303,10 @@ export function mapView(difference: boolean): ViewFactory {
         fig.overlay.append(stationsMark, probeMark);
         // the SVG lies above the canvas but lets the pointer through to it
         fig.svg.style.pointerEvents = 'none';
+        const hadFocus = document.activeElement === canvas;
         const wrap = h('div', { class: 'figure-wrap', style: `width:${width}px;height:${fig.svg.getAttribute('height')}px` }, canvas, fig.svg);
         stage.replaceChildren(wrap);
+        if (hadFocus) canvas.focus();
       }
       if (!canvas) return;
       const lut = lookupFor(proj, session.grid, canvas.width, canvas.height);
@@ -168,15 +314,20 @@ export function mapView(difference: boolean): ViewFactory {
       paint(canvas, lut, choice);
       performance.mark('map-recolour-end');
       performance.measure('map-recolour', 'map-recolour-start', 'map-recolour-end');
+      performance.measure('map-redraw', 'map-redraw-start', 'map-recolour-end');
       if (!firstDrawMarked) {
         firstDrawMarked = true;
         performance.mark('map-first-draw');
       }
+      const w = st.sel.mapWindow;
       stage.dataset.drawn = `${data.variable}|${data.run}|${data.layer.id}|${st.sel.projection}|${difference ? 'diff' : st.sel.mapField}`;
+      stage.dataset.look = `${scaleOf(choice).name}|${choice.log ? 'log' : 'linear'}|${w ? [w.xmin, w.xmax, w.ymin, w.ymax].map((v) => Math.round(v)).join(',') : 'whole'}|${cells ? st.sel.region : 'all'}|${st.sel.contours ? 'contours' : ''}`;
+      showRegionStats(st, data);
       if (stations && stationsMark && fig) {
         const f = fig;
+        const full = projectionOf(st.sel.projection);
         const d = data;
-        const grid = st.session!.grid;
+        const grid = session.grid;
         // the seafloor under a station: the bottom edge of the deepest cell of the map's bottom layer there
         const floorAt = (lon: number, lat: number): { floor: number; deepestTop: number } => {
           const c = cellAt(grid.lonEdges, grid.latEdges, lon, lat);
@@ -184,9 +335,9 @@ export function mapView(difference: boolean): ViewFactory {
           return k >= 0 ? { floor: grid.depthEdges[k + 1], deepestTop: grid.depthEdges[k] } : { floor: NaN, deepestTop: NaN };
         };
         stations.draw(stationsMark, st, (lon, lat) => {
-          const q = proj.forward(lon, lat);
+          const q = full.forward(lon, lat);
           return q ? f.toFigure(q[0], q[1]) : null;
-        }, choice.diverging ? DIVERGING : SEQUENTIAL, choice.min, choice.max, d.layer, floorAt);
+        }, scaleOf(choice), choice.min, choice.max, d.layer, floorAt);
       }
       drawProbe();
     };
@@ -202,11 +353,12 @@ export function mapView(difference: boolean): ViewFactory {
       },
       async figure() {
         if (!data || !state.session) return null;
-        const choice = mapChoice(state, data, difference);
-        if (!choice) return null;
-        const proj = projectionOf(state.sel.projection);
+        const base = mapChoice(state, data, difference, locked);
+        if (!base) return null;
+        const choice = cropped(base, cells);
+        const proj = shownProjection(state);
         const coast = await coastlines(proj.info.id, 'print').catch(() => [] as Float64Array[]);
-        const f = mapFigure({ width: EXPORT_WIDTH, projection: proj, title: choice.title, subtitle: choice.subtitle, scale: choice.diverging ? DIVERGING : SEQUENTIAL, min: choice.min, max: choice.max, units: choice.units, caption: choice.caption, coast });
+        const f = mapFigure({ width: EXPORT_WIDTH, projection: proj, title: choice.title, subtitle: choice.subtitle, scale: scaleOf(choice), min: choice.min, max: choice.max, units: choice.units, caption: choice.caption, coast, bar: { log: choice.log, below: choice.below, above: choice.above }, contours: state.sel.contours ? { values: choice.values, grid: state.session.grid } : null });
         // the raster at print resolution: 300 dpi over the plot's width (1 unit = 0.25 mm)
         const cw = Math.round((f.plot.w * 0.25 * 300) / 25.4);
         const ch = canvasHeightFor(proj, cw);
@@ -225,4 +377,18 @@ export function mapView(difference: boolean): ViewFactory {
       },
     };
   };
+}
+
+/** Index of the cell of increasing edges that holds v, clamped to the grid. */
+function cellIndex(edges: Float64Array, v: number): number {
+  let lo = 0;
+  let hi = edges.length - 1;
+  if (v <= edges[0]) return 0;
+  if (v >= edges[hi]) return hi - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (edges[mid] <= v) lo = mid;
+    else hi = mid;
+  }
+  return lo;
 }
