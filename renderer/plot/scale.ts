@@ -37,3 +37,20 @@ export function padded(min: number, max: number, frac = 0.05): [number, number] 
   const d = (max - min) * frac;
   return [min - d, max + d];
 }
+
+/**
+ * A depth axis stretched over the upper ocean: the top `split` metres take half the height, the rest of the
+ * column the other half (each part linear), with ticks chosen per part.
+ */
+export function stretchedDepth(depthMax: number, range: [number, number], split = 1000): Scale {
+  const [r0, r1] = range;
+  if (!(depthMax > split * 1.5)) return linear([0, depthMax], range);
+  const mid = r0 + (r1 - r0) / 2;
+  const f = ((v: number) => (v <= split ? r0 + (v / split) * (mid - r0) : mid + ((v - split) / (depthMax - split)) * (r1 - mid))) as Scale;
+  f.domain = [0, depthMax];
+  f.range = range;
+  f.ticks = () => [...niceTicks(0, split, 4), ...niceTicks(split, depthMax, 4).filter((t) => t > split * 1.2)];
+  f.tickText = (v) => formatTick(v, 100);
+  f.invert = (p) => (p <= mid ? ((p - r0) / (mid - r0)) * split : split + ((p - mid) / (r1 - mid)) * (depthMax - split));
+  return f;
+}

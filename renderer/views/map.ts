@@ -71,7 +71,7 @@ export function mapView(difference: boolean): ViewFactory {
     const frame = figureFrame(el, { label: 'Map options' });
     const { toolbar, stage } = frame;
     const regionStats = h('div', { class: 'region-stats', id: 'region-stats', role: 'status', hidden: true });
-    el.append(regionStats);
+    toolbar.after(regionStats);
 
     let data: LevelData | null = null;
     let locked: [number, number] | null = null;
@@ -199,7 +199,7 @@ export function mapView(difference: boolean): ViewFactory {
         ' · ',
         h('span', { 'data-stat': 'rmse' }, `RMSE ${fmt(k.rmse)} ${d.units}`),
         ' · ',
-        h('span', { 'data-stat': 'corr' }, `r ${fmt(k.corr, 3)}`),
+        h('span', { 'data-stat': 'corr' }, `r ${k.corr === null ? '–' : k.corr.toFixed(3)}`),
         h('span', { class: 'muted' }, ` (${k.n} cells, weighted by cell volume, as the skill rows)`),
       );
     };

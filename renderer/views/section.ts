@@ -9,6 +9,8 @@ import { h } from '../dom.js';
 import { latText, lonText, sectionFigure } from '../plot/section-figure.js';
 import { choose, currentVariable, state, type AppState, type Selection } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';
+import { accept, readNumber, refuse } from '../widgets/field-check.js';
+import { keepFocus } from '../widgets/keep-focus.js';
 import { figureFrame } from '../widgets/figure-frame.js';
 import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
 
@@ -17,7 +19,30 @@ interface Built {
   spec: Omit<Parameters<typeof sectionFigure>[0], 'width' | 'height'>;
 }
 
-function describe(st: AppState, data: SectionData): Built['spec'] | null {
+/** A zonal mean over a basin spans only the basin's latitudes: samples without water at either end are left out. */
+function withWater(data: SectionData): SectionData {
+  const n = data.edges.length - 1;
+  const nz = data.depthEdges.length - 1;
+  let first = n;
+  let last = -1;
+  for (let q = 0; q < n; q++) {
+    if (Number.isFinite(data.seafloor[q])) {
+      first = Math.min(first, q);
+      last = q;
+    }
+  }
+  if (data.kind !== 'zonal' || last < first || (first === 0 && last === n - 1)) return data;
+  const m = last - first + 1;
+  const cut = (a: Float32Array): Float32Array => {
+    const out = new Float32Array(nz * m);
+    for (let k = 0; k < nz; k++) out.set(a.subarray(k * n + first, k * n + last + 1), k * m);
+    return out;
+  };
+  return { ...data, edges: data.edges.slice(first, last + 2), model: cut(data.model), reference: cut(data.reference), difference: cut(data.difference), seafloor: data.seafloor.slice(first, last + 1) };
+}
+
+function describe(st: AppState, whole: SectionData): Built['spec'] | null {
+  const data = withWater(whole);
   const field = st.sel.sectionField;
   const values = field === 'model' ? data.model : field === 'reference' ? data.reference : data.difference;
   const range = field === 'difference' ? symmetricRange([data.difference]) : quantileRange([data.model, data.reference]);
@@ -61,8 +86,11 @@ export const sectionView: ViewFactory = (el) => {
   const drawToolbar = (sel: Selection): void => {
     const at = h('input', { type: 'number', step: 'any', id: 'section-at', value: String(sel.sectionAt), 'aria-label': sel.sectionKind === 'parallel' ? 'Latitude of the section (degrees north)' : 'Longitude of the section (degrees east)' });
     at.addEventListener('change', () => {
-      const v = Number(at.value);
-      if (at.value !== '' && Number.isFinite(v)) choose({ sectionAt: v });
+      // a longitude beyond one turn, or a latitude beyond a pole, is a typing slip: refused, not wrapped
+      const v = sel.sectionKind === 'parallel' ? readNumber(at, 'The latitude of the section', { min: -90, max: 90 }) : readNumber(at, 'The longitude of the section', { min: -180, max: 360 });
+      if (typeof v === 'string') return refuse(at, v);
+      accept(at);
+      choose({ sectionAt: v });
     });
     const depth = h('select', { 'aria-label': 'Depth range', id: 'section-depth' });
     for (const [v, label] of [
@@ -76,18 +104,21 @@ export const sectionView: ViewFactory = (el) => {
       depth.append(o);
     }
     depth.addEventListener('change', () => choose({ sectionDepth: depth.value === '' ? null : Number(depth.value) }));
-    toolbar.replaceChildren(
-      buttonGroup({
-        label: 'Section kind',
-        options: [['meridian', 'Meridian'], ['parallel', 'Parallel'], ['zonal', 'Zonal mean']] as const,
-        value: sel.sectionKind,
-        onPick: (v) => choose({ sectionKind: v, sectionAt: v === 'parallel' ? (sel.sectionKind === 'parallel' ? sel.sectionAt : 0) : sel.sectionKind === 'meridian' ? sel.sectionAt : -25 }),
-      }).el,
-      sel.sectionKind === 'zonal'
-        ? h('span', { class: 'toolbar-label' }, `region: ${sel.region} (choose above)`)
-        : h('label', { class: 'toolbar-label' }, sel.sectionKind === 'meridian' ? 'Longitude (°E) ' : 'Latitude (°N) ', at),
-      buttonGroup({ label: 'Field shown', options: [['model', 'Run'], ['reference', 'Reference'], ['difference', 'Difference']] as const, value: sel.sectionField, onPick: (v) => choose({ sectionField: v }) }).el,
-      depth,
+    keepFocus(toolbar, () =>
+      toolbar.replaceChildren(
+        buttonGroup({
+          label: 'Section kind',
+          id: 'section-kind',
+          options: [['meridian', 'Meridian'], ['parallel', 'Parallel'], ['zonal', 'Zonal mean']] as const,
+          value: sel.sectionKind,
+          onPick: (v) => choose({ sectionKind: v, sectionAt: v === 'parallel' ? (sel.sectionKind === 'parallel' ? sel.sectionAt : 0) : sel.sectionKind === 'meridian' ? sel.sectionAt : -25 }),
+        }).el,
+        sel.sectionKind === 'zonal'
+          ? h('span', { class: 'toolbar-label' }, `region: ${sel.region} (choose above)`)
+          : h('label', { class: 'toolbar-label' }, sel.sectionKind === 'meridian' ? 'Longitude (°E) ' : 'Latitude (°N) ', at),
+        buttonGroup({ label: 'Field shown', id: 'section-field', options: [['model', 'Run'], ['reference', 'Reference'], ['difference', 'Difference']] as const, value: sel.sectionField, onPick: (v) => choose({ sectionField: v }) }).el,
+        depth,
+      ),
     );
   };
 

@@ -72,3 +72,59 @@ describe.skipIf(!canRunBrowser)('the screen: colour, zoom, crop', () => {
     await page.click('.view-map button:has-text("Auto range")');
   }, SLOW);
 });
+
+describe.skipIf(!canRunBrowser)('the screen: zoom, pan, crop, keyboard, refusals', () => {
+  let wb: Workbench;
+  let page: Page;
+  beforeAll(async () => {
+    wb = await openWorkbench({ viewport: { width: 1600, height: 1000 } });
+    page = wb.page;
+    await page.waitForSelector('body[data-ready="true"]', { timeout: SLOW });
+    await page.waitForSelector('.view-map [data-look]', { timeout: SLOW });
+  }, SLOW);
+  afterAll(async () => {
+    await wb?.close();
+  });
+
+  it('zooms with the button and the wheel, pans by dragging, and goes back to the whole map', async () => {
+    expect((await page.getAttribute('.view-map [data-look]', 'data-look'))!.split('|')[2]).toBe('whole');
+    const zoomed = await lookAfter(page, 'map', () => page.click('#map-zoom-in'));
+    const w1 = zoomed.split('|')[2].split(',').map(Number);
+    expect(w1).toHaveLength(4);
+    const box = (await page.locator('canvas.map-canvas').boundingBox())!;
+    await lookAfter(page, 'map', async () => {
+      await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+      await page.mouse.wheel(0, -200);
+    });
+    const dragged = await lookAfter(page, 'map', async () => {
+      await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+      await page.mouse.down();
+      await page.mouse.move(box.x + box.width / 2 - 120, box.y + box.height / 2, { steps: 4 });
+      await page.mouse.up();
+    });
+    const w2 = dragged.split('|')[2].split(',').map(Number);
+    // dragging to the left shows what lies to the east: the window moved east, same size
+    expect(w2[0]).toBeGreaterThan(w1[0]);
+    await wb.shot('screen-map-zoomed');
+    const whole = await lookAfter(page, 'map', () => page.click('#map-zoom-reset'));
+    expect(whole.split('|')[2]).toBe('whole');
+  }, SLOW);
+
+  it('crops the difference map to a region and gives its bias, RMSE and correlation', async () => {
+    await page.click('#tab-difference');
+    await page.waitForSelector('.view-difference [data-look]', { timeout: SLOW });
+    await page.check('#diff-crop-region');
+    await page.waitForSelector('#choose-region:not([disabled])');
+    await page.selectOption('#choose-region', 'atlantic');
+    await page.waitForFunction(() => document.querySelector('.view-difference [data-look]')?.getAttribute('data-look')?.includes('|atlantic|'), undefined, { timeout: SLOW });
+    await page.waitForSelector('#region-stats:not([hidden])');
+    const text = (await page.textContent('#region-stats')) ?? '';
+    expect(text).toMatch(/atlantic/);
+    expect(text).toMatch(/RMSE -?\d/);
+    await wb.shot('screen-difference-atlantic');
+    await page.uncheck('#diff-crop-region');
+    await page.click('#map-zoom-reset').catch(() => undefined);
+    await page.click('#tab-map');
+    await page.waitForSelector('.view-map [data-look]', { timeout: SLOW });
+  }, SLOW);
+});
