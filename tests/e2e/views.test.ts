@@ -244,7 +244,7 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
   it('the line view draws a transect from the lines part', async () => {
     await page.click('#tab-line');
     await drawn(page, 'line');
-    expect(await page.textContent('.view-line svg')).toContain('Distance along the line (km)');
+    expect(await page.textContent('.view-line .figure-stage svg')).toContain('Distance along the line (km)');
     await wb.shot('view-line', { fullPage: true });
   }, SLOW);
 
