@@ -39,7 +39,7 @@ export default tseslint.config(
   },
   {
     // The screen takes the core as types only, except the pure drawing code (app/render, app/figures) and the
-    // small dependency-free result cache; values it shares with main/ come from contract/.
+    // small dependency-free result cache and number format; values it shares with main/ come from contract/.
     files: ['renderer/**/*.ts'],
     rules: {
       'no-restricted-imports': 'off',
@@ -48,9 +48,9 @@ export default tseslint.config(
         {
           patterns: [
             {
-              regex: '(^|/)app/(?!render/|figures/|promise-cache\\.js$)',
+              regex: '(^|/)app/(?!render/|figures/|promise-cache\\.js$|output/number-format\\.js$)',
               allowTypeImports: true,
-              message: 'The renderer imports the core as types only (except app/render, app/figures).',
+              message: 'The renderer imports the core as types only (except app/render, app/figures, the number format).',
             },
             { group: ['**/main/**', 'electron', 'node:*'], message: 'The renderer runs in the page: no main/, Electron or Node imports.' },
           ],

@@ -59,14 +59,8 @@ export function clear(el: Element): void {
   while (el.firstChild) el.removeChild(el.firstChild);
 }
 
-/** A number for people: 4 significant digits, exponent for very small or large magnitudes. */
-export function fmt(v: number | null | undefined, digits = 4): string {
-  if (v === null || v === undefined || !Number.isFinite(v)) return '–';
-  if (v === 0) return '0';
-  const a = Math.abs(v);
-  if (a >= 1e6 || a < 1e-3) return v.toExponential(digits - 1);
-  return Number(v.toPrecision(digits)).toString();
-}
+/** A number for people: the one number format and missing mark of the exports (app/output/number-format.ts). */
+export { formatNumber as fmt, MISSING } from '../app/output/number-format.js';
 
 export function fmtLon(lon: number): string {
   const l = ((((lon + 180) % 360) + 360) % 360) - 180;

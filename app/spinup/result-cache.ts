@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
-import { mkdir, readFile, rename, stat, writeFile } from 'node:fs/promises';
+import { readFile, stat } from 'node:fs/promises';
 import { join } from 'node:path';
+import { writeOutputFile } from '../output/output-set.js';
 import type { SpinupResult } from './types.js';
 
 /**
@@ -39,11 +40,7 @@ export async function readCachedResult(dir: string, key: string): Promise<Spinup
 
 export async function writeCachedResult(dir: string, key: string, r: SpinupResult): Promise<void> {
   try {
-    const folder = join(dir, 'spinup');
-    await mkdir(folder, { recursive: true });
-    const tmp = join(folder, `${key}.json.tmp-${process.pid}-${Date.now()}`);
-    await writeFile(tmp, JSON.stringify(r));
-    await rename(tmp, join(folder, `${key}.json`));
+    await writeOutputFile(join(dir, 'spinup', `${key}.json`), JSON.stringify(r));
   } catch {
     // a cache that cannot be written only costs time
   }

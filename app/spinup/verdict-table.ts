@@ -1,4 +1,4 @@
-import { formatNumber as fmt, formatSigned as fmtSigned, formatYears as years } from '../output/number-format.js';
+import { formatNumber as fmt, formatSigned as fmtSigned, formatYears as years, MISSING } from '../output/number-format.js';
 import type { SpinupResult, SpinupTrack } from './types.js';
 
 /**
@@ -12,10 +12,10 @@ export function fullVerdictTable(r: SpinupResult): string {
     t.region,
     t.layer,
     t.verdict.status,
-    t.drift?.percentPerKyr == null ? '-' : fmtSigned(t.drift.percentPerKyr, 3),
+    t.drift?.percentPerKyr == null ? MISSING : fmtSigned(t.drift.percentPerKyr, 3),
     t.fit?.constrained ? fmt(t.fit.xInf, 4) : '-',
     t.fit?.constrained ? years(t.fit.tau) : '-',
-    t.fit?.yearsToSettle == null ? '-' : years(t.fit.yearsToSettle),
+    t.fit?.yearsToSettle == null ? MISSING : years(t.fit.yearsToSettle),
     t.units,
     (t.monotonic ? '' : '~') + (t.verdict.deepCaution ? '!' : '') + (t.fit && !t.fit.constrained ? '?' : ''),
   ]);
@@ -49,7 +49,7 @@ export function verdictTable(r: SpinupResult): string {
   const cell = (t: SpinupTrack | undefined): string => {
     if (!t) return '';
     const p = t.drift?.percentPerKyr;
-    return `${p == null ? '-' : Math.abs(p) < 0.005 ? '0' : fmtSigned(p, 2)} ${mark(t).padEnd(3)}`;
+    return `${p == null ? MISSING : Math.abs(p) < 0.005 ? '0' : fmtSigned(p, 2)} ${mark(t).padEnd(3)}`;
   };
   const tracers = [...new Set(r.tracks.map((t) => t.tracer))];
   const layers = [...new Set(r.tracks.map((t) => t.layer))];

@@ -1,4 +1,5 @@
 import { StillwaterError } from '../../app/errors.js';
+import { MISSING } from '../../app/output/number-format.js';
 import { inspectFile, type GridSummary, type InspectReport, type VariableSummary } from '../../app/cf/inspect.js';
 import { allowOnly, parseArgs } from '../args.js';
 import type { Command } from '../command.js';
@@ -26,7 +27,8 @@ const FORMAT_NAMES: Record<string, string> = {
 
 /** A number for people: up to 5 significant digits, no trailing zeros. */
 export function formatNumber(x: number | null): string {
-  if (x === null || !Number.isFinite(x)) return x === null ? '–' : String(x);
+  if (x === null || Number.isNaN(x)) return MISSING;
+  if (!Number.isFinite(x)) return String(x);
   if (x !== 0 && (Math.abs(x) >= 1e6 || Math.abs(x) < 1e-3)) return x.toExponential(3).replace(/\.?0+e/, 'e');
   return String(Number(x.toPrecision(5)));
 }

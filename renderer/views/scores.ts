@@ -3,7 +3,7 @@ import type { ComparisonResult } from '../../app/compare/run.js';
 import type { SkillRow } from '../../app/compare/rows.js';
 import type { TableFormat } from '../../contract/view-types.js';
 import { getSkill, getTable } from '../data.js';
-import { fmt, h, saveBlob } from '../dom.js';
+import { fmt, h, MISSING, saveBlob } from '../dom.js';
 import { state, type AppState } from '../state.js';
 import { sortableTable, type Column } from '../widgets/sortable-table.js';
 import { spinupBanner } from './spinup-banner.js';
@@ -26,7 +26,7 @@ const COLUMNS: Column<SkillRow, Key>[] = [
   text('region', 'Region', 'region'),
   text('layer', 'Layer', 'depth layer'),
   text('units', 'Units', 'units of means, bias, RMSE, E′ and standard deviations'),
-  num('n', 'n', 'number of compared cells', (v) => (v === null ? '–' : String(v))),
+  num('n', 'n', 'number of compared cells', (v) => (v === null ? MISSING : String(v))),
   num('model_mean', 'Model mean', 'weighted mean of the run'),
   num('ref_mean', 'Ref. mean', 'weighted mean of the reference'),
   num('bias', 'Bias', 'model mean minus reference mean'),
@@ -36,7 +36,7 @@ const COLUMNS: Column<SkillRow, Key>[] = [
   num('std_ratio', 'σm/σr', 'ratio of standard deviations'),
   num('taylor_skill', 'Taylor S', 'Taylor (2001) skill score'),
   num('nse', 'NSE', 'Nash–Sutcliffe efficiency'),
-  num('compared_fraction', 'Compared', 'share of the reference weight that was compared', (v) => (v === null ? '–' : `${(v * 100).toFixed(1)} %`)),
+  num('compared_fraction', 'Compared', 'share of the reference weight that was compared', (v) => (v === null ? MISSING : `${(v * 100).toFixed(1)} %`)),
 ];
 
 export const scoresView: ViewFactory = (el) => {

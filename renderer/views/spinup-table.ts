@@ -1,6 +1,6 @@
 /** The spin-up's table of drift rates, fits and verdicts, one row a track, notes on a line under it. */
 import type { SpinupTrack } from '../../app/spinup/types.js';
-import { fmt, h } from '../dom.js';
+import { fmt, h, MISSING } from '../dom.js';
 import { sortableTable, type Column, type SortableTable } from '../widgets/sortable-table.js';
 
 export type SortKey = 'tracer' | 'region' | 'layer' | 'perKyr' | 'percent' | 'xInf' | 'tau' | 't90' | 'needed' | 'status';
@@ -52,17 +52,17 @@ function cellOf(t: SpinupTrack, key: SortKey): HTMLTableCellElement {
     case 'layer':
       return h('td', { class: 'text' }, t[key]);
     case 'perKyr':
-      return h('td', { title: d ? `model years ${d.fromYear}–${d.toYear}, ${d.window}` : '' }, d ? `${fmt(d.perKyr, 3)} ${t.units}` : '–');
+      return h('td', { title: d ? `model years ${d.fromYear}–${d.toYear}, ${d.window}` : '' }, d ? `${fmt(d.perKyr, 3)} ${t.units}` : MISSING);
     case 'percent':
-      return h('td', { title: d?.relativeTo ? `relative to ${d.relativeTo}` : '' }, d?.percentPerKyr !== null && d?.percentPerKyr !== undefined ? `${fmt(d.percentPerKyr, 3)} %` : '–');
+      return h('td', { title: d?.relativeTo ? `relative to ${d.relativeTo}` : '' }, d?.percentPerKyr !== null && d?.percentPerKyr !== undefined ? `${fmt(d.percentPerKyr, 3)} %` : MISSING);
     case 'xInf':
-      return h('td', {}, f ? `${fmt(f.xInf, 4)} ${t.units}` : '–');
+      return h('td', {}, f ? `${fmt(f.xInf, 4)} ${t.units}` : MISSING);
     case 'tau':
-      return h('td', {}, f ? String(Math.round(f.tau)) : '–');
+      return h('td', {}, f ? String(Math.round(f.tau)) : MISSING);
     case 't90':
-      return h('td', {}, f ? String(Math.round(f.t90)) : '–');
+      return h('td', {}, f ? String(Math.round(f.t90)) : MISSING);
     case 'needed':
-      return h('td', {}, t.verdict.status === 'settled' ? '0' : f?.yearsToSettle !== null && f?.yearsToSettle !== undefined ? String(Math.round(f.yearsToSettle)) : '–');
+      return h('td', {}, t.verdict.status === 'settled' ? '0' : f?.yearsToSettle !== null && f?.yearsToSettle !== undefined ? String(Math.round(f.yearsToSettle)) : MISSING);
     case 'status': {
       const verdict = h('td', { class: `text verdict ${t.verdict.status}`, title: `${t.verdict.sentence} ${t.fitNote}`.trim(), 'data-status': t.verdict.status }, STATUS_TEXT[t.verdict.status]);
       if (notesOf(t).length) verdict.append(h('span', { class: 'verdict-flag' }, ' *'));

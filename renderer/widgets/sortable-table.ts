@@ -2,7 +2,7 @@
  * A table whose column heads sort it (click again to reverse); missing values sort last in both directions.
  * Each column says how to read a row's value for sorting and how to draw its cell.
  */
-import { h } from '../dom.js';
+import { h, MISSING } from '../dom.js';
 
 export type SortValue = number | string | null | undefined;
 
@@ -97,7 +97,7 @@ export function sortableTable<Row, K extends string>(spec: SortableTableSpec<Row
     for (const r of sorted) {
       const tr = h('tr', { class: spec.rowClass, title: spec.rowTitle?.(r) || undefined });
       for (const c of spec.columns) {
-        const cell = c.cell ? c.cell(r) : String(c.value(r) ?? '–');
+        const cell = c.cell ? c.cell(r) : String(c.value(r) ?? MISSING);
         tr.append(typeof cell === 'string' ? h('td', { class: c.text ? 'text' : '' }, cell) : cell);
       }
       body.append(tr);
