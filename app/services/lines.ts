@@ -3,6 +3,7 @@
  * a meridian or parallel section, with the column means along it; stations read from a CSV; stations
  * compared with the reference and the runs. Every file goes through ctx.resolvePath.
  */
+import { isAbsolute, resolve } from 'node:path';
 import { z } from 'zod';
 import { runLine, type LineSpec } from '../lines/run-line.js';
 import { parseWaypoints } from '../lines/waypoints.js';
@@ -130,9 +131,10 @@ export const linesServices: ServiceEntry[] = [
   entry({
     name: 'points.stations',
     summary: 'Station observations read from a CSV file (positions, depths, values, units), for drawing on the map.',
-    input: z.object({ file: z.string().min(1) }),
+    input: z.object({ file: z.string().min(1), /** the recipe's folder, which a relative path is taken from */ baseDir: z.string().min(1).optional() }),
     async run(input, ctx): Promise<StationsData> {
-      const st = await readStations(ctx.resolvePath(input.file));
+      const file = input.baseDir && !isAbsolute(input.file) ? resolve(ctx.resolvePath(input.baseDir), input.file) : input.file;
+      const st = await readStations(ctx.resolvePath(file));
       return { file: st.file, units: st.units ?? null, id: st.id, lon: st.lon, lat: st.lat, depth: st.depth, seafloor: st.seafloor, value: st.value };
     },
   }),
