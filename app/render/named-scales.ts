@@ -4,7 +4,7 @@
  * equal steps of value look like equal steps of colour (perceptually uniform): sequential scales from dark to
  * light, diverging ones light in the middle and equally dark at both ends.
  */
-import { DIVERGING, SEQUENTIAL, type ColourScale, type ScaleKind } from './colour-scales.js';
+import { DIVERGING, SEQUENTIAL, lightness, type ColourScale, type ScaleKind } from './colour-scales.js';
 import { packRgba } from './recolour.js';
 
 /** Oklab to linear sRGB (Ottosson 2020, "A perceptual color space for image processing"; matrices from memory). */
@@ -48,20 +48,41 @@ interface Anchor {
 
 const ENTRIES = 256;
 
-/** A scale through anchors: lightness, chroma and hue interpolated linearly between them, lightness in equal steps. */
+/** A colour along the anchors at fraction t (0..1): lightness, chroma and hue interpolated linearly between them. */
+function along(anchors: Anchor[], t01: number): [number, number, number] {
+  const t = t01 * (anchors.length - 1);
+  const i = Math.min(anchors.length - 2, Math.floor(t));
+  const f = t - i;
+  const a = anchors[i];
+  const b = anchors[i + 1];
+  // a grey anchor has no hue of its own: the hue of its neighbour is kept across the segment
+  const h0 = a.C === 0 ? b.h : a.h;
+  const h1 = b.C === 0 ? a.h : b.h;
+  return fromLch(a.L + f * (b.L - a.L), a.C + f * (b.C - a.C), h0 + f * (h1 - h0));
+}
+
+/**
+ * A scale through anchors. A sequential scale is then re-spaced so that CIE L* (lightness(), CIE 1976) rises in
+ * equal steps: Oklab's lightness and the gamut limit bend it otherwise.
+ */
 function fromAnchors(kind: ScaleKind, name: string, anchors: Anchor[]): ColourScale {
   const rgb = new Uint8Array(ENTRIES * 3);
   const packed = new Uint32Array(ENTRIES);
+  const FINE = 2048;
+  const fine: [number, number, number][] = [];
+  const fineL: number[] = [];
+  for (let q = 0; q < FINE; q++) {
+    fine.push(along(anchors, q / (FINE - 1)));
+    fineL.push(lightness(...fine[q]));
+  }
+  let q = 0;
   for (let k = 0; k < ENTRIES; k++) {
-    const t = (k / (ENTRIES - 1)) * (anchors.length - 1);
-    const i = Math.min(anchors.length - 2, Math.floor(t));
-    const f = t - i;
-    const a = anchors[i];
-    const b = anchors[i + 1];
-    // a grey anchor has no hue of its own: the hue of its neighbour is kept across the segment
-    const h0 = a.C === 0 ? b.h : a.h;
-    const h1 = b.C === 0 ? a.h : b.h;
-    const c = fromLch(a.L + f * (b.L - a.L), a.C + f * (b.C - a.C), h0 + f * (h1 - h0));
+    let c: [number, number, number];
+    if (kind === 'sequential') {
+      const target = fineL[0] + (k / (ENTRIES - 1)) * (fineL[FINE - 1] - fineL[0]);
+      while (q < FINE - 1 && fineL[q + 1] <= target) q++;
+      c = fine[q];
+    } else c = fine[Math.round((k / (ENTRIES - 1)) * (FINE - 1))];
     rgb.set(c, k * 3);
     packed[k] = packRgba(c[0], c[1], c[2]);
   }
