@@ -12,6 +12,14 @@ export interface SourceVariable {
   name: string;
   units: string;
   longName?: string;
+  /** why the variable cannot be used (file unreadable, variable absent), when it cannot */
+  problem?: string;
+}
+
+/** A problem of the recipe found on opening it, at its recipe path. */
+export interface RecipeProblem {
+  path: string;
+  sentence: string;
 }
 
 export interface SourceInfo {
@@ -71,6 +79,10 @@ export interface SessionInfo {
   regions: string[];
   layers: LayerChoice[];
   grid: ViewGrid;
+  /** every problem found on opening the recipe (listed in the sources panel) */
+  problems?: RecipeProblem[];
+  /** the recipe's `screen` section: the view saved with it, restored on open */
+  screen?: ScreenSection;
   /** true when the session differs from the recipe file (pairs added, runs added) */
   modified: boolean;
 }
@@ -133,4 +145,33 @@ export interface TableText {
   fileName: string;
   mime: string;
   text: string;
+}
+
+/**
+ * The recipe's `screen` section: what the workbench showed when the session was saved (schema in
+ * app/recipe/screen-schema.ts, which is held to this shape).
+ */
+export interface ScreenSection {
+  view?: 'map' | 'difference' | 'section' | 'profile' | 'diagram' | 'scores' | 'spinup' | 'line';
+  variable?: string;
+  run?: string;
+  region?: string;
+  layer?: string;
+  projection?: 'plate' | 'equal-earth' | 'north-polar' | 'south-polar';
+  mapField?: 'model' | 'reference';
+  fieldRange?: [number, number] | null;
+  diffRange?: [number, number] | null;
+  fieldScale?: string;
+  diffScale?: string;
+  logColour?: boolean;
+  lockRange?: boolean;
+  contours?: boolean;
+  mapWindow?: { xmin: number; xmax: number; ymin: number; ymax: number } | null;
+  cropToRegion?: boolean;
+  sectionKind?: SectionKind;
+  sectionAt?: number;
+  sectionField?: 'model' | 'reference' | 'difference';
+  sectionDepth?: number | null;
+  diagram?: 'taylor' | 'target';
+  line?: { points: [number, number][]; spacingKm: number; field: number; stretch: boolean };
 }

@@ -4,7 +4,7 @@
  */
 import type { ProjectionId } from '../app/render/projections.js';
 import { DEFAULT_DIFF_SCALE, DEFAULT_FIELD_SCALE } from '../app/render/named-scales.js';
-import type { SectionKind, SessionInfo } from '../contract/view-types.js';
+import type { ScreenSection, SectionKind, SessionInfo } from '../contract/view-types.js';
 
 export type ViewId = 'map' | 'difference' | 'section' | 'profile' | 'diagram' | 'scores' | 'spinup' | 'line';
 
@@ -215,8 +215,9 @@ export function redo(): boolean {
 }
 
 export function setSession(session: SessionInfo): void {
-  const previous = state.sel;
   const previousSession = state.session?.session;
+  // a recipe opened anew brings the view saved in it (its `screen` section)
+  const previous = previousSession !== session.session && session.screen ? { ...state.sel, ...restorable(session.screen) } : state.sel;
   state.session = session;
   const vars = session.variables;
   const variable = vars.some((v) => v.key === previous.variable) ? previous.variable : (vars[0]?.key ?? '');
@@ -224,13 +225,14 @@ export function setSession(session: SessionInfo): void {
   const run = runs.includes(previous.run) ? previous.run : (runs[0] ?? '');
   const layer = session.layers.some((l) => l.id === previous.layer) ? previous.layer : (session.layers[0]?.id ?? 'k:0');
   const region = session.regions.includes(previous.region) ? previous.region : (session.regions[0] ?? 'global');
-  state.sel = { ...previous, variable, run, layer, region, fieldRange: null, diffRange: null };
+  const keepRanges = previous !== state.sel;
+  state.sel = { ...previous, variable, run, layer, region, fieldRange: keepRanges ? previous.fieldRange : null, diffRange: keepRanges ? previous.diffRange : null };
   // another recipe starts a new history; a saved or extended session keeps it
   if (previousSession !== session.session) {
     undoStack.length = 0;
     redoStack.length = 0;
   }
-  notify(new Set(['session', 'variable', 'run', 'layer', 'region']));
+  notify(new Set(['session', 'variable', 'run', 'layer', 'region', ...(keepRanges ? ['view'] : [])]));
 }
 
 export function setProbe(p: ProbePoint | null): void {
@@ -245,4 +247,20 @@ export function currentLayer(): SessionInfo['layers'][number] | undefined {
 
 export function currentVariable(): SessionInfo['variables'][number] | undefined {
   return state.session?.variables.find((v) => v.key === state.sel.variable);
+}
+
+/** The keys of the selection that the recipe's `screen` section keeps. */
+const SCREEN_KEYS = ['view', 'variable', 'run', 'region', 'layer', 'projection', 'mapField', 'fieldRange', 'diffRange', 'fieldScale', 'diffScale', 'logColour', 'lockRange', 'contours', 'mapWindow', 'cropToRegion', 'sectionKind', 'sectionAt', 'sectionField', 'sectionDepth', 'diagram', 'line'] as const satisfies readonly (keyof Selection & keyof ScreenSection)[];
+
+/** What the recipe keeps of the view (saved with the session). */
+export function screenOf(sel: Selection): ScreenSection {
+  const out: Record<string, unknown> = {};
+  for (const k of SCREEN_KEYS) out[k] = JSON.parse(JSON.stringify(sel[k]));
+  return out as ScreenSection;
+}
+
+function restorable(screen: ScreenSection): Partial<Selection> {
+  const out: Record<string, unknown> = {};
+  for (const k of SCREEN_KEYS) if (screen[k] !== undefined) out[k] = screen[k];
+  return out as Partial<Selection>;
 }

@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { reportSectionSchema } from './report-schema.js';
+import { screenSectionSchema } from './screen-schema.js';
 
 const nonEmpty = z.string().min(1, { error: 'must not be empty' });
 
@@ -138,6 +139,8 @@ export const recipeSchema = z.strictObject({
   options: optionsSchema.default(() => optionsSchema.parse({})),
   /** what `stillwater report` draws (app/recipe/report-schema.ts) */
   report: reportSectionSchema.optional(),
+  /** what the workbench showed when the session was saved (app/recipe/screen-schema.ts) */
+  screen: screenSectionSchema.optional(),
 });
 
 export type RecipeInput = z.input<typeof recipeSchema>;

@@ -42,5 +42,6 @@ export function recipeToJson(recipe: Recipe, dir: string = recipe.baseDir): Reci
     layers: recipe.layers.map(layerJson),
     options: recipe.options,
     ...(recipe.report ? { report: recipe.report } : {}),
+    ...(recipe.screen ? { screen: recipe.screen } : {}),
   };
 }

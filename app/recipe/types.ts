@@ -1,6 +1,7 @@
 /** A validated recipe with absolute paths and every default filled in. */
 import type { LayerSpec } from '../regions/layers.js';
 import type { ReportSectionInput } from './report-schema.js';
+import type { ScreenSection } from './screen-schema.js';
 import type { RecipeOptions } from './schema.js';
 
 export interface VariableSource {
@@ -43,4 +44,6 @@ export interface Recipe {
   variables: string[];
   /** the `report` section as written (defaults are filled by app/recipe/report-settings.ts) */
   report?: ReportSectionInput;
+  /** the workbench's view when the session was saved */
+  screen?: ScreenSection;
 }

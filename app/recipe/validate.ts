@@ -152,5 +152,6 @@ export function validateRecipe(json: unknown, baseDir: string, opts: ValidateOpt
     options: p.options,
     variables: known,
     ...(p.report ? { report: p.report } : {}),
+    ...(p.screen ? { screen: p.screen } : {}),
   };
 }

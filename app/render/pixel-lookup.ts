@@ -75,3 +75,35 @@ export function buildPixelLookup(
   }
   return out;
 }
+
+/**
+ * The lookup of a window moved by whole pixels from one whose lookup is known (a pan): the overlap is copied and
+ * only the pixels that come into view are inverse-projected. `dx` pixels to the east, `dy` pixels to the north.
+ */
+export function shiftPixelLookup(
+  previous: Int32Array,
+  proj: MapProjection,
+  lonEdges: ArrayLike<number>,
+  latEdges: ArrayLike<number>,
+  width: number,
+  height: number,
+  dx: number,
+  dy: number,
+): Int32Array {
+  const out = new Int32Array(width * height);
+  for (let py = 0; py < height; py++) {
+    const oy = py - dy;
+    const rowInside = oy >= 0 && oy < height;
+    for (let px = 0; px < width; px++) {
+      const ox = px + dx;
+      if (rowInside && ox >= 0 && ox < width) {
+        out[py * width + px] = previous[oy * width + ox];
+        continue;
+      }
+      const [x, y] = pixelToProjected(proj, width, height, px, py);
+      const ll = proj.inverse(x, y);
+      out[py * width + px] = ll === null ? OFF_MAP : cellAt(lonEdges, latEdges, ll[0], ll[1]);
+    }
+  }
+  return out;
+}

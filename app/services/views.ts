@@ -30,7 +30,9 @@ import type { LayerChoice, LevelData, ProfileData, SectionData, SessionInfo, Sou
 import { checkOutputFile } from '../output/output-target.js';
 import { writeOutputFile } from '../output/output-set.js';
 import { recipeFiles } from '../recipe/recipe-files.js';
+import { screenSectionSchema } from '../recipe/screen-schema.js';
 import { guardRecipe } from './recipe-guard.js';
+import { recipeProblems } from './recipe-problems.js';
 import { entry, type ServiceContext, type ServiceEntry } from './types.js';
 
 // ---------- sessions ----------
@@ -87,12 +89,12 @@ async function describeSource(spec: Recipe['reference'], headers: Map<string, Pr
   for (const [key, v] of Object.entries(spec.variables)) {
     const ds = await header(v.file);
     if (ds instanceof Error) {
-      variables.push({ key, file: v.file, name: v.name, units: '?', longName: ds.message });
+      variables.push({ key, file: v.file, name: v.name, units: '?', longName: ds.message, problem: ds.message });
       continue;
     }
     const raw = findVariable(ds, v.name);
     if (!raw) {
-      variables.push({ key, file: v.file, name: v.name, units: '?', longName: `${v.file} has no variable '${v.name}'.` });
+      variables.push({ key, file: v.file, name: v.name, units: '?', longName: `${v.file} has no variable '${v.name}'.`, problem: `${v.file} has no variable '${v.name}'.` });
       continue;
     }
     const longName = attrString(raw.attrs, 'long_name') ?? attrString(raw.attrs, 'standard_name');
@@ -205,6 +207,8 @@ async function buildSession(recipe: Recipe, recipePath: string, ctx: ServiceCont
     regions: recipe.regions.map((r) => (r.kind === 'built-in' ? r.name : r.kind === 'mask' ? r.variable : basename(r.file))),
     layers: layerChoices(recipe, grid),
     grid: viewGrid(grid),
+    ...(recipe.screen ? { screen: recipe.screen } : {}),
+    problems: recipeProblems(recipe, reference, runs),
     modified,
   };
   return { id, recipePath, recipe, grid, info, pairs: new Map(), regions: null, levels: new PromiseCache<Float32Array>(LEVEL_CACHE_BYTES, (a) => a.byteLength), cacheDir: ctx.cacheDir };
@@ -524,14 +528,15 @@ export const viewsServices: ServiceEntry[] = [
   entry({
     name: 'view.save',
     summary: 'Save the session as a recipe .json file (app/output: complete or unchanged), never over a file it reads.',
-    input: z.object({ session: z.string().min(1), path: z.string().min(1) }),
+    input: z.object({ session: z.string().min(1), path: z.string().min(1), screen: screenSectionSchema.optional() }),
     async run(input, ctx): Promise<{ path: string }> {
       const s = sessionOf(input.session);
+      if (input.screen) s.recipe = { ...s.recipe, screen: input.screen };
       const path = ctx.resolvePath(input.path);
       checkOutputFile(path, { extension: '.json', inputs: recipeFiles(s.recipe).map((f) => f.file) });
       await writeOutputFile(path, JSON.stringify(recipeToJson(s.recipe, dirname(path)), null, 2) + '\n');
       s.recipePath = path;
-      s.info = { ...s.info, recipePath: path, modified: false };
+      s.info = { ...s.info, recipePath: path, modified: false, ...(input.screen ? { screen: input.screen } : {}) };
       return { path };
     },
   }),

@@ -2,7 +2,7 @@
 import type { SessionInfo } from '../../contract/view-types.js';
 import { call } from '../bridge.js';
 import { h } from '../dom.js';
-import { setSession, state } from '../state.js';
+import { screenOf, setSession, state } from '../state.js';
 import type { Say } from './pair-form.js';
 
 export function saveForm(s: SessionInfo, say: Say): HTMLElement {
@@ -13,7 +13,7 @@ export function saveForm(s: SessionInfo, say: Say): HTMLElement {
   form.addEventListener('submit', async (ev) => {
     ev.preventDefault();
     try {
-      const r = await call<{ path: string }>('view.save', { session: s.session, path: input.value.trim() });
+      const r = await call<{ path: string }>('view.save', { session: s.session, path: input.value.trim(), screen: screenOf(state.sel) });
       if (state.session) setSession({ ...state.session, recipePath: r.path, modified: false });
       say(`Saved the recipe to ${r.path}.`);
     } catch (e) {

@@ -6,7 +6,7 @@
 import { clipped, log10Values, positiveRange } from '../../app/render/colour-mapping.js';
 import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange, type ColourScale } from '../../app/render/colour-scales.js';
 import { DIFF_SCALES, FIELD_SCALES, namedScale } from '../../app/render/named-scales.js';
-import { buildPixelLookup } from '../../app/render/pixel-lookup.js';
+import { buildPixelLookup, shiftPixelLookup } from '../../app/render/pixel-lookup.js';
 import { makeProjection, type MapProjection, type ProjectionId } from '../../app/render/projections.js';
 import { packRgba, recolour } from '../../app/render/recolour.js';
 import type { LevelData, ViewGrid } from '../../contract/view-types.js';
@@ -29,17 +29,43 @@ export function projectionOf(id: ProjectionId): MapProjection {
   return p;
 }
 
-/** The lookup for one projection × grid × canvas size, built once and kept (a few of them). */
+/** Where each kept lookup looks: to pan by whole pixels from one of them instead of building anew. */
+const lookupWindows = new Map<string, { id: string; grid: string; w: number; h: number; e: MapProjection['extent'] }>();
+
+/** The lookup for one projection × window × grid × canvas size, built once and kept (a few of them). */
 export function lookupFor(proj: MapProjection, grid: ViewGrid, w: number, h: number): Int32Array {
   const e = proj.extent;
-  const key = `${proj.info.id}|${e.xmin},${e.xmax},${e.ymin},${e.ymax}|${grid.nx}x${grid.ny}|${grid.lonEdges[0]}|${grid.latEdges[0]}|${w}x${h}`;
+  const gridKey = `${grid.nx}x${grid.ny}|${grid.lonEdges[0]}|${grid.latEdges[0]}`;
+  const key = `${proj.info.id}|${e.xmin},${e.xmax},${e.ymin},${e.ymax}|${gridKey}|${w}x${h}`;
   let lut = lookups.get(key);
   if (!lut) {
-    lut = buildPixelLookup(proj, grid.lonEdges, grid.latEdges, w, h);
+    lut = panned(proj, grid, gridKey, w, h) ?? buildPixelLookup(proj, grid.lonEdges, grid.latEdges, w, h);
     lookups.set(key, lut);
-    while (lookups.size > 8) lookups.delete(lookups.keys().next().value as string);
+    lookupWindows.set(key, { id: proj.info.id, grid: gridKey, w, h, e: { ...e } });
+    while (lookups.size > 8) {
+      const oldest = lookups.keys().next().value as string;
+      lookups.delete(oldest);
+      lookupWindows.delete(oldest);
+    }
   }
   return lut;
+}
+
+/** A kept lookup of a window of the same size a whole number of pixels away, shifted; null when there is none. */
+function panned(proj: MapProjection, grid: ViewGrid, gridKey: string, w: number, h: number): Int32Array | null {
+  const e = proj.extent;
+  const pxW = (e.xmax - e.xmin) / w;
+  const pxH = (e.ymax - e.ymin) / h;
+  for (const [key, k] of lookupWindows) {
+    if (k.id !== proj.info.id || k.grid !== gridKey || k.w !== w || k.h !== h) continue;
+    if (Math.abs(k.e.xmax - k.e.xmin - (e.xmax - e.xmin)) > pxW * 1e-6 || Math.abs(k.e.ymax - k.e.ymin - (e.ymax - e.ymin)) > pxH * 1e-6) continue;
+    const dx = (e.xmin - k.e.xmin) / pxW;
+    const dy = (e.ymin - k.e.ymin) / pxH;
+    if (Math.abs(dx - Math.round(dx)) > 1e-6 || Math.abs(dy - Math.round(dy)) > 1e-6) continue;
+    if (Math.abs(dx) >= w || Math.abs(dy) >= h) continue;
+    return shiftPixelLookup(lookups.get(key)!, proj, grid.lonEdges, grid.latEdges, w, h, Math.round(dx), Math.round(dy));
+  }
+  return null;
 }
 
 export interface MapChoice {

@@ -167,10 +167,15 @@ export function mapView(difference: boolean): ViewFactory {
       const win = state.sel.mapWindow;
       if (!win) return;
       const r = canvas.getBoundingClientRect();
-      const dx = (-dxPx * (win.xmax - win.xmin)) / r.width;
-      const dy = (dyPx * (win.ymax - win.ymin)) / r.height;
-      drag.x = ev.clientX;
-      drag.y = ev.clientY;
+      // whole canvas pixels, so that the pan shifts the pixel lookup instead of building it anew
+      const sx = canvas.width / r.width;
+      const sy = canvas.height / r.height;
+      const cx = Math.round(-dxPx * sx);
+      const cy = Math.round(dyPx * sy);
+      const dx = (cx * (win.xmax - win.xmin)) / canvas.width;
+      const dy = (cy * (win.ymax - win.ymin)) / canvas.height;
+      drag.x += -cx / sx;
+      drag.y += cy / sy;
       preview({ mapWindow: panWindow(projectionOf(state.sel.projection).extent, win, dx, dy) });
     };
     const onUp = (ev: MouseEvent): void => {

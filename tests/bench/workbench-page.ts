@@ -6,6 +6,8 @@
 import { quantileRange } from '../../app/render/colour-scales.js';
 import { canvasHeightFor } from '../../app/render/pixel-lookup.js';
 import type { ViewGrid } from '../../contract/view-types.js';
+import { panWindow, windowed, zoomWindow } from '../../app/render/map-window.js';
+import { FIELD_SCALES } from '../../app/render/named-scales.js';
 import { lookupFor, paint, projectionOf, type MapChoice } from '../../renderer/views/map-paint.js';
 
 interface PlotlyLike {
@@ -44,6 +46,12 @@ export interface OursResult {
   recolourWithRangeMs: number[];
   /** the 2-98 % range alone (quantileRange of model and reference) */
   rangeMs: number[];
+  /** a zoom step (×1.5 about a point, a new pixel lookup for the window, then the paint) */
+  zoomMs: number[];
+  /** a pan of a zoomed map by a tenth of its width (new lookup, paint) */
+  panMs: number[];
+  /** switching the colour scale (paint with another palette) */
+  scaleMs: number[];
   cells: number;
   pixels: number;
 }
@@ -79,12 +87,37 @@ async function ours(step: number, width: number, repeats: number): Promise<OursR
     paint(canvas, lut, choice(values, r));
     recolourWithRangeMs.push((await nextFrame()) - t0);
   }
+  // zoom and pan as the map view does them: a window of the projection, its lookup, the paint
+  const zoomMs: number[] = [];
+  const panMs: number[] = [];
+  const scaleMs: number[] = [];
+  const full = proj.extent;
+  let win: ReturnType<typeof zoomWindow> = null;
+  for (let n = 0; n < repeats; n++) {
+    let t0 = performance.now();
+    // zoom in ×1.5 about a point that moves a little each time (so that no window repeats and every lookup is
+    // built anew, as when a person zooms), starting again from the whole map every fourth step
+    win = n % 4 === 0 ? null : win;
+    win = zoomWindow(full, win, 1.5, -3e6 + n * 1.7e5, 3e6 - n * 0.9e5);
+    const zl = lookupFor(windowed(proj, win), grid, canvas.width, canvas.height);
+    paint(canvas, zl, choice(levels[1], fixed));
+    zoomMs.push((await nextFrame()) - t0);
+    t0 = performance.now();
+    // a drag pans by whole canvas pixels (as the view does): about a tenth of the width, a few pixels more each time
+    win = panWindow(full, win, (Math.round(canvas.width * 0.1) + n) * ((win!.xmax - win!.xmin) / canvas.width), 0);
+    const pl = lookupFor(windowed(proj, win), grid, canvas.width, canvas.height);
+    paint(canvas, pl, choice(levels[1], fixed));
+    panMs.push((await nextFrame()) - t0);
+    t0 = performance.now();
+    paint(canvas, pl, { ...choice(levels[1], fixed), scale: FIELD_SCALES[(n % (FIELD_SCALES.length - 1)) + 1].scale });
+    scaleMs.push((await nextFrame()) - t0);
+  }
   canvas.remove();
-  return { lookupMs, recolourMs, recolourWithRangeMs, rangeMs, cells: grid.nx * grid.ny, pixels: canvas.width * canvas.height };
+  return { lookupMs, recolourMs, recolourWithRangeMs, rangeMs, zoomMs, panMs, scaleMs, cells: grid.nx * grid.ny, pixels: canvas.width * canvas.height };
 }
 
 /** Peer: a Plotly heatmap of the same field (plate carrée only), redrawn with the next level's values. */
-async function peer(step: number, width: number, repeats: number): Promise<{ firstMs: number; recolourMs: number[] }> {
+async function peer(step: number, width: number, repeats: number): Promise<{ firstMs: number; recolourMs: number[]; zoomMs: number[]; panMs: number[]; scaleMs: number[] }> {
   const Plotly = (globalThis as unknown as { Plotly: PlotlyLike }).Plotly;
   const grid = regularGrid(step);
   const rows = (v: Float32Array): number[][] => Array.from({ length: grid.ny }, (_, j) => Array.from(v.subarray(j * grid.nx, (j + 1) * grid.nx), (x) => (Number.isNaN(x) ? (null as unknown as number) : x)));
@@ -105,9 +138,28 @@ async function peer(step: number, width: number, repeats: number): Promise<{ fir
     await Plotly.react(el, [trace(levels[(n % 3) + 1])], layout, config);
     recolourMs.push((await nextFrame()) - t0);
   }
+  // zoom, pan and a change of colour scale as one would ask Plotly for them: new axis ranges, a new colour scale
+  const zoomMs: number[] = [];
+  const panMs: number[] = [];
+  const scaleMs: number[] = [];
+  const P = Plotly as unknown as PlotlyLike & { relayout(el: HTMLElement, u: unknown): Promise<unknown>; restyle(el: HTMLElement, u: unknown): Promise<unknown> };
+  let span = grid.nx;
+  for (let n = 0; n < repeats; n++) {
+    span = n % 4 === 0 ? grid.nx / 1.5 : span / 1.5;
+    const x0 = grid.nx * 0.4 - span / 2;
+    t0 = performance.now();
+    await P.relayout(el, { 'xaxis.range': [x0, x0 + span], 'yaxis.range': [grid.ny * 0.7 - span / 4, grid.ny * 0.7 + span / 4] });
+    zoomMs.push((await nextFrame()) - t0);
+    t0 = performance.now();
+    await P.relayout(el, { 'xaxis.range': [x0 + span / 10, x0 + span * 1.1] });
+    panMs.push((await nextFrame()) - t0);
+    t0 = performance.now();
+    await P.restyle(el, { colorscale: n % 2 ? 'Viridis' : 'Hot' });
+    scaleMs.push((await nextFrame()) - t0);
+  }
   Plotly.purge(el);
   el.remove();
-  return { firstMs, recolourMs };
+  return { firstMs, recolourMs, zoomMs, panMs, scaleMs };
 }
 
 (globalThis as unknown as { workbenchBench: unknown }).workbenchBench = { ours, peer };

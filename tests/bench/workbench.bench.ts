@@ -7,7 +7,8 @@
  *  2. the map view's lookup and paint functions on a 1° and a 0.25° (1440 × 720) field, against a Plotly
  *     heatmap of the same field redrawn with the next level (the peer: what one writes with the plotting
  *     library the project ships; it draws plate carrée only, with no projection).
- * Bars: recolour under 100 ms at 1°, under 300 ms at 0.25°. Fields in part 2 are invented; only time counts.
+ * Bars: recolour under 100 ms at 1°, under 300 ms at 0.25°; zoom step, pan and colour scale switch under 50 ms at
+ * 0.25° (issue 14). Fields in part 2 are invented; only time counts.
  * Run: npm run bench -- workbench
  */
 import { build } from 'esbuild';
@@ -124,12 +125,17 @@ async function syntheticFields(): Promise<Row[]> {
       const p = (await page.evaluate(
         ([s, w, r]) => (globalThis as unknown as { workbenchBench: { peer(s: number, w: number, r: number): Promise<unknown> } }).workbenchBench.peer(s, w, r),
         [step, WIDTH, Math.max(3, Math.floor(REPEATS / 3))] as const,
-      )) as { firstMs: number; recolourMs: number[] };
+      )) as { firstMs: number; recolourMs: number[]; zoomMs: number[]; panMs: number[]; scaleMs: number[] };
       console.log(`${label}: ${o.cells} cells, ${o.pixels} pixels (equal-area world map ${WIDTH} px wide)`);
       rows.push({ task: `${label}: first draw (pixel lookup) vs heatmap newPlot`, ours: o.lookupMs, peer: p.firstMs });
       rows.push({ task: `${label}: recolour, fixed range`, ours: median(o.recolourMs), peer: median(p.recolourMs), bar });
       rows.push({ task: `${label}: recolour incl. 2–98 % range`, ours: median(o.recolourWithRangeMs), peer: median(p.recolourMs), bar });
       rows.push({ task: `${label}: of which the 2–98 % range alone`, ours: median(o.rangeMs) });
+      // issue 14: zoom step, pan and a colour scale switch under 50 ms on the 0.25° map
+      const bar14 = step === 0.25 ? 50 : undefined;
+      rows.push({ task: `${label}: zoom step ×1.5 (lookup + paint) vs axis relayout`, ours: median(o.zoomMs), peer: median(p.zoomMs), bar: bar14 });
+      rows.push({ task: `${label}: pan by a tenth (shifted lookup + paint) vs axis relayout`, ours: median(o.panMs), peer: median(p.panMs), bar: bar14 });
+      rows.push({ task: `${label}: colour scale switch vs restyle`, ours: median(o.scaleMs), peer: median(p.scaleMs), bar: bar14 });
     }
     if (errors.length) throw new Error(`console errors on the bench page: ${errors.join(' | ')}`);
     return rows;
