@@ -126,8 +126,10 @@ async function main(): Promise<void> {
     return;
   }
   try {
-    setSession(await openSession(recipe));
-    status.say(`Opened ${recipe}.`);
+    const session = await openSession(recipe);
+    setSession(session);
+    const n = session.problems?.length ?? 0;
+    status.say(n ? `Opened ${recipe} with ${n} problem${n > 1 ? 's' : ''}: see the list in the sources panel.` : `Opened ${recipe}.`, n ? 'error' : 'info');
     document.body.dataset.ready = 'true';
   } catch (e) {
     status.say(errorText(e), 'error');

@@ -17,8 +17,10 @@ export function sourcesPanel(el: HTMLElement, say: Say): void {
     const path = await pickFile('Open a recipe', (e) => e.kind === 'recipe', ['json']);
     if (!path) return;
     try {
-      setSession(await openSession(path));
-      say(`Opened ${path}.`);
+      const session = await openSession(path);
+      setSession(session);
+      const n = session.problems?.length ?? 0;
+      say(n ? `Opened ${path} with ${n} problem${n > 1 ? 's' : ''}: see the list in the sources panel.` : `Opened ${path}.`, n ? 'error' : 'info');
     } catch (e) {
       say(e instanceof Error ? e.message : String(e), 'error');
     }
@@ -39,6 +41,14 @@ export function sourcesPanel(el: HTMLElement, say: Say): void {
       h('div', { class: 'recipe-line' }, h('strong', {}, s.title), s.modified ? h('span', { class: 'badge' }, 'changed') : null),
       h('p', { class: 'muted small path', title: s.recipePath }, s.recipePath),
       h('div', { class: 'row' }, openButton),
+      ...(s.problems?.length
+        ? [h(
+            'section',
+            { class: 'recipe-problems', id: 'recipe-problems', role: 'alert' },
+            h('h3', {}, `${s.problems.length} problem${s.problems.length > 1 ? 's' : ''} in this recipe`),
+            h('ul', {}, ...s.problems.map((p) => h('li', {}, h('code', {}, p.path), ': ', p.sentence))),
+          )]
+        : []),
       sourceBlock(s.reference, 'reference'),
       ...s.runs.map((r) => sourceBlock(r, 'run')),
       h('p', { class: 'muted small' }, `Common grid: ${s.grid.nx} × ${s.grid.ny} cells, ${s.grid.nz} levels to ${Math.round(s.grid.depthEdges[s.grid.nz])} m.`),

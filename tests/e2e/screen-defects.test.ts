@@ -3,9 +3,11 @@
 // Line view has a map of its own; focus stays where it was and the map takes the keyboard; undo and redo; controls
 // that do nothing are disabled with a reason; bad values are refused at the field. Screenshots go to
 // tests/e2e/screenshots/.
+import { readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { canRunBrowser, openWorkbench, type Workbench } from './harness.js';
+import { SAMPLE_DATA, canRunBrowser, openWorkbench, type Workbench } from './harness.js';
 
 const SLOW = 240_000;
 
@@ -145,4 +147,39 @@ describe.skipIf(!canRunBrowser)('issue 14 defects, in Chromium', () => {
     expect(wb.foreignRequests()).toEqual([]);
     expect(wb.consoleErrors).toEqual([]);
   });
+});
+
+describe.skipIf(!canRunBrowser)('2. a broken recipe lists every problem on open, each at its recipe path', () => {
+  const dir = SAMPLE_DATA;
+  const recipePath = join(dir, 'e2e-broken-recipe.json');
+  const textFile = join(dir, 'e2e-not-netcdf.nc');
+  let wb: Workbench;
+  beforeAll(async () => {
+    const recipe = JSON.parse(readFileSync(join(dir, 'demo-recipe.json'), 'utf8')) as { runs: { variables: Record<string, { file: string; name: string; units?: string }> }[] };
+    writeFileSync(textFile, 'this is a text file, not NetCDF\n');
+    recipe.runs[0].variables.PO4 = { file: 'e2e-not-netcdf.nc', name: 'po4' };
+    recipe.runs[1].variables.NO3 = { ...recipe.runs[1].variables.NO3, units: 'furlongs' };
+    recipe.runs[2].variables.SiO4 = { ...recipe.runs[2].variables.SiO4, name: 'no_such_variable' };
+    writeFileSync(recipePath, JSON.stringify(recipe, null, 2));
+    wb = await openWorkbench({ viewport: { width: 1600, height: 1000 }, serveArgs: ['--root', dir, '--recipe', recipePath] });
+    await wb.page.waitForSelector('body[data-ready]', { timeout: SLOW });
+  }, SLOW);
+  afterAll(async () => {
+    await wb?.close();
+    rmSync(recipePath, { force: true });
+    rmSync(textFile, { force: true });
+  });
+
+  it('does not say a plain "Opened", and shows all three problems in the sources panel', async () => {
+    const page = wb.page;
+    // the status line says so (once the background jobs of the first map have had their say)
+    await page.waitForFunction(() => /with 3 problems/.test(document.querySelector('#status')?.textContent ?? ''), undefined, { timeout: SLOW });
+    await page.waitForSelector('#recipe-problems');
+    const items = await page.$$eval('#recipe-problems li', (lis) => lis.map((l) => l.textContent ?? ''));
+    expect(items).toHaveLength(3);
+    expect(items.some((t) => t.startsWith('runs[0].variables.PO4') && /e2e-not-netcdf\.nc/.test(t))).toBe(true);
+    expect(items.some((t) => t.startsWith('runs[1].variables.NO3') && /furlongs/.test(t))).toBe(true);
+    expect(items.some((t) => t.startsWith('runs[2].variables.SiO4') && /no_such_variable/.test(t))).toBe(true);
+    await wb.shot('defect-2-recipe-problems');
+  }, SLOW);
 });
