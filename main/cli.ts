@@ -13,12 +13,14 @@ import { pointsCommand } from './commands/points.js';
 import { serveCommand, startCommand } from './commands/serve.js';
 import { makeDemoCommand } from './commands/make-demo.js';
 import { mergeCommand } from './commands/merge.js';
+import { reportCommand } from './commands/report.js';
 
 const commands: Command[] = [
   inspectCommand,
   regridCommand,
   compareCommand,
   mergeCommand,
+  reportCommand,
   spinupCommand,
   lineCommand,
   pointsCommand,

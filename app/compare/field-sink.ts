@@ -9,7 +9,8 @@ export interface FieldSinkInfo {
 }
 
 export interface LevelSink {
-  write(k: number, model: Float32Array, difference: Float32Array): Promise<void>;
+  /** `reference` is the reference's level k on the same grid (for sinks that draw it too) */
+  write(k: number, model: Float32Array, difference: Float32Array, reference?: Float32Array): Promise<void>;
   close(): Promise<void>;
   abort(): Promise<void>;
 }

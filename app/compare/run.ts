@@ -25,6 +25,8 @@ export interface CompareOptions {
   signal?: AbortSignal;
   /** keep the fields: called once per run × variable, then fed level by level */
   keepFields?: FieldSinkFactory;
+  /** called once a variable's rows are complete (before the next variable is opened), e.g. to draw its figures */
+  onVariable?: (info: VariableInfo, rows: SkillRow[]) => Promise<void>;
 }
 
 export interface InputFile {
@@ -75,6 +77,7 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
     if (opts.signal?.aborted) throw new StillwaterError('E_CANCELLED', 'The comparison was cancelled.');
     const variable = recipe.variables[vi];
     opts.onProgress?.(vi / recipe.variables.length, `${variable}: opening and regridding`);
+    const firstRow = rows.length;
     const pair = await openPair(recipe, variable, { cacheDir: opts.cacheDir, noteFile });
     try {
       const { grid, reference: ref } = pair;
@@ -121,7 +124,7 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
             if (sink) {
               const diff = new Float32Array(model.length);
               for (let c = 0; c < diff.length; c++) diff[c] = model[c] - refLevel[c];
-              await sink.write(k, model, diff);
+              await sink.write(k, model, diff, refLevel);
             }
           }
           opts.onProgress?.((vi + (k + 1) / nz) / recipe.variables.length, `${variable}: level ${k + 1} of ${nz}`);
@@ -153,6 +156,7 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
         costTerms[pair.runs[q].index].push({ variable, rmse: s.rmse, refMean: s.ref_mean });
       });
       variables.push(info);
+      await opts.onVariable?.(info, rows.slice(firstRow));
     } finally {
       await pair.close();
     }
