@@ -122,7 +122,7 @@ export function diagramsFigure(spec: DiagramsSpec): Figure {
   let ly = top + 10;
   ly += legend(g, lx, ly, spec.runs.map((r, i) => ({ label: r, colour: RUN_COLOURS[i % RUN_COLOURS.length], marker: 'square' as const })), 'Run (colour)') + 6;
   ly += legend(g, lx, ly, spec.regions.map((r, i) => ({ label: r, colour: '#6b7280', marker: REGION_MARKERS[i % REGION_MARKERS.length] })), 'Region (shape)') + 6;
-  legend(g, lx, ly, [{ label: `${spec.referenceLabel}`, colour: '#111111', marker: 'star' }]);
+  legend(g, lx, ly, [{ label: 'reference', colour: '#111111', marker: 'star' }]);
   if (skipped > 0) g.append(text(lx, ly + 16, `${skipped} without numbers`, { 'font-size': FONT_PT.tick, fill: MUTED }));
   if (spec.rows.length === 0) g.append(text(W / 2, top + 14 + size / 2, 'No compared cells in this layer', { 'text-anchor': 'middle', 'font-size': FONT_PT.label, class: 'no-data' }));
   svg.append(g);

@@ -77,7 +77,7 @@ export function charsIn(width: number, fontPt: number): number {
 
 /** Title (and a wrapped subtitle) at the top of a figure; returns the y below them. */
 export function figureTitle(svg: SvgNode, x: number, y: number, width: number, main: string, sub?: string): number {
-  const mainLines = wrap(main, charsIn(width, FONT_PT.title), 2);
+  const mainLines = wrap(main, Math.floor(charsIn(width, FONT_PT.title) * 0.85), 2);
   mainLines.forEach((line, i) => svg.append(text(x, y + i * (FONT_PT.title + 2), line, { 'font-size': FONT_PT.title, 'font-weight': 'bold', class: 'figure-title' })));
   let yy = y + (mainLines.length - 1) * (FONT_PT.title + 2) + 4;
   if (sub) {

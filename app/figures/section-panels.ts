@@ -143,7 +143,7 @@ export function sectionPanelsFigure(spec: SectionPanelsSpec): Figure {
     bottomAxis(axes, r, X, spec.xLabel, { ticks: 6, format: spec.formatX, grid: true });
     leftAxis(axes, r, Y, `${spec.quantity} (${units})`, { ticks: 4, grid: true });
     g.append(axes);
-    const items = spec.columnMeans.map((c, i) => ({ label: i === 0 ? `${c.label} (reference)` : c.label, colour: i === 0 ? INK : RUN_COLOURS[(i - 1) % RUN_COLOURS.length], marker: (i === 0 ? 'dash' : 'line') as 'dash' | 'line' }));
+    const items = spec.columnMeans.map((c, i) => ({ label: i === 0 ? 'reference' : c.label, colour: i === 0 ? INK : RUN_COLOURS[(i - 1) % RUN_COLOURS.length], marker: (i === 0 ? 'dash' : 'line') as 'dash' | 'line' }));
     spec.columnMeans.forEach((c, i) => {
       let d = '';
       let pen = false;
