@@ -21,11 +21,59 @@ export interface ErrorSubject {
   path?: string;
 }
 
+/** Longest name or attribute text shown in a message (longer ones are cut in the middle). */
+export const NAME_LIMIT = 80;
+/** Longest path shown in a message. */
+export const PATH_LIMIT = 200;
+/** Longest message: one sentence, never a page. */
+export const MESSAGE_LIMIT = 500;
+
+/**
+ * Text from a file or a person made safe to print on a console, in a page or in an output file: control
+ * characters (NUL, escape sequences, newlines), bidirectional overrides and lone surrogates shown as
+ * escapes, and text longer than `max` cut in the middle (the end of a path, the file name, stays).
+ * Every message goes through it (StillwaterError does so for the whole sentence as a last guard);
+ * names and attribute text are passed through it with their own, shorter limit where they are quoted.
+ */
+export function printable(text: string, max = NAME_LIMIT): string {
+  let out = '';
+  let shown = 0;
+  const chars = Array.from(String(text));
+  const keep = chars.length > max ? Math.max(1, max - 1) : chars.length;
+  const head = chars.length > max ? Math.ceil(keep / 2) : keep;
+  const tailFrom = chars.length > max ? chars.length - (keep - head) : chars.length;
+  for (let i = 0; i < chars.length; i++) {
+    if (i === head && head < tailFrom) {
+      out += '…';
+      i = tailFrom - 1;
+      continue;
+    }
+    out += escapeChar(chars[i]);
+    shown++;
+  }
+  return shown === 0 && chars.length > 0 ? '…' : out;
+}
+
+/** A name quoted for a sentence: 'name', printable and cut to NAME_LIMIT. */
+export function quoted(name: string): string {
+  return `'${printable(name, NAME_LIMIT)}'`;
+}
+
+function escapeChar(c: string): string {
+  const cp = c.codePointAt(0) ?? 0;
+  if (cp < 0x20 || (cp >= 0x7f && cp <= 0x9f)) return `\\x${cp.toString(16).padStart(2, '0')}`;
+  // bidirectional overrides and isolates reorder what follows; lone surrogates are not text
+  if ((cp >= 0x202a && cp <= 0x202e) || (cp >= 0x2066 && cp <= 0x2069) || (cp >= 0xd800 && cp <= 0xdfff) || cp === 0xfeff) {
+    return `\\u{${cp.toString(16)}}`;
+  }
+  return c;
+}
+
 export class StillwaterError extends Error {
   readonly code: ErrorCode;
   readonly subject: ErrorSubject;
   constructor(code: ErrorCode, sentence: string, subject: ErrorSubject = {}) {
-    super(sentence);
+    super(printable(sentence, MESSAGE_LIMIT));
     this.name = 'StillwaterError';
     this.code = code;
     this.subject = subject;
@@ -35,7 +83,11 @@ export class StillwaterError extends Error {
     return this.code !== 'E_INTERNAL';
   }
   toJSON(): { code: ErrorCode; message: string } & ErrorSubject {
-    return { code: this.code, message: this.message, ...this.subject };
+    const subject: ErrorSubject = {};
+    if (this.subject.file !== undefined) subject.file = printable(this.subject.file, PATH_LIMIT);
+    if (this.subject.variable !== undefined) subject.variable = printable(this.subject.variable, NAME_LIMIT);
+    if (this.subject.path !== undefined) subject.path = printable(this.subject.path, PATH_LIMIT);
+    return { code: this.code, message: this.message, ...subject };
   }
 }
 
@@ -43,8 +95,9 @@ export function isStillwaterError(e: unknown): e is StillwaterError {
   return e instanceof StillwaterError;
 }
 
-/** Shorthand used by readers: "<file>: <sentence>". */
+/** Shorthand used by readers: "<file>: <sentence>" (the path and the name made printable and cut). */
 export function fileError(code: ErrorCode, file: string, sentence: string, variable?: string): StillwaterError {
-  const where = variable ? `${file}, variable '${variable}'` : file;
+  const path = printable(file, PATH_LIMIT);
+  const where = variable !== undefined ? `${path}, variable ${quoted(variable)}` : path;
   return new StillwaterError(code, `${where}: ${sentence}`, { file, variable });
 }

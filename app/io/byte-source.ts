@@ -1,6 +1,6 @@
 import { readSync } from 'node:fs';
 import { open, stat, type FileHandle } from 'node:fs/promises';
-import { StillwaterError } from '../errors.js';
+import { fileError, StillwaterError } from '../errors.js';
 
 /**
  * Readers ask a ByteSource for ranges, so the same format code serves local files,
@@ -47,11 +47,11 @@ export class FileSource implements ByteSource {
     let size: number;
     try {
       const s = await stat(path);
-      if (!s.isFile()) throw new StillwaterError('E_FILE', `${path}: is not a regular file.`, { file: path });
+      if (!s.isFile()) throw fileError('E_FILE', path, 'is not a regular file.');
       size = s.size;
     } catch (e) {
       if (e instanceof StillwaterError) throw e;
-      throw new StillwaterError('E_FILE', `${path}: no such file.`, { file: path });
+      throw fileError('E_FILE', path, 'no such file.');
     }
     const handle = await open(path, 'r');
     return new FileSource(path, size, handle);
@@ -90,9 +90,5 @@ export class FileSource implements ByteSource {
 }
 
 function truncated(name: string, offset: number, length: number, size: number): StillwaterError {
-  return new StillwaterError(
-    'E_FORMAT',
-    `${name}: the file is truncated or damaged (needed bytes ${offset}..${offset + length}, the file has ${size}).`,
-    { file: name },
-  );
+  return fileError('E_FORMAT', name, `the file is truncated or damaged (needed bytes ${offset}..${offset + length}, the file has ${size}).`);
 }

@@ -9,7 +9,7 @@
  * without nodata, `_NoFill` says that no value is missing. No masking or scaling happens here.
  */
 import { GeoTIFF, type GeoTIFFImage } from 'geotiff';
-import { fileError, StillwaterError } from '../errors.js';
+import { fileError, printable, StillwaterError } from '../errors.js';
 import type { ByteSource } from './byte-source.js';
 import { allocArray } from './dtype.js';
 import { crsFromGeoKeys, type GeoKeys } from './geotiff-crs.js';
@@ -45,6 +45,9 @@ function dtypeOf(format: number, bits: number): DType | undefined {
   };
   return table[`${format}:${bits}`];
 }
+
+/** Largest raster side we read: 0.001° over the globe; a damaged size field becomes a sentence, not an allocation. */
+const MAX_SIDE = 360_000;
 
 interface MemVar extends RawVariable {
   data?: RawArray;
@@ -84,11 +87,32 @@ export async function openGeoTiff(source: ByteSource, path: string): Promise<Raw
     image = await tiff.getImage(0);
   } catch (e) {
     if (e instanceof StillwaterError) throw e;
-    throw fileError('E_FORMAT', path, `the TIFF file is damaged or truncated (${(e as Error).message}).`);
+    throw fileError('E_FORMAT', path, `the TIFF file is damaged or truncated (${printable((e as Error).message)}).`);
   }
+  try {
+    return await describeGeoTiff(source, path, tiff, image);
+  } catch (e) {
+    if (e instanceof StillwaterError) throw e;
+    // the `geotiff` package throws plain errors (or TypeErrors) on damaged tags: one sentence of ours instead
+    throw fileError('E_FORMAT', path, 'the TIFF tags are damaged (a size, type or GeoTIFF key cannot be read).');
+  }
+}
+
+/** A numeric GeoKey, or undefined when absent or damaged into another type. */
+function numericKey(keys: Record<string, unknown>, name: string): number | undefined {
+  const v = keys[name];
+  return typeof v === 'number' && Number.isFinite(v) ? v : undefined;
+}
+
+async function describeGeoTiff(source: ByteSource, path: string, tiff: GeoTIFF, image: GeoTIFFImage): Promise<RawDataset> {
   const width = image.getWidth();
   const height = image.getHeight();
   const bands = image.getSamplesPerPixel();
+  if (!Number.isInteger(width) || !Number.isInteger(height) || width < 1 || height < 1 || width > MAX_SIDE || height > MAX_SIDE) {
+    throw fileError('E_FORMAT', path, `its raster size (${width} × ${height} pixels) is damaged or beyond what we read (${MAX_SIDE} a side).`);
+  }
+  if (!Number.isInteger(bands) || bands < 1 || bands > 4096) throw fileError('E_FORMAT', path, `its number of bands (${bands}) is damaged.`);
+  checkBlockOffsets(image, path, width, height, bands);
   const dtype = dtypeOf(image.getSampleFormat(0), image.getBitsPerSample(0));
   if (!dtype) throw fileError('E_FORMAT', path, `its samples (format ${image.getSampleFormat(0)}, ${image.getBitsPerSample(0)} bits) are not a type we read.`);
   for (let b = 1; b < bands; b++) {
@@ -102,26 +126,33 @@ export async function openGeoTiff(source: ByteSource, path: string): Promise<Raw
   if (transform === 'rotated') throw fileError('E_FORMAT', path, 'its grid is rotated (ModelTransformation with rotation terms), which we do not read.');
   if (!transform) throw fileError('E_COORDS', path, 'it has no georeferencing (no ModelTiepoint/ModelPixelScale or ModelTransformation).');
 
-  const keys = (image.getGeoKeys() ?? {}) as GeoKeys as Record<string, number | undefined>;
-  const projected = keys.ProjectedCSTypeGeoKey;
-  const geographicCode = keys.GeographicTypeGeoKey;
-  const geographic = keys.GTModelTypeGeoKey === 2 || (keys.GTModelTypeGeoKey === undefined && projected === undefined && geographicCode !== undefined);
+  let keys: Record<string, unknown>;
+  try {
+    keys = (image.getGeoKeys() ?? {}) as Record<string, unknown>;
+  } catch {
+    throw fileError('E_FORMAT', path, 'its GeoTIFF key directory is damaged (a key points at a value that is not there).');
+  }
+  const projected = numericKey(keys, 'ProjectedCSTypeGeoKey');
+  const geographicCode = numericKey(keys, 'GeographicTypeGeoKey');
+  const modelType = numericKey(keys, 'GTModelTypeGeoKey');
+  const geographic = modelType === 2 || (modelType === undefined && projected === undefined && geographicCode !== undefined);
   const epsg = geographic ? geographicCode : projected;
-  const pixelIsPoint = keys.GTRasterTypeGeoKey === 2;
+  const pixelIsPoint = numericKey(keys, 'GTRasterTypeGeoKey') === 2;
+  const linearUnits = numericKey(keys, 'ProjLinearUnitsGeoKey');
 
   const [xName, yName] = geographic ? ['lon', 'lat'] : ['x', 'y'];
   const xAttrs: Attributes = geographic
     ? { units: 'degrees_east', standard_name: 'longitude', axis: 'X' }
-    : { units: keys.ProjLinearUnitsGeoKey === 9001 || keys.ProjLinearUnitsGeoKey === undefined ? 'm' : `EPSG:${keys.ProjLinearUnitsGeoKey}`, standard_name: 'projection_x_coordinate', axis: 'X' };
+    : { units: linearUnits === 9001 || linearUnits === undefined ? 'm' : `EPSG:${linearUnits}`, standard_name: 'projection_x_coordinate', axis: 'X' };
   const yAttrs: Attributes = geographic
     ? { units: 'degrees_north', standard_name: 'latitude', axis: 'Y' }
     : { ...xAttrs, standard_name: 'projection_y_coordinate', axis: 'Y' };
 
   const rasterAttrs: Attributes = {};
-  const nodata = image.getGDALNoData();
-  if (nodata !== null && nodata !== undefined && Number.isFinite(Number(nodata))) rasterAttrs._FillValue = [Number(nodata)];
+  const nodata = gdalNoData(image, path);
+  if (nodata !== undefined && Number.isFinite(nodata)) rasterAttrs._FillValue = [nodata];
   // without nodata GDAL treats every value as valid; NetCDF's default fill values must not mask any
-  else if (nodata === null || nodata === undefined) rasterAttrs._NoFill = 'true';
+  else if (nodata === undefined) rasterAttrs._NoFill = 'true';
   const packing = await bandPacking(image, bands, path);
   if (packing.scale !== undefined && packing.scale !== 1) rasterAttrs.scale_factor = [packing.scale];
   if (packing.offset !== undefined && packing.offset !== 0) rasterAttrs.add_offset = [packing.offset];
@@ -161,6 +192,43 @@ export async function openGeoTiff(source: ByteSource, path: string): Promise<Raw
   return new GeoTiffDataset(path, source, tiff, image, dims, variables);
 }
 
+/**
+ * GDAL_NODATA is ASCII text holding a number (GDAL's TIFF tag 42113); any other type is a damaged tag.
+ * Undefined when absent; NaN for a nodata of "nan".
+ */
+function gdalNoData(image: GeoTIFFImage, path: string): number | undefined {
+  const fd = image.fileDirectory as unknown as { hasTag?(name: string): boolean; getValue(name: string): unknown };
+  const raw = fd.hasTag && !fd.hasTag('GDAL_NODATA') ? undefined : fd.getValue('GDAL_NODATA');
+  if (raw === undefined || raw === null) return undefined;
+  if (typeof raw !== 'string') throw fileError('E_FORMAT', path, 'its GDAL_NODATA tag is not text holding a number (the tag is damaged).');
+  const text = raw.replace(/\0+$/, '').trim();
+  if (text === '') return undefined;
+  const value = Number(text);
+  if (Number.isNaN(value) && !/^nan$/i.test(text)) {
+    throw fileError('E_FORMAT', path, `its GDAL_NODATA tag ('${printable(text, 40)}') is not a number.`);
+  }
+  return value;
+}
+
+/**
+ * The strip or tile offset table must hold one entry per block (TIFF 6.0, sections 3 and 15); a damaged
+ * size or a damaged table would otherwise be read block by block far past the file.
+ */
+function checkBlockOffsets(image: GeoTIFFImage, path: string, width: number, height: number, bands: number): void {
+  const fd = image.fileDirectory as unknown as { getValue(name: string): unknown };
+  const tiled = image.isTiled;
+  const offsets = (tiled ? fd.getValue('TileOffsets') : fd.getValue('StripOffsets')) as ArrayLike<number> | number | undefined;
+  const counts = (tiled ? fd.getValue('TileByteCounts') : fd.getValue('StripByteCounts')) as ArrayLike<number> | number | undefined;
+  const n = (x: ArrayLike<number> | number | undefined): number => (typeof x === 'number' ? 1 : (x?.length ?? 0));
+  const tw = image.getTileWidth();
+  const th = image.getTileHeight();
+  const planes = image.planarConfiguration === 2 ? bands : 1;
+  const expected = tiled ? Math.ceil(width / tw) * Math.ceil(height / th) * planes : Math.ceil(height / th) * planes;
+  if (!Number.isFinite(expected) || n(offsets) < expected || n(counts) < expected) {
+    throw fileError('E_FORMAT', path, `its ${tiled ? 'tile' : 'strip'} table is damaged (${n(offsets)} entries for ${expected} ${tiled ? 'tiles' : 'strips'}).`);
+  }
+}
+
 class GeoTiffDataset implements RawDataset {
   readonly format = 'geotiff' as const;
   readonly attrs: Attributes = {};
@@ -193,7 +261,7 @@ class GeoTiffDataset implements RawDataset {
       const samples = Array.from({ length: nb }, (_, i) => b0 + i);
       planes = (await this.image.readRasters({ window: [x0, y0, x0 + nx, y0 + ny], samples, interleave: false })) as unknown as ArrayLike<number>[];
     } catch (e) {
-      throw fileError('E_FORMAT', this.path, `its raster cannot be read (${(e as Error).message}).`, name);
+      throw fileError('E_FORMAT', this.path, `its raster cannot be read (${printable((e as Error).message)}).`, name);
     }
     for (let b = 0; b < nb; b++) (out as Float64Array).set(planes[b], b * ny * nx);
     return out;

@@ -1,4 +1,4 @@
-import { StillwaterError } from '../errors.js';
+import { fileError } from '../errors.js';
 import type { ByteSource } from './byte-source.js';
 
 /**
@@ -19,11 +19,7 @@ export class HeaderCursor {
     const end = this.pos + n;
     if (end <= this.bufStart + this.buf.byteLength) return;
     if (end > this.source.size) {
-      throw new StillwaterError(
-        'E_FORMAT',
-        `${this.source.name}: the ${this.what} is truncated or damaged (it runs past the end of the file at byte ${this.source.size}).`,
-        { file: this.source.name },
-      );
+      throw fileError('E_FORMAT', this.source.name, `the ${this.what} is truncated or damaged (it runs past the end of the file at byte ${this.source.size}).`);
     }
     const len = Math.min(this.source.size - this.pos, Math.max(n, this.chunk));
     this.chunk *= 2;
@@ -69,6 +65,6 @@ export class HeaderCursor {
   }
 
   damaged(what: string): never {
-    throw new StillwaterError('E_FORMAT', `${this.source.name}: the ${this.what} is damaged (${what}).`, { file: this.source.name });
+    throw fileError('E_FORMAT', this.source.name, `the ${this.what} is damaged (${what}).`);
   }
 }

@@ -5,6 +5,7 @@
  * In CDF-5 every NON_NEG (counts, lengths, sizes, dimids) is 64-bit; in CDF-2 and CDF-5
  * the variable offsets `begin` are 64-bit.
  */
+import { quoted } from '../errors.js';
 import { bigEndianToHost, DTYPE_SIZE, toNumbers, viewArray } from './dtype.js';
 import type { ByteSource } from './byte-source.js';
 import { HeaderCursor } from './header-cursor.js';
@@ -84,7 +85,7 @@ export async function readCdf3Header(source: ByteSource): Promise<Cdf3Header> {
     for (let i = 0; i < n; i++) {
       const key = await name();
       const type = NC_TYPES[await c.u32()];
-      if (!type) c.damaged(`attribute '${key}' has an unknown type`);
+      if (!type) c.damaged(`attribute ${quoted(key)} has an unknown type`);
       const count = await nonNeg();
       const size = DTYPE_SIZE[type] * count;
       const raw = await c.bytes(size);
@@ -117,13 +118,13 @@ export async function readCdf3Header(source: ByteSource): Promise<Cdf3Header> {
     const dimIds: number[] = [];
     for (let d = 0; d < rank; d++) {
       const id = await nonNeg();
-      if (id >= dimensions.length) c.damaged(`variable '${vname}' refers to dimension ${id}`);
+      if (id >= dimensions.length) c.damaged(`variable ${quoted(vname)} refers to dimension ${id}`);
       dimIds.push(id);
     }
     const vattrs = await attributes();
     const attrTypes = types;
     const dtype = NC_TYPES[await c.u32()];
-    if (!dtype) c.damaged(`variable '${vname}' has an unknown type`);
+    if (!dtype) c.damaged(`variable ${quoted(vname)} has an unknown type`);
     await nonNeg(); // vsize: recomputed below, since it saturates for variables over 4 GiB
     const begin = await offset();
     const isRecord = rank > 0 && dimensions[dimIds[0]].unlimited;

@@ -15,7 +15,7 @@ import { fileError, StillwaterError } from '../errors.js';
 import { FileSource, type ByteSource } from './byte-source.js';
 import { allocArray, allocArrayForOverwrite, littleEndianToHost, bigEndianToHost, DTYPE_SIZE } from './dtype.js';
 import { hdf5Library, type Hdf5Library } from './hdf5-library.js';
-import { readChunkIndex } from './hdf5/chunk-index.js';
+import { MAX_CHUNK_BYTES, readChunkIndex } from './hdf5/chunk-index.js';
 import { ChunkStore, chunkMap, readChunked, type ChunkedVariable } from './hdf5/chunked-read.js';
 import { filtersWeUndo } from './hdf5/filters.js';
 import { decodeStorage, type StorageInfo } from './hdf5/layout.js';
@@ -109,8 +109,12 @@ export class Netcdf4Dataset implements RawDataset {
   private planFor(v: H5Variable): Promise<Plan> {
     let p = this.plans.get(v.name);
     if (!p) {
-      // a structure our own parser does not follow: the library still reads it
-      p = this.makePlan(v).catch((): Plan => ({ kind: 'library' }));
+      // a structure our own parser does not follow: the library still reads it (on its own thread, with a
+      // deadline); damage we recognise (a StillwaterError) is refused here
+      p = this.makePlan(v).catch((e: unknown): Plan => {
+        if (e instanceof StillwaterError) throw e;
+        return { kind: 'library' };
+      });
       this.plans.set(v.name, p);
     }
     return p;
@@ -125,10 +129,23 @@ export class Netcdf4Dataset implements RawDataset {
     if (layout.kind === 'contiguous') {
       if (storage.filters.length) return { kind: 'library' };
       const base = layout.address === UNDEFINED_ADDRESS ? UNDEFINED_ADDRESS : this.sb.baseAddress + layout.address;
+      if (base !== UNDEFINED_ADDRESS && base + v.shape.reduce((a, b) => a * b, 1) * v.elementSize > this.source.size) {
+        throw fileError('E_FORMAT', this.path, 'its data lie past the end of the file (the file is truncated or damaged).', v.name);
+      }
       return { kind: 'contiguous', address: base, fill: storage.fill };
     }
     if (layout.kind !== 'chunked' || !filtersWeUndo(storage.filters) || v.shape.length === 0) return { kind: 'library' };
-    const entries = await readChunkIndex(this.source, this.sb, layout, v.shape, v.elementSize);
+    const chunkBytes = layout.chunk.reduce((a, b) => a * b, 1) * v.elementSize;
+    if (layout.chunk.length !== v.shape.length || !layout.chunk.every((n) => Number.isInteger(n) && n >= 1) || chunkBytes > MAX_CHUNK_BYTES) {
+      throw fileError('E_FORMAT', this.path, `its chunk shape [${layout.chunk}] is damaged (it must have one size of at least 1 per dimension and at most ${MAX_CHUNK_BYTES / 2 ** 20} MiB).`, v.name);
+    }
+    let entries;
+    try {
+      entries = await readChunkIndex(this.source, this.sb, layout, v.shape, v.elementSize);
+    } catch (e) {
+      if (e instanceof StillwaterError) throw e;
+      throw fileError('E_FORMAT', this.path, `its chunk index is damaged (${(e as Error).message}).`, v.name);
+    }
     if (!entries) return { kind: 'library' };
     for (const e of entries) if (e.address !== UNDEFINED_ADDRESS) e.address += this.sb.baseAddress;
     return {

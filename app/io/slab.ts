@@ -1,17 +1,28 @@
-import { StillwaterError } from '../errors.js';
+import { fileError } from '../errors.js';
+import { DTYPE_SIZE } from './dtype.js';
 import type { RawArray, RawVariable } from './types.js';
+
+/**
+ * Most bytes one read may ask for. A level of a 0.1° global grid in float64 is 52 MB; a damaged shape asking
+ * for more is refused before anything is allocated.
+ */
+export const MAX_SLAB_BYTES = 1024 * 1024 * 1024;
 
 /** Validate start/count against a variable's shape, filling defaults. */
 export function checkSlab(file: string, v: RawVariable, start?: number[], count?: number[]): { s: number[]; c: number[] } {
   const s = start ?? v.shape.map(() => 0);
   const c = count ?? v.shape.map((n, i) => n - s[i]);
   if (s.length !== v.shape.length || c.length !== v.shape.length) {
-    throw new StillwaterError('E_INPUT', `${file}, variable '${v.name}': a slab needs ${v.shape.length} start and count values.`, { file, variable: v.name });
+    throw fileError('E_INPUT', file, `a slab needs ${v.shape.length} start and count values.`, v.name);
   }
   for (let i = 0; i < s.length; i++) {
     if (s[i] < 0 || c[i] < 0 || s[i] + c[i] > v.shape[i]) {
-      throw new StillwaterError('E_INPUT', `${file}, variable '${v.name}': slab [${s}]+[${c}] lies outside the shape [${v.shape}].`, { file, variable: v.name });
+      throw fileError('E_INPUT', file, `slab [${s}]+[${c}] lies outside the shape [${v.shape}].`, v.name);
     }
+  }
+  const bytes = c.reduce((a, b) => a * b, 1) * (DTYPE_SIZE[v.dtype] ?? 8);
+  if (bytes > MAX_SLAB_BYTES) {
+    throw fileError('E_FORMAT', file, `one read of shape [${c}] would take ${Math.round(bytes / 2 ** 20)} MiB, more than the ${MAX_SLAB_BYTES / 2 ** 20} MiB we read at once (its shape may be damaged).`, v.name);
   }
   return { s, c };
 }

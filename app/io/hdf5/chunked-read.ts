@@ -85,7 +85,7 @@ export class ChunkStore {
     } else {
       const raw = new Uint8Array(entry.size);
       await readIntoFrom(this.source, entry.address, raw);
-      data = v.filters.length ? decodeChunk(raw, v.filters, entry.filterMask, v.elementSize) : raw;
+      data = decodeChunk(raw, v.filters, entry.filterMask, v.elementSize, chunkBytes(v));
     }
     if (keep) this.cache.put(entry.address, data);
     return data;
@@ -98,11 +98,15 @@ export class ChunkStore {
     const job = (async () => {
       const raw = new Uint8Array(entry.size);
       await readIntoFrom(this.source, a, raw);
-      return v.filters.length ? decodeChunkAsync(raw, v.filters, entry.filterMask, v.elementSize) : raw;
+      return decodeChunkAsync(raw, v.filters, entry.filterMask, v.elementSize, chunkBytes(v));
     })();
     job.catch(() => undefined); // a failure surfaces when the chunk is asked for
     this.pending.set(a, job);
   }
+}
+
+function chunkBytes(v: ChunkedVariable): number {
+  return v.chunk.reduce((a, b) => a * b, 1) * v.elementSize;
 }
 
 /** Grid coordinates of the chunks a slab touches, C order. */

@@ -14,40 +14,65 @@ export function filtersWeUndo(filters: FilterStep[]): boolean {
   return filters.every((f) => KNOWN.has(f.id));
 }
 
-/** Decode one stored chunk: apply the pipeline backwards, skipping filters masked off for this chunk. */
-export function decodeChunk(raw: Uint8Array, filters: FilterStep[], filterMask: number, elementSize: number): Uint8Array {
+/**
+ * Decode one stored chunk: apply the pipeline backwards, skipping filters masked off for this chunk.
+ * `expected` is the chunk's size in bytes (product of chunk dimensions x element size): inflating never
+ * produces more (a damaged stream could otherwise inflate to gigabytes), and a result of another size is damage.
+ */
+export function decodeChunk(raw: Uint8Array, filters: FilterStep[], filterMask: number, elementSize: number, expected: number): Uint8Array {
   let bytes = raw;
   for (let i = filters.length - 1; i >= 0; i--) {
     if (filterMask & (1 << i)) continue;
     const f = filters[i];
     if (f.id === FILTER_DEFLATE) {
-      const b = inflateSync(bytes);
+      const b = inflateCapped(bytes, inflateLimit(expected));
       bytes = new Uint8Array(b.buffer, b.byteOffset, b.byteLength);
     } else if (f.id === FILTER_SHUFFLE) {
       bytes = unshuffle(bytes, f.clientData[0] ?? elementSize);
     } else if (f.id === FILTER_FLETCHER32) {
-      bytes = bytes.subarray(0, bytes.byteLength - 4);
+      bytes = bytes.subarray(0, Math.max(0, bytes.byteLength - 4));
     }
   }
+  return checkDecoded(bytes, expected);
+}
+
+/** A filter before deflate in the pipeline may add a little (fletcher32 its 4-byte checksum): allow for it. */
+function inflateLimit(expected: number): number {
+  return expected + 64;
+}
+
+function inflateCapped(bytes: Uint8Array, limit: number): Buffer {
+  try {
+    return inflateSync(bytes, { maxOutputLength: limit });
+  } catch (e) {
+    if ((e as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE') throw new Error(`a chunk inflates to more than ${limit} bytes`, { cause: e });
+    throw e;
+  }
+}
+
+function checkDecoded(bytes: Uint8Array, expected: number): Uint8Array {
+  if (bytes.byteLength !== expected) throw new Error(`a chunk decodes to ${bytes.byteLength} bytes instead of ${expected}`);
   return bytes;
 }
 
 /** As decodeChunk, with the inflate step run on Node's thread pool (for reading ahead). */
-export async function decodeChunkAsync(raw: Uint8Array, filters: FilterStep[], filterMask: number, elementSize: number): Promise<Uint8Array> {
+export async function decodeChunkAsync(raw: Uint8Array, filters: FilterStep[], filterMask: number, elementSize: number, expected: number): Promise<Uint8Array> {
   let bytes = raw;
   for (let i = filters.length - 1; i >= 0; i--) {
     if (filterMask & (1 << i)) continue;
     const f = filters[i];
     if (f.id === FILTER_DEFLATE) {
-      const b = await new Promise<Buffer>((resolve, reject) => inflate(bytes, (err, out) => (err ? reject(err) : resolve(out))));
+      const b = await new Promise<Buffer>((resolve, reject) =>
+        inflate(bytes, { maxOutputLength: inflateLimit(expected) }, (err, out) => (err ? reject(err) : resolve(out))),
+      );
       bytes = new Uint8Array(b.buffer, b.byteOffset, b.byteLength);
     } else if (f.id === FILTER_SHUFFLE) {
       bytes = unshuffle(bytes, f.clientData[0] ?? elementSize);
     } else if (f.id === FILTER_FLETCHER32) {
-      bytes = bytes.subarray(0, bytes.byteLength - 4);
+      bytes = bytes.subarray(0, Math.max(0, bytes.byteLength - 4));
     }
   }
-  return bytes;
+  return checkDecoded(bytes, expected);
 }
 
 /**

@@ -15,6 +15,8 @@ export const MSG_FILL_VALUE = 0x0005;
 export const MSG_LAYOUT = 0x0008;
 export const MSG_FILTER_PIPELINE = 0x000b;
 const MSG_CONTINUATION = 0x0010;
+/** More continuation blocks than any healthy header has: a damaged chain (or one that loops) stops here. */
+const MAX_BLOCKS = 256;
 
 export async function readObjectHeader(source: ByteSource, sb: Superblock, address: number): Promise<HeaderMessage[]> {
   const at = sb.baseAddress + address;
@@ -42,7 +44,11 @@ export async function readObjectHeader(source: ByteSource, sb: Superblock, addre
     throw new Error(`object header at ${address} has unknown version ${first[0]}`);
   }
 
+  const seen = new Set<number>();
   for (let b = 0; b < blocks.length; b++) {
+    if (b >= MAX_BLOCKS) throw new Error(`object header at ${address} has more than ${MAX_BLOCKS} continuation blocks`);
+    if (seen.has(blocks[b].at)) throw new Error(`object header at ${address} continues into a block it already read`);
+    seen.add(blocks[b].at);
     const { at: blockAt, length } = blocks[b];
     const bytes = await source.read(blockAt, length);
     const v = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);

@@ -20,6 +20,9 @@ export async function readSuperblock(source: ByteSource): Promise<Superblock | u
     if (!SIGNATURE.every((x, i) => b[i] === x)) continue;
     const v = new DataView(b.buffer, b.byteOffset, b.byteLength);
     const version = b[8];
+    const widths = version <= 1 ? [b[13], b[14]] : [b[9], b[10]];
+    // a damaged width is not ours to guess: the library reads (or refuses) such a file
+    if (!widths.every((w) => w === 2 || w === 4 || w === 8)) return undefined;
     if (version <= 1) {
       const sizeOfOffsets = b[13];
       const sizeOfLengths = b[14];
