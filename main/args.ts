@@ -1,4 +1,4 @@
-import { StillwaterError } from '../app/errors.js';
+import { quoted, StillwaterError } from '../app/errors.js';
 
 /** Parsed command-line options: --flag value, --flag=value, repeated flags collect, bare --switch is true. */
 export interface ParsedArgs {
@@ -46,8 +46,9 @@ export function required(args: ParsedArgs, name: string): string {
 export function optionalNumber(args: ParsedArgs, name: string): number | undefined {
   const v = optional(args, name);
   if (v === undefined) return undefined;
-  const n = Number(v);
-  if (!Number.isFinite(n)) throw new StillwaterError('E_INPUT', `Option --${name} must be a number, got '${v}'.`);
+  // Number('') and Number(' ') are 0: an empty value is refused, not taken as zero
+  const n = v.trim() === '' ? NaN : Number(v);
+  if (!Number.isFinite(n)) throw new StillwaterError('E_INPUT', `Option --${name} must be a number, got ${quoted(v)}.`);
   return n;
 }
 

@@ -13,6 +13,35 @@ import { formatPath } from './paths.js';
 import { recipeSchema, type LayerEntry, type ParsedRecipe, type RegionEntry } from './schema.js';
 import type { Recipe, ResolvedRegion, SourceSpec, VariableSource } from './types.js';
 
+/**
+ * Most cells of a regular common grid: 0.1° over the globe (3600 x 1800). A finer spacing (or a damaged one such
+ * as 1e-9) is refused before any grid is allocated. Documented in RECIPE.md.
+ */
+export const MAX_COMMON_GRID_CELLS = 3600 * 1800;
+
+/** A table keyed by names from the recipe: no prototype, so a key such as `constructor` finds only itself. */
+function table<T>(entries: Iterable<[string, T]>): Record<string, T> {
+  const out = Object.create(null) as Record<string, T>;
+  for (const [k, v] of entries) out[k] = v;
+  return out;
+}
+
+/** Keys a JSON object may not use: `__proto__` would be dropped or change the object's prototype on the way in. */
+function refuseProtoKeys(json: unknown): void {
+  const check = (obj: unknown, path: string): void => {
+    if (obj && typeof obj === 'object' && !Array.isArray(obj) && Object.prototype.hasOwnProperty.call(obj, '__proto__')) {
+      throw recipeError(path, "'__proto__' cannot be used as a name.");
+    }
+  };
+  const j = json as { reference?: { variables?: unknown }; runs?: { variables?: unknown }[]; options?: { derived?: unknown; units?: unknown } } | null;
+  if (!j || typeof j !== 'object') return;
+  check(j, 'recipe');
+  check(j.reference?.variables, 'reference.variables');
+  if (Array.isArray(j.runs)) j.runs.forEach((r, i) => check(r?.variables, `runs[${i}].variables`));
+  check(j.options?.derived, 'options.derived');
+  check(j.options?.units, 'options.units');
+}
+
 function recipeError(path: string, sentence: string): StillwaterError {
   return new StillwaterError('E_RECIPE', `${path}: ${sentence}`, { path });
 }
@@ -56,7 +85,7 @@ function existingFile(place: Place, file: string, path: string): string {
 
 function resolveSource(src: ParsedRecipe['reference'] | ParsedRecipe['runs'][number], path: string, place: Place): SourceSpec {
   const file = src.file ? existingFile(place, src.file, `${path}.file`) : undefined;
-  const variables: Record<string, VariableSource> = {};
+  const variables = table<VariableSource>([]);
   for (const [key, entry] of Object.entries(src.variables)) {
     const vpath = `${path}.variables${formatPath([key]).startsWith('[') ? '' : '.'}${formatPath([key])}`;
     const v = typeof entry === 'string' ? { name: entry } : entry;
@@ -91,6 +120,7 @@ export function layerFromEntry(l: LayerEntry): LayerSpec {
 /** Validate parsed JSON as a recipe; `baseDir` is the folder relative paths are taken from. */
 export function validateRecipe(json: unknown, baseDir: string, opts: ValidateOptions = {}): Recipe {
   const place: Place = { baseDir, confine: opts.confine };
+  refuseProtoKeys(json);
   const parsed = recipeSchema.safeParse(json);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
@@ -136,6 +166,16 @@ export function validateRecipe(json: unknown, baseDir: string, opts: ValidateOpt
       if (!refKeys.includes(key)) throw recipeError(`options.density.fields.${which}`, `the reference has no variable '${key}'.`);
     }
   }
+  if (typeof p.options.commonGrid === 'object') {
+    const { dlon, dlat } = p.options.commonGrid.regular;
+    const cells = Math.ceil(360 / dlon) * Math.ceil(180 / dlat);
+    if (!(cells <= MAX_COMMON_GRID_CELLS)) {
+      throw recipeError(
+        'options.commonGrid.regular',
+        `a ${dlon}° x ${dlat}° grid has ${Number.isFinite(cells) ? cells.toExponential(2) : 'too many'} cells, more than the ${MAX_COMMON_GRID_CELLS} (0.1° over the globe) a common grid may have.`,
+      );
+    }
+  }
   if (typeof p.options.commonGrid === 'object' && p.options.commonGrid.depthEdges) {
     const e = p.options.commonGrid.depthEdges;
     for (let k = 1; k < e.length; k++) {
@@ -149,7 +189,7 @@ export function validateRecipe(json: unknown, baseDir: string, opts: ValidateOpt
     runs,
     regions: p.regions.map((r, i) => resolveRegion(r, i, place)),
     layers: p.layers.map(layerFromEntry),
-    options: p.options,
+    options: { ...p.options, derived: table(Object.entries(p.options.derived)), units: table(Object.entries(p.options.units)) },
     variables: known,
     ...(p.report ? { report: p.report } : {}),
     ...(p.screen ? { screen: p.screen } : {}),

@@ -116,3 +116,32 @@ describe('recipe', () => {
     expect(again).toEqual(r);
   });
 });
+
+// Issue 16, item 9: keys are looked up in tables without a prototype; grids are refused before allocating.
+describe('recipe keys and grid sizes from hostile recipes', () => {
+  it('a variable key named constructor is an ordinary key; toString is not a variable of the reference', () => {
+    const j = JSON.parse(JSON.stringify(minimal())) as { reference: { variables: unknown }; runs: { variables: unknown }[] };
+    j.reference.variables = JSON.parse('{"constructor": {"file": "ref.nc", "name": "p"}}');
+    j.runs[0].variables = JSON.parse('{"constructor": {"file": "runA.nc", "name": "p"}}');
+    const r = validateRecipe(j, dir);
+    expect(r.variables).toEqual(['constructor']);
+    expect(r.reference.variables.constructor.name).toBe('p');
+    expect(r.reference.variables.toString).toBeUndefined();
+    expect(r.options.derived.constructor).toBeUndefined();
+    expect(r.options.units.valueOf).toBeUndefined();
+  });
+  it("a '__proto__' key is refused with its path", () => {
+    const j = JSON.parse('{"reference": {"variables": {"__proto__": {"file": "ref.nc"}}}, "runs": []}');
+    fails(j, /'__proto__' cannot be used as a name/, 'reference.variables');
+  });
+  for (const d of [1e-9, 5e-324, 0.05]) {
+    it(`a common grid spacing of ${d}° is refused before any grid is made`, () => {
+      const j = { ...minimal(), options: { commonGrid: { regular: { dlon: d, dlat: d } } } };
+      fails(j, /more than the 6480000 \(0\.1° over the globe\) a common grid may have/, 'options.commonGrid.regular');
+    });
+  }
+  it('0.1° over the globe, the documented limit, is accepted', () => {
+    const j = { ...minimal(), options: { commonGrid: { regular: { dlon: 0.1, dlat: 0.1 } } } };
+    expect(validateRecipe(j, dir).options.commonGrid).toMatchObject({ regular: { dlon: 0.1 } });
+  });
+});
