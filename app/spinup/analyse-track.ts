@@ -58,27 +58,24 @@ export function driftRate(input: TrackInput): DriftRate {
 }
 
 /**
- * Fit on the window, with the derived quantities a person asks about. The time to settle uses the measured
- * tail drift and the fitted τ: a first-order drift decays as e^(−t/τ), so from the rate r at the middle of
- * the tail it falls below the threshold after τ·ln(|r| / threshold). Built on the measured rate, it agrees
- * with the verdict by construction.
+ * Fit on the window, with the derived quantities a person asks about. The fit's drift decays as e^(−t/τ),
+ * so where the fit is constrained the time until it falls below the threshold has a closed form; the tail
+ * slope (a straight line over a window that can be long compared with τ) is kept as its own number.
+ * `scale` is what relative drifts are relative to (|tail mean|, in kelvin for temperatures).
  */
-export function describeFit(t: number[], x: number[], drift: DriftRate, thresholdPerKyr: number): FirstOrderFit | null {
+export function describeFit(t: number[], x: number[], drift: DriftRate, thresholdPerKyr: number, scale: number): FirstOrderFit | null {
   const raw = fitFirstOrder(t, x);
   if (!raw) return null;
   const lastYear = drift.toYear;
   const xLast = firstOrderValue(raw, lastYear);
   const remaining = raw.xInf - xLast;
+  const amplitude = raw.x0 - raw.xInf;
+  const driftPerKyr = ((-amplitude / raw.tau) * Math.exp(-(lastYear - raw.t0) / raw.tau)) * 1000;
   let yearsToSettle: number | null = null;
-  if (raw.constrained) {
-    const rate = Math.abs(drift.perKyr);
-    const middle = 0.5 * (drift.fromYear + drift.toYear);
-    if (rate <= thresholdPerKyr) yearsToSettle = 0;
-    else {
-      const settleAt = middle + raw.tau * Math.log(rate / thresholdPerKyr);
-      // a drift that the fitted τ says should be gone by now: a slower adjustment is at work, no estimate
-      yearsToSettle = settleAt > lastYear ? settleAt - lastYear : null;
-    }
+  if (raw.constrained && thresholdPerKyr > 0) {
+    const startRate = (Math.abs(amplitude) / raw.tau) * 1000;
+    const settleAt = startRate > thresholdPerKyr ? raw.t0 + raw.tau * Math.log(startRate / thresholdPerKyr) : raw.t0;
+    yearsToSettle = Math.max(0, settleAt - lastYear);
   }
   return {
     t0: raw.t0,
@@ -89,6 +86,8 @@ export function describeFit(t: number[], x: number[], drift: DriftRate, threshol
     remainingChange: remaining,
     remainingPercent: raw.xInf !== 0 ? (remaining / Math.abs(raw.xInf)) * 100 : null,
     yearsTo90: Math.max(0, raw.t0 + t90(raw.tau) - lastYear),
+    driftPerKyr,
+    driftPercentPerKyr: scale !== 0 ? (driftPerKyr / scale) * 100 : null,
     yearsToSettle,
     rmse: Math.sqrt(raw.sse / raw.n),
     n: raw.n,
@@ -121,7 +120,7 @@ export function analyseTrack(input: TrackInput): TrackAnalysis {
       fitNote: 'no fit: the track has no wet cell in some snapshot',
       turningYears: [],
       monotonic: true,
-      verdict: { status: 'undetermined', deepCaution: false, sentence: 'Undetermined: this region and layer hold no wet cell in some snapshot.' },
+      verdict: { status: 'undetermined', basis: 'tail slope', percentPerKyr: null, deepCaution: false, sentence: 'Undetermined: this region and layer hold no wet cell in some snapshot.' },
     };
   }
   const drift = driftRate(input);
@@ -132,7 +131,8 @@ export function analyseTrack(input: TrackInput): TrackAnalysis {
   const tw = t.slice(start);
   const xw = x.slice(start);
   // the threshold is relative to the same mean as the drift rate: the tail's
-  const thresholdPerKyr = (input.thresholdPercentPerKyr / 100) * Math.abs(drift.windowMean + (input.scaleZero ?? 0));
+  const scale = Math.abs(drift.windowMean + (input.scaleZero ?? 0));
+  const thresholdPerKyr = (input.thresholdPercentPerKyr / 100) * scale;
   const range = Math.max(...x) - Math.min(...x);
   let fit: FirstOrderFit | null = null;
   let fitNote: string;
@@ -143,7 +143,7 @@ export function analyseTrack(input: TrackInput): TrackAnalysis {
       ? `no fit: only ${tw.length} snapshots from the last turning point (model year ${yrs(t[lastTurn])}) on; a first-order fit needs ${MIN_FIT_POINTS}`
       : `no fit: ${tw.length} snapshots; a first-order fit needs ${MIN_FIT_POINTS}`;
   } else {
-    fit = describeFit(tw, xw, drift, thresholdPerKyr);
+    fit = describeFit(tw, xw, drift, thresholdPerKyr, scale);
     const span = `model years ${yrs(tw[0])}–${yrs(lastYear)}`;
     fitNote = lastTurn !== null
       ? `fit on the ${tw.length} snapshots of ${span}, after the last turning point (model year ${yrs(t[lastTurn])}), because the track overshoots and turns back`
@@ -167,15 +167,22 @@ function verdictFor(
   const ofMean = `of ${drift.relativeTo ?? 'the mean'}`;
   const parts: string[] = [];
   let status: TrackVerdict['status'];
-  if (drift.percentPerKyr === null) {
+  // a constrained fit knows the drift at the last snapshot; the tail slope averages over its window
+  const byFit = fit !== null && fit.constrained && fit.driftPercentPerKyr !== null;
+  const basis: TrackVerdict['basis'] = byFit ? 'first-order fit' : 'tail slope';
+  const judged = byFit ? fit.driftPercentPerKyr : drift.percentPerKyr;
+  const how = byFit
+    ? `by the first-order fit at model year ${yrs(lastYear)} (the tail slope ${over} is ${drift.percentPerKyr === null ? 'undefined' : `${fmtSigned(drift.percentPerKyr)} %`})`
+    : `by the tail slope ${over}`;
+  if (judged === null) {
     status = 'undetermined';
     parts.push(`Undetermined: the mean is zero, so a relative drift has no meaning; the drift is ${fmtSigned(drift.perKyr, 3)} ${input.units} per 1000 years ${over}.`);
-  } else if (Math.abs(drift.percentPerKyr) <= input.thresholdPercentPerKyr) {
+  } else if (Math.abs(judged) <= input.thresholdPercentPerKyr) {
     status = 'settled';
-    parts.push(`Settled: drift ${fmtSigned(drift.percentPerKyr, 3)} % ${ofMean} per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr, 3)} %).`);
+    parts.push(`Settled: drift ${fmtSigned(judged, 3)} % ${ofMean} per 1000 years ${how}; threshold ${fmt(input.thresholdPercentPerKyr, 3)} %.`);
   } else {
     status = 'drifting';
-    parts.push(`Still drifting: ${fmtSigned(drift.percentPerKyr, 3)} % ${ofMean} per 1000 years ${over} (threshold ${fmt(input.thresholdPercentPerKyr, 3)} %).`);
+    parts.push(`Still drifting: ${fmtSigned(judged, 3)} % ${ofMean} per 1000 years ${how}; threshold ${fmt(input.thresholdPercentPerKyr, 3)} %.`);
   }
   if (turningYears.length) {
     parts.push(`The track overshoots and turns back (turning point${turningYears.length > 1 ? 's' : ''} at model year ${turningYears.map(yrs).join(', ')}), so it is not monotonic; the fit uses only the snapshots after the last turning point.`);
@@ -186,9 +193,9 @@ function verdictFor(
     } else {
       const toSettle =
         fit.yearsToSettle === null
-          ? '; the drift measured now is larger than this τ allows, so a slower adjustment is at work and the time to settle cannot be estimated'
+          ? ''
           : fit.yearsToSettle > 0
-            ? `; about ${yrs(fit.yearsToSettle)} more model years until the drift falls below the threshold`
+            ? `; about ${yrs(fit.yearsToSettle)} more model years until the fit's drift falls below the threshold`
             : '';
       parts.push(
         `First-order fit from model year ${yrs(fit.t0)}: heading for ${fmt(fit.xInf, 3)} ${input.units} with τ = ${yrs(fit.tau)} years (90 % of the change takes ${yrs(fit.t90)} years; ${fit.yearsTo90 > 0 ? `${yrs(fit.yearsTo90)} more model years to get there` : 'already past that'})${toSettle}.`,
@@ -200,5 +207,5 @@ function verdictFor(
       `The run is only ${yrs(lastYear)} model years long: a spin-up much shorter than a few thousand years has not settled in the deep ocean (England 1995; common practice), so a small drift here may hide a slow deep adjustment.`,
     );
   }
-  return { status, deepCaution, sentence: parts.join(' ') };
+  return { status, basis, percentPerKyr: judged, deepCaution, sentence: parts.join(' ') };
 }

@@ -7,9 +7,9 @@ export function summarise(run: string, lastYear: number, tracks: SpinupTrack[]):
   const undetermined = tracks.filter((t) => t.verdict.status === 'undetermined').length;
   const shortForDeep = tracks.some((t) => t.verdict.deepCaution);
   const worst = [...drifting]
-    .sort((a, b) => Math.abs(b.drift?.percentPerKyr ?? 0) - Math.abs(a.drift?.percentPerKyr ?? 0))
+    .sort((a, b) => Math.abs(b.verdict.percentPerKyr ?? 0) - Math.abs(a.verdict.percentPerKyr ?? 0))
     .slice(0, 5)
-    .map((t) => ({ tracer: t.tracer, region: t.region, layer: t.layer, percentPerKyr: t.drift?.percentPerKyr ?? null, sentence: t.verdict.sentence }));
+    .map((t) => ({ tracer: t.tracer, region: t.region, layer: t.layer, percentPerKyr: t.verdict.percentPerKyr, sentence: t.verdict.sentence }));
   const settled = drifting.length === 0 && undetermined === 0 && !shortForDeep;
   const parts: string[] = [];
   if (drifting.length === 0) {

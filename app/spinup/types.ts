@@ -120,10 +120,13 @@ export interface FirstOrderFit {
   remainingPercent: number | null;
   /** model years after the last snapshot until 90 % of the change from x0 to x∞ is covered (0 when past) */
   yearsTo90: number;
+  /** the fit's own drift at the last snapshot, dx/dt = −(x0 − x∞)/τ·e^(−(t − t0)/τ), field units per 1000 years */
+  driftPerKyr: number;
+  /** that drift relative to the same mean as the tail slope's, per cent per 1000 years (null when that is zero) */
+  driftPercentPerKyr: number | null;
   /**
-   * model years after the last snapshot until the drift falls below the threshold: the measured tail rate
-   * decaying as e^(−t/τ). 0 when already below; null when the fit is unconstrained or its τ cannot explain
-   * the drift still measured (a slower adjustment at work).
+   * model years after the last snapshot until the fit's drift falls below the threshold, in closed form:
+   * t* = t0 + τ·ln(|x0 − x∞| / (τ·threshold)). 0 when already below; null when the fit is unconstrained.
    */
   yearsToSettle: number | null;
   /** root mean square of the residuals, field units */
@@ -143,6 +146,10 @@ export type VerdictStatus = 'settled' | 'drifting' | 'undetermined';
 
 export interface TrackVerdict {
   status: VerdictStatus;
+  /** the drift the verdict judged: the constrained first-order fit's drift at the last snapshot, else the tail slope */
+  basis: 'first-order fit' | 'tail slope';
+  /** that drift, per cent of the mean per 1000 years (null when undetermined) */
+  percentPerKyr: number | null;
   /** true when the track involves the deep ocean and the run is shorter than a few thousand years */
   deepCaution: boolean;
   /** one or two plain sentences */

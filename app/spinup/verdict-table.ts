@@ -13,14 +13,16 @@ export function fullVerdictTable(r: SpinupResult): string {
     t.layer,
     t.verdict.status,
     t.drift?.percentPerKyr == null ? MISSING : fmtSigned(t.drift.percentPerKyr, 3),
+    t.fit?.constrained && t.fit.driftPercentPerKyr !== null ? fmtSigned(t.fit.driftPercentPerKyr, 3) : MISSING,
+    t.verdict.basis === 'first-order fit' ? 'fit' : 'tail',
     t.fit?.constrained ? fmt(t.fit.xInf, 4) : '-',
     t.fit?.constrained ? years(t.fit.tau) : '-',
     t.fit?.yearsToSettle == null ? MISSING : years(t.fit.yearsToSettle),
     t.units,
     (t.monotonic ? '' : '~') + (t.verdict.deepCaution ? '!' : '') + (t.fit && !t.fit.constrained ? '?' : ''),
   ]);
-  const head = ['tracer', 'region', 'layer', 'verdict', '%/kyr', 'x_inf', 'tau_yr', 'yr_to_settle', 'units', ''];
-  const right = new Set([4, 5, 6, 7]);
+  const head = ['tracer', 'region', 'layer', 'verdict', 'tail_%/kyr', 'fit_%/kyr', 'judged_on', 'x_inf', 'tau_yr', 'yr_to_settle', 'units', ''];
+  const right = new Set([4, 5, 7, 8, 9]);
   const widths = head.map((h, i) => Math.max(h.length, ...rows.map((row) => row[i].length)));
   const line = (cells: string[]): string => cells.map((c, i) => (right.has(i) ? c.padStart(widths[i]) : c.padEnd(widths[i]))).join('  ').trimEnd();
   const lines = [
@@ -68,12 +70,14 @@ export function verdictTable(r: SpinupResult): string {
       : !f.constrained
         ? 'the fit cannot place its end yet (the tail still looks straight)'
         : `heading for ${fmt(f.xInf, 4)} ${t.units}, τ ${years(f.tau)} yr` +
+          (f.driftPercentPerKyr !== null ? `, drift now ${fmtSigned(f.driftPercentPerKyr, 3)} %/kyr by the fit` : '') +
           (t.verdict.status === 'drifting' ? (f.yearsToSettle == null ? ', time to settle not estimable' : `, about ${years(f.yearsToSettle)} more years to settle`) : '');
-    return `  ${tr}: ${t.verdict.status}${t.drift?.percentPerKyr != null ? ` (${fmtSigned(t.drift.percentPerKyr, 3)} %/kyr)` : ''}; ${fitText}`;
+    const tail = t.drift?.percentPerKyr != null ? `tail slope ${fmtSigned(t.drift.percentPerKyr, 3)} %/kyr, ` : '';
+    return `  ${tr}: ${t.verdict.status} (${tail}judged on the ${t.verdict.basis}); ${fitText}`;
   });
   const lines = [
     r.summary.sentence,
-    `Snapshots: ${r.years.length}, model years ${years(r.years[0])}–${years(r.years[r.years.length - 1])}. Drift over the tail in % of the mean per 1000 years; settled below ${fmt(r.settings.thresholdPercentPerKyr, 3)}.`,
+    `Snapshots: ${r.years.length}, model years ${years(r.years[0])}–${years(r.years[r.years.length - 1])}. Drift over the tail in % of the mean per 1000 years; settled below ${fmt(r.settings.thresholdPercentPerKyr, 3)}. The marks are the verdicts, judged on the first-order fit's drift at the last snapshot where the fit is constrained, else on the tail slope.`,
     '',
     line(head),
     ...rows.map(line),

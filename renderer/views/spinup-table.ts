@@ -3,7 +3,7 @@ import type { SpinupTrack } from '../../app/spinup/types.js';
 import { fmt, h, MISSING } from '../dom.js';
 import { sortableTable, type Column, type SortableTable } from '../widgets/sortable-table.js';
 
-export type SortKey = 'tracer' | 'region' | 'layer' | 'perKyr' | 'percent' | 'xInf' | 'tau' | 't90' | 'needed' | 'status';
+export type SortKey = 'tracer' | 'region' | 'layer' | 'perKyr' | 'percent' | 'fitPercent' | 'xInf' | 'tau' | 't90' | 'needed' | 'status';
 
 function sortValue(t: SpinupTrack, key: SortKey): number | string | null {
   switch (key) {
@@ -15,6 +15,8 @@ function sortValue(t: SpinupTrack, key: SortKey): number | string | null {
       return t.drift?.perKyr ?? null;
     case 'percent':
       return t.drift?.percentPerKyr ?? null;
+    case 'fitPercent':
+      return t.fit?.constrained ? t.fit.driftPercentPerKyr : null;
     case 'xInf':
       return t.fit?.xInf ?? null;
     case 'tau':
@@ -36,10 +38,11 @@ const COLUMN_TITLES: { key: SortKey; label: string; title: string; text?: boolea
   { key: 'layer', label: 'Layer', title: 'depth layer', text: true },
   { key: 'perKyr', label: 'Drift per 1000 yr', title: 'least-squares slope of the mean over the tail window, tracer units per 1000 model years' },
   { key: 'percent', label: 'Drift, % per 1000 yr', title: 'the slope in per cent of the mean over the tail window, per 1000 model years' },
+  { key: 'fitPercent', label: 'Fit drift now, % per 1000 yr', title: 'the constrained first-order fit\'s drift at the last snapshot, in per cent of the same mean; the verdict is judged on it where it exists, else on the tail slope' },
   { key: 'xInf', label: 'Fit x∞', title: 'value the first-order fit heads for' },
   { key: 'tau', label: 'τ (yr)', title: 'e-folding time of the first-order fit, model years' },
   { key: 't90', label: 't90 (yr)', title: 'τ·ln 10: years to cover 90 % of any remaining change' },
-  { key: 'needed', label: 'Years still needed', title: 'model years after the last snapshot until the drift falls below the threshold (– when the fit cannot say)' },
+  { key: 'needed', label: 'Years still needed', title: 'model years after the last snapshot until the first-order fit\'s drift falls below the threshold, in closed form (– when the fit cannot say)' },
   { key: 'status', label: 'Verdict', title: 'settled, still drifting or undetermined; non-monotonic tracks carry a note', text: true },
 ];
 
@@ -55,6 +58,8 @@ function cellOf(t: SpinupTrack, key: SortKey): HTMLTableCellElement {
       return h('td', { title: d ? `model years ${d.fromYear}–${d.toYear}, ${d.window}` : '' }, d ? `${fmt(d.perKyr, 3)} ${t.units}` : MISSING);
     case 'percent':
       return h('td', { title: d?.relativeTo ? `relative to ${d.relativeTo}` : '' }, d?.percentPerKyr !== null && d?.percentPerKyr !== undefined ? `${fmt(d.percentPerKyr, 3)} %` : MISSING);
+    case 'fitPercent':
+      return h('td', {}, f?.constrained && f.driftPercentPerKyr !== null ? `${fmt(f.driftPercentPerKyr, 3)} %` : MISSING);
     case 'xInf':
       return h('td', {}, f ? `${fmt(f.xInf, 4)} ${t.units}` : MISSING);
     case 'tau':
@@ -64,7 +69,7 @@ function cellOf(t: SpinupTrack, key: SortKey): HTMLTableCellElement {
     case 'needed':
       return h('td', {}, t.verdict.status === 'settled' ? '0' : f?.yearsToSettle !== null && f?.yearsToSettle !== undefined ? String(Math.round(f.yearsToSettle)) : MISSING);
     case 'status': {
-      const verdict = h('td', { class: `text verdict ${t.verdict.status}`, title: `${t.verdict.sentence} ${t.fitNote}`.trim(), 'data-status': t.verdict.status }, STATUS_TEXT[t.verdict.status]);
+      const verdict = h('td', { class: `text verdict ${t.verdict.status}`, title: `${t.verdict.sentence} ${t.fitNote}`.trim(), 'data-status': t.verdict.status, 'data-basis': t.verdict.basis }, `${STATUS_TEXT[t.verdict.status]} (${t.verdict.basis === 'first-order fit' ? 'fit' : 'tail'})`);
       if (notesOf(t).length) verdict.append(h('span', { class: 'verdict-flag' }, ' *'));
       return verdict;
     }

@@ -56,6 +56,36 @@ describe('drift rate and verdict', () => {
     expect(a.verdict.sentence).toMatch(/Still drifting/);
   });
 
+  it('with a tail long compared with τ, years to settle come from the fit in closed form, not from the tail slope', () => {
+    // x(t) = 2 − e^(−t/900) sampled every 100 years to year 3000, tail window 2000 years (exact for a
+    // first-order system: the drift is (1/900)·e^(−t/900) per year)
+    const tau = 900;
+    const t = years(31, 100);
+    const x = firstOrderSeries(t, 1, 2, tau);
+    const a = analyseTrack({ ...base, years: t, mean: x, inventory: x, tailYears: 2000 });
+    const f = a.fit!;
+    expect(f.constrained).toBe(true);
+    const thresholdPerYear = (0.001 * a.drift!.windowMean) / 1000;
+    const tStar = tau * Math.log(1 / tau / thresholdPerYear);
+    expect(Math.abs(f.yearsToSettle! - (tStar - 3000))).toBeLessThan(1);
+    // the fit's own drift now, and the tail slope, which averages the steeper early part of the window
+    const now = (1 / tau) * Math.exp(-3000 / tau) * 1000;
+    expect(f.driftPerKyr / now - 1).toBeCloseTo(0, 4);
+    expect(Math.abs(a.drift!.perKyr)).toBeGreaterThan(1.5 * Math.abs(now));
+    expect(a.verdict.basis).toBe('first-order fit');
+    expect(a.verdict.percentPerKyr).toBeCloseTo(f.driftPercentPerKyr!, 12);
+    expect(a.verdict.sentence).toMatch(/by the first-order fit at model year 3000 \(the tail slope over model years 1000–3000 is [+−-]?\d/);
+  });
+
+  it('without a constrained fit the verdict is judged on the tail slope and says so', () => {
+    const t = years(20, 100);
+    const x = t.map((y) => 10 + 0.001 * y);
+    const a = analyseTrack({ ...base, years: t, mean: x, inventory: x });
+    expect(a.verdict.basis).toBe('tail slope');
+    expect(a.verdict.percentPerKyr).toBe(a.drift!.percentPerKyr);
+    expect(a.verdict.sentence).toMatch(/by the tail slope over model years/);
+  });
+
   it('warns that a short run has not settled in the deep ocean (England 1995) when deep layers are involved', () => {
     const t = years(6, 100);
     const x = t.map(() => 5);
