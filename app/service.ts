@@ -5,13 +5,14 @@
  */
 import type { ServiceEntry } from './services/types.js';
 import { filesServices } from './services/files.js';
+import { viewExportServices } from './services/view-export.js';
 import { viewsServices } from './services/views.js';
 import { linesServices } from './services/lines.js';
 import { compareServices } from './services/compare.js';
 import { spinupServices } from './services/spinup.js';
 import { cfServices } from './services/cf.js';
 
-export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...linesServices, ...compareServices, ...cfServices, ...spinupServices];
+export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...viewExportServices, ...linesServices, ...compareServices, ...cfServices, ...spinupServices];
 
 export function findService(name: string): ServiceEntry | undefined {
   return serviceTable.find((e) => e.name === name);

@@ -14,7 +14,7 @@ export interface MapToolbar {
   show(st: AppState, choice: MapChoice | null): void;
 }
 
-export function mapToolbar(toolbar: HTMLElement, difference: boolean, st: AppState, zoom: (factor: number | null) => void): MapToolbar {
+export function mapToolbar(toolbar: HTMLElement, difference: boolean, st: AppState, zoom: (factor: number | null) => void, download: (format: 'csv' | 'netcdf') => void): MapToolbar {
   const fieldGroup = difference
     ? null
     : buttonGroup({ label: 'Field shown', options: [['model', 'Run'], ['reference', 'Reference']] as const, value: st.sel.mapField, onPick: (v) => choose({ mapField: v }) });
@@ -79,6 +79,12 @@ export function mapToolbar(toolbar: HTMLElement, difference: boolean, st: AppSta
     contourLabel,
     cropLabel,
     h('span', { class: 'segmented', role: 'group', 'aria-label': 'Zoom' }, zoomIn, zoomOut, reset),
+    h(
+      'span',
+      { class: 'segmented', role: 'group', 'aria-label': 'Download the field shown' },
+      h('button', { type: 'button', id: `${id}-download-csv`, title: 'The field shown, one row a cell (centre, bounds, value)', onclick: () => download('csv') }, 'CSV'),
+      h('button', { type: 'button', id: `${id}-download-netcdf`, title: 'The field shown as CF NetCDF on the common grid', onclick: () => download('netcdf') }, 'NetCDF'),
+    ),
     h('span', { class: 'toolbar-hint' }, 'Point to probe, click to pin; drag to pan, wheel to zoom; on the focused map, arrows move the probe.'),
   );
 

@@ -10,7 +10,8 @@ import type { MapProjection } from '../../app/render/projections.js';
 import { regionSkill } from '../../app/render/region-skill.js';
 import type { LevelData } from '../../contract/view-types.js';
 import { getLevel, getRegionCells } from '../data.js';
-import { fmt, h, s } from '../dom.js';
+import { call } from '../bridge.js';
+import { fmt, h, s, saveBlob } from '../dom.js';
 import { coastlines, coastlinesIfReady } from '../plot/coast.js';
 import { mapFigure, mapPlotRect, type MapFigure } from '../plot/map-figure.js';
 import { choose, commitPreview, preview, setProbe, state, type AppState } from '../state.js';
@@ -96,7 +97,34 @@ export function mapView(difference: boolean): ViewFactory {
       const [cx, cy] = at ?? [(cur.xmin + cur.xmax) / 2, (cur.ymin + cur.ymax) / 2];
       choose({ mapWindow: zoomWindow(full, state.sel.mapWindow, factor, cx, cy) });
     };
-    const bar = mapToolbar(toolbar, difference, state, (f) => zoom(f));
+    /** The field shown (cropped when cropped) as a file, written by the service that knows CF. */
+    const download = async (format: 'csv' | 'netcdf'): Promise<void> => {
+      const session = state.session;
+      if (!data || !session) return;
+      const base = mapChoice(state, data, difference, locked);
+      if (!base) return;
+      const shown = cropped(base, cells);
+      const label = difference ? `${data.run} minus ${session.reference.label}` : state.sel.mapField === 'model' ? data.run : session.reference.label;
+      const l = data.layer;
+      try {
+        const f = await call<{ fileName: string; mime: string; data: Uint8Array }>('view.export-slice', {
+          format,
+          variable: data.variable,
+          label,
+          units: data.units,
+          // plain arrays: the request is JSON (missing values travel as null)
+          lonEdges: Array.from(session.grid.lonEdges),
+          latEdges: Array.from(session.grid.latEdges),
+          depth: l.top !== null && l.bottom !== null ? [l.top, l.bottom] : null,
+          depthLabel: l.label,
+          values: Array.from(shown.values, (v) => (v === v ? v : null)),
+        });
+        saveBlob(new Blob([f.data as BlobPart], { type: f.mime }), f.fileName);
+      } catch (e) {
+        frame.say(errorText(e), 'error');
+      }
+    };
+    const bar = mapToolbar(toolbar, difference, state, (f) => zoom(f), (format) => void download(format));
     if (stations) toolbar.append(stations.control);
 
     const drawProbe = (): void => {

@@ -1,7 +1,11 @@
 // The workbench screen as issue 14 asks for it, in Debian's Chromium against browser mode: colour scales,
 // logarithmic stretch, clip arrows, a range shared by every run, contours; zoom, pan and reset; crop to a
 // region with its statistics beside the difference map. Screenshots go to tests/e2e/screenshots/.
-import type { Page } from 'playwright-core';
+import { spawnSync } from 'node:child_process';
+import { copyFileSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Download, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { canRunBrowser, openWorkbench, type Workbench } from './harness.js';
 
@@ -126,5 +130,61 @@ describe.skipIf(!canRunBrowser)('the screen: zoom, pan, crop, keyboard, refusals
     await page.click('#map-zoom-reset').catch(() => undefined);
     await page.click('#tab-map');
     await page.waitForSelector('.view-map [data-look]', { timeout: SLOW });
+  }, SLOW);
+});
+
+describe.skipIf(!canRunBrowser)('the screen: the field shown, downloaded', () => {
+  let wb: Workbench;
+  let page: Page;
+  const dir = mkdtempSync(join(tmpdir(), 'sw-export-'));
+  beforeAll(async () => {
+    wb = await openWorkbench({ viewport: { width: 1600, height: 1000 } });
+    page = wb.page;
+    await page.waitForSelector('body[data-ready="true"]', { timeout: SLOW });
+    await page.waitForSelector('.view-map [data-look]', { timeout: SLOW });
+  }, SLOW);
+  afterAll(async () => {
+    await wb?.close();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  const fetch = async (id: string, name: string): Promise<string> => {
+    const [d] = await Promise.all([page.waitForEvent('download', { timeout: 60_000 }), page.click(id)]);
+    const to = join(dir, name);
+    copyFileSync(await (d as Download).path(), to);
+    return to;
+  };
+
+  it('as CSV and as CF NetCDF that netCDF4-python reads to the same values, with CF coordinates and bounds', async () => {
+    const csvPath = await fetch('#field-download-csv', 'field.csv');
+    const ncPath = await fetch('#field-download-netcdf', 'field.nc');
+    const lines = readFileSync(csvPath, 'utf8').trim().split(/\r?\n/);
+    expect(lines[0]).toMatch(/^lon,lat,lon_min,lon_max,lat_min,lat_max,T \(degC\)$/);
+    // outside check: netCDF4-python (Debian) decodes the file (fill value to masked) and finds the CSV's values
+    const py = `
+import csv, json, sys, netCDF4, numpy as np
+ds = netCDF4.Dataset(sys.argv[1])
+v = ds.variables['T']
+a = v[:]
+rows = list(csv.reader(open(sys.argv[2])))[1:]
+lon = ds.variables['lon'][:]; lat = ds.variables['lat'][:]
+worst = 0.0
+for r in rows[::97]:
+    i = int(np.argmin(abs(lon - float(r[0])))); j = int(np.argmin(abs(lat - float(r[1]))))
+    worst = max(worst, abs(float(a[j, i]) - float(r[6])))
+print(json.dumps({"conventions": ds.Conventions, "units": v.units, "count": int(np.ma.count(a)), "rows": len(rows),
+  "lat_bounds": ds.variables['lat'].bounds, "lat_bnds0": [float(x) for x in ds.variables['lat_bnds'][0]], "depth": float(ds.variables['depth'][...]), "worst": worst}))
+`;
+    const r = spawnSync('/usr/bin/python3', ['-c', py, ncPath, csvPath], { encoding: 'utf8' });
+    expect(r.stderr).toBe('');
+    const got = JSON.parse(r.stdout) as { conventions: string; units: string; count: number; rows: number; lat_bounds: string; lat_bnds0: number[]; depth: number; worst: number };
+    expect(got.conventions).toBe('CF-1.10');
+    expect(got.units).toBe('degC');
+    expect(got.count).toBe(got.rows); // every cell with a value is a CSV row; missing cells are masked by _FillValue
+    expect(got.rows).toBe(lines.length - 1);
+    expect(got.lat_bounds).toBe('lat_bnds');
+    expect(got.lat_bnds0[1] - got.lat_bnds0[0]).toBeCloseTo(1, 9); // the demo's common grid is 1°
+    expect(got.depth).toBeGreaterThanOrEqual(0);
+    expect(got.worst).toBeLessThan(1e-4); // float32 in the file, shortest round-trip text in the CSV
   }, SLOW);
 });
