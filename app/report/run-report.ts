@@ -18,6 +18,7 @@ import type { Figure } from '../figures/parts.js';
 import { withResolution } from '../figures/png.js';
 import { spinupDriftFigure } from '../figures/spinup-drift.js';
 import { serialise } from '../figures/svg-tree.js';
+import { typesetUnits } from '../figures/typeset.js';
 import type { Grid } from '../grid/types.js';
 import { recipeToJson } from '../recipe/to-json.js';
 import type { Recipe, ResolvedRegion } from '../recipe/types.js';
@@ -164,7 +165,7 @@ export async function runReport(recipe: Recipe, opts: ReportOptions): Promise<Re
         collectors.delete(info.variable);
         const data = c.result();
         const regions = [...new Set(rows.map((r) => r.region))];
-        const section: HtmlSection = { heading: `${info.variable} (${info.units})`, figures: [], rows };
+        const section: HtmlSection = { heading: `${info.variable} (${typesetUnits(info.units)})`, figures: [], rows };
         if (info.conversions.length) section.intro = `Conversions: ${info.conversions.map((x) => `${x.source}: ${x.note}`).join('; ')}.`;
         for (const f of variableFigures(data, rows, { ...ctxBase, regions, layers: compared.layers })) section.figures.push(await writeFigure(f));
         written.push(section);
@@ -235,7 +236,7 @@ export async function runReport(recipe: Recipe, opts: ReportOptions): Promise<Re
       compared: [
         ['Reference', recipe.reference.label],
         ['Runs', recipe.runs.map((r) => r.label).join('; ')],
-        ['Variables', result.variables.map((v) => `${v.variable} (${v.units})`).join(', ')],
+        ['Variables', result.variables.map((v) => `${v.variable} (${typesetUnits(v.units)})`).join(', ')],
         ['Common grid', v0 ? `${v0.grid.kind}, ${v0.grid.nx} × ${v0.grid.ny} cells, ${v0.grid.nz} levels (${typeof recipe.options.commonGrid === 'string' ? "the reference's grid" : 'a regular grid set by the recipe'}), ${recipe.options.method} regridding` : '—'],
         ['Density', recipe.options.density === 'nominal' ? `nominal, ${recipe.options.nominalDensity} kg m⁻³` : `TEOS-10 from ${recipe.options.density.fields.temperature} and ${recipe.options.density.fields.salinity}`],
         ['Coverage threshold', `a common-grid cell gets a value when at least ${Math.round(recipe.options.coverage * 100)} % of it is covered`],

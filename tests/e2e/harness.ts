@@ -22,7 +22,7 @@ export const PROJECT = existsSync(join(process.cwd(), 'main', 'cli.ts')) ? proce
 export const SAMPLE_DATA = join(PROJECT, 'sample-data');
 export const SCREENSHOTS = join(PROJECT, 'tests', 'e2e', 'screenshots');
 export const CHROMIUM = '/usr/bin/chromium';
-const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'];
+export const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'];
 
 /** Several test files start at once: one build (and demo generation) at a time, no build while dist/ is fresh. */
 async function buildAndDemo(): Promise<void> {
