@@ -1,4 +1,5 @@
 import type { Grid } from '../grid/types.js';
+import type { FileGrid } from './file-grid.js';
 import type { ParsedUnits } from './units.js';
 
 /** One decoded time coordinate value. */
@@ -42,6 +43,8 @@ export interface FieldSource {
   readLevel(t: number, k: number): Promise<Float32Array>;
   /** the same level in the field's full `dtype` (what reports of values and exact outputs use) */
   readLevelExact?(t: number, k: number): Promise<Float32Array | Float64Array>;
+  /** the grid's coordinates as the file stores them (names, order, types, attributes, bounds), read on request */
+  fileGrid?(): Promise<FileGrid>;
   /** release the file behind the field (set by openField; absent for fields over a caller's dataset) */
   close?(): Promise<void>;
 }

@@ -15,6 +15,7 @@ import type { FieldSource, TimeAxis } from './field.js';
 import { discoverCoordinates } from './coords.js';
 import { decodeCoordinate, decodeValues } from './decode.js';
 import { decodedType } from './unpack.js';
+import { readFileGrid } from './file-grid.js';
 import { NotMonotonic, deriveEdges, edgesFromBounds, orderLongitudes, orderMonotonic, type OrderedAxis } from './axis-order.js';
 import { parseUnits, type ParsedUnits } from './units.js';
 import { decodeTimeAxis } from './time.js';
@@ -100,6 +101,15 @@ export async function fieldFromDataset(ds: RawDataset, variable: string, opts: O
       return decoded instanceof Float32Array ? decoded : Float32Array.from(decoded);
     },
     readLevelExact: (t: number, k: number) => readDecoded(t, k),
+    fileGrid: () =>
+      readFileGrid(ds, [coords.lat!, coords.lon!, ...(vertical ? [coords.vertical!] : [])], {
+        yDim: layout.yDim,
+        xDim: layout.xDim,
+        rows: layout.rows,
+        cols: layout.cols,
+        vertical: vertical ? { dim: vertical.dim, fileIndex: vertical.order.fileIndex } : null,
+        roles: { lat: coords.lat!.name, lon: coords.lon!.name, ...(vertical ? { vertical: coords.vertical!.name } : {}) },
+      }),
   };
   async function readDecoded(t: number, k: number): Promise<Float32Array | Float64Array> {
     if (!Number.isInteger(t) || t < 0 || t >= nt) throw fileError('E_INPUT', file, `has no time step ${t} (there are ${nt}).`, variable);

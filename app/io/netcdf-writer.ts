@@ -16,6 +16,8 @@ export interface WriteVariable {
   dims: string[];
   dtype: WritableDType;
   attrs?: Attributes;
+  /** stored types of numeric attributes (default: the variable's type for CF's value attributes, else double) */
+  attrTypes?: Record<string, WritableDType>;
 }
 
 export interface WriteHeader {
@@ -101,7 +103,7 @@ function encodeValues(dtype: WritableDType, values: ArrayLike<number>): Uint8Arr
   return out;
 }
 
-function writeAttributes(h: HeaderBuilder, attrs: Attributes, varType?: WritableDType): void {
+function writeAttributes(h: HeaderBuilder, attrs: Attributes, varType?: WritableDType, attrTypes?: Record<string, WritableDType>): void {
   const entries = Object.entries(attrs);
   if (entries.length === 0) {
     h.int32(0);
@@ -112,11 +114,11 @@ function writeAttributes(h: HeaderBuilder, attrs: Attributes, varType?: Writable
   h.int32(entries.length);
   for (const [key, value] of entries) {
     h.name(key);
-    writeAttributeValue(h, key, value, varType);
+    writeAttributeValue(h, key, value, varType, attrTypes?.[key]);
   }
 }
 
-function writeAttributeValue(h: HeaderBuilder, key: string, value: AttrValue, varType?: WritableDType): void {
+function writeAttributeValue(h: HeaderBuilder, key: string, value: AttrValue, varType?: WritableDType, stored?: WritableDType): void {
   if (typeof value === 'string') {
     const b = new TextEncoder().encode(value);
     h.int32(TYPE_CODE.char);
@@ -124,7 +126,7 @@ function writeAttributeValue(h: HeaderBuilder, key: string, value: AttrValue, va
     h.bytes(b);
     return;
   }
-  const t: WritableDType = varType && varType !== 'char' && TYPED_LIKE_VARIABLE.has(key) ? varType : 'f8';
+  const t: WritableDType = stored && stored !== 'char' ? stored : varType && varType !== 'char' && TYPED_LIKE_VARIABLE.has(key) ? varType : 'f8';
   h.int32(TYPE_CODE[t]);
   h.int32(value.length);
   h.bytes(encodeValues(t, value));
@@ -183,7 +185,7 @@ export async function createNetcdf(path: string, header: WriteHeader): Promise<N
         h.name(v.name);
         h.int32(v.dims.length);
         for (const d of v.dims) h.int32(header.dimensions.findIndex((x) => x.name === d));
-        writeAttributes(h, v.attrs ?? {}, v.dtype);
+        writeAttributes(h, v.attrs ?? {}, v.dtype, v.attrTypes);
         h.int32(TYPE_CODE[v.dtype]);
         h.int32(Math.min(vsizes[i], 2 ** 32 - 4));
         h.int64(begins[i]);

@@ -10,6 +10,8 @@ import type { Attributes } from '../io/types.js';
 import { convertLevel } from '../ocean/convert.js';
 import type { RemapMethod } from './csr.js';
 import { regridField, type RegriddedField } from './field.js';
+import { outputGridFromFile, ownOutputGrid } from './output-grid.js';
+import type { FileGrid } from '../cf/file-grid.js';
 
 /** NaN is written as NetCDF's default fill value for floats, declared as _FillValue (app/cf/encode.ts). */
 const ENCODING = floatEncoding('f4');
@@ -23,6 +25,8 @@ export interface WriteRegriddedOptions {
   oxygen: boolean;
   cacheDir: string | null;
   targetFile: string;
+  /** the target's coordinates as its file stores them: the output is written on that grid as the file has it */
+  targetFileGrid?: FileGrid;
   history: string;
   progress?: (done: number, total: number) => void;
 }
@@ -53,55 +57,38 @@ export async function writeRegridded(src: FieldSource, target: Grid, outPath: st
   const r = await regridField(src, target, { method: opts.method, coverage: opts.coverage, vertical: opts.vertical, cacheDir: opts.cacheDir });
   const h = target.horizontal;
   const v = r.grid.vertical;
-  const rect = h.kind === 'rectilinear' && !!h.axes;
-  const yDim = rect ? 'lat' : 'y', xDim = rect ? 'lon' : 'x';
+  const og = (opts.targetFileGrid && outputGridFromFile(opts.targetFileGrid, target, v)) || ownOutputGrid(target, v);
   const dims: { name: string; size: number }[] = [];
   const lead: string[] = [];
   if (src.time) {
     dims.push({ name: 'time', size: src.nt });
     lead.push('time');
   }
-  if (v) {
-    dims.push({ name: 'depth', size: v.nz });
-    lead.push('depth');
-  }
-  dims.push({ name: yDim, size: h.ny }, { name: xDim, size: h.nx }, { name: 'nv', size: 2 });
-  if (!rect) dims.push({ name: 'nv4', size: 4 });
+  if (og.zDim) lead.push(og.zDim);
+  dims.push(...og.dimensions.filter((d) => d.name !== 'time'));
 
   const vars: WriteVariable[] = [];
   if (src.time) vars.push({ name: 'time', dims: ['time'], dtype: 'f8', attrs: { standard_name: 'time', units: src.time.units, calendar: src.time.calendar, axis: 'T' } });
-  if (v) {
-    vars.push({ name: 'depth', dims: ['depth'], dtype: 'f8', attrs: { standard_name: 'depth', units: 'm', positive: 'down', axis: 'Z', bounds: 'depth_bnds' } });
-    vars.push({ name: 'depth_bnds', dims: ['depth', 'nv'], dtype: 'f8', attrs: { units: 'm' } });
-  }
-  if (rect) {
-    vars.push({ name: 'lat', dims: ['lat'], dtype: 'f8', attrs: { standard_name: 'latitude', units: 'degrees_north', axis: 'Y', bounds: 'lat_bnds' } });
-    vars.push({ name: 'lat_bnds', dims: ['lat', 'nv'], dtype: 'f8', attrs: { units: 'degrees_north' } });
-    vars.push({ name: 'lon', dims: ['lon'], dtype: 'f8', attrs: { standard_name: 'longitude', units: 'degrees_east', axis: 'X', bounds: 'lon_bnds' } });
-    vars.push({ name: 'lon_bnds', dims: ['lon', 'nv'], dtype: 'f8', attrs: { units: 'degrees_east' } });
-  } else {
-    vars.push({ name: 'lat', dims: ['y', 'x'], dtype: 'f8', attrs: { standard_name: 'latitude', units: 'degrees_north', bounds: 'lat_bnds' } });
-    vars.push({ name: 'lat_bnds', dims: ['y', 'x', 'nv4'], dtype: 'f8', attrs: { units: 'degrees_north' } });
-    vars.push({ name: 'lon', dims: ['y', 'x'], dtype: 'f8', attrs: { standard_name: 'longitude', units: 'degrees_east', bounds: 'lon_bnds' } });
-    vars.push({ name: 'lon_bnds', dims: ['y', 'x', 'nv4'], dtype: 'f8', attrs: { units: 'degrees_east' } });
-  }
+  vars.push(...og.variables.filter((x) => x.name !== 'time'));
   const unitsText = opts.units ? opts.units.text : src.units.text;
-  const dataDims = [...lead, yDim, xDim];
+  const dataDims = [...lead, og.yDim, og.xDim];
+  // a variable inside a NetCDF-4 group is named by its path; the output is flat
+  const dataName = uniqueName(src.variable.split('/').filter(Boolean).pop() ?? src.variable, vars.map((x) => x.name));
   const dataAttrs: Attributes = { units: unitsText, ...encodingAttributes(ENCODING) };
   if (src.standardName) dataAttrs.standard_name = src.standardName;
   if (src.longName) dataAttrs.long_name = src.longName;
-  if (!rect) dataAttrs.coordinates = 'lat lon';
+  if (og.coordinates) dataAttrs.coordinates = og.coordinates;
   dataAttrs.regrid_method = opts.method + (r.verticalMethod !== 'none' ? `; vertical ${r.verticalMethod}` : '');
   if (opts.method === 'conservative') dataAttrs.cell_methods = 'area: mean';
-  const coverageName = uniqueName(`${src.variable}_coverage`, vars.map((x) => x.name).concat(src.variable));
+  const coverageName = uniqueName(`${dataName}_coverage`, vars.map((x) => x.name).concat(dataName));
   const coverageAttrs: Attributes = {
     units: '1',
     long_name: `fraction of the target cell covered by valid values of ${src.variable}`,
     valid_range: [0, 1],
     ...encodingAttributes(ENCODING),
   };
-  if (!rect) coverageAttrs.coordinates = 'lat lon';
-  vars.push({ name: src.variable, dims: dataDims, dtype: 'f4', attrs: dataAttrs });
+  if (og.coordinates) coverageAttrs.coordinates = og.coordinates;
+  vars.push({ name: dataName, dims: dataDims, dtype: 'f4', attrs: dataAttrs });
   vars.push({ name: coverageName, dims: dataDims, dtype: 'f4', attrs: coverageAttrs });
 
   const globalAttrs: Attributes = {
@@ -122,7 +109,8 @@ export async function writeRegridded(src: FieldSource, target: Grid, outPath: st
     throw e;
   }
   try {
-    await writeCoordinates(writer, src, target, r.grid.vertical, rect);
+    if (src.time) await writer.write('time', Float64Array.from(src.time.values.map((x) => x.value)));
+    await og.writeCoordinates(writer);
     const nz = v ? v.nz : 1;
     const total = src.nt * nz;
     let valid = 0;
@@ -136,9 +124,9 @@ export async function writeRegridded(src: FieldSource, target: Grid, outPath: st
           note ??= conv.note;
         }
         for (let i = 0; i < values.length; i++) if (values[i] === values[i]) valid++;
-        const start = [...(src.time ? [t] : []), ...(v ? [k] : []), 0, 0];
-        await writer.write(src.variable, encodeValues(values, ENCODING), start);
-        await writer.write(coverageName, level.coverage, start);
+        const start = [...(src.time ? [t] : []), ...(og.zDim ? [og.levelIndex(k)] : []), 0, 0];
+        await writer.write(dataName, encodeValues(og.toFileOrder(values), ENCODING), start);
+        await writer.write(coverageName, og.toFileOrder(level.coverage), start);
         opts.progress?.(t * nz + k + 1, total);
       }
     }
@@ -175,34 +163,4 @@ function uniqueName(name: string, taken: string[]): string {
   let n = name;
   while (taken.includes(n)) n += '_';
   return n;
-}
-
-async function writeCoordinates(w: NetcdfWriter, src: FieldSource, target: Grid, vertical: Grid['vertical'], rect: boolean): Promise<void> {
-  const h = target.horizontal;
-  if (src.time) await w.write('time', Float64Array.from(src.time.values.map((x) => x.value)));
-  if (vertical) {
-    await w.write('depth', vertical.centres);
-    const b = new Float64Array(2 * vertical.nz);
-    for (let k = 0; k < vertical.nz; k++) [b[2 * k], b[2 * k + 1]] = [vertical.edges[k], vertical.edges[k + 1]];
-    await w.write('depth_bnds', b);
-  }
-  if (rect) {
-    const ax = h.axes!;
-    await w.write('lat', ax.lat);
-    await w.write('lon', ax.lon);
-    await w.write('lat_bnds', pairs(ax.latEdges));
-    await w.write('lon_bnds', pairs(ax.lonEdges));
-  } else {
-    await w.write('lat', h.lat);
-    await w.write('lon', h.lon);
-    await w.write('lat_bnds', h.cornerLat);
-    await w.write('lon_bnds', h.cornerLon);
-  }
-}
-
-function pairs(edges: Float64Array): Float64Array {
-  const n = edges.length - 1;
-  const out = new Float64Array(2 * n);
-  for (let i = 0; i < n; i++) [out[2 * i], out[2 * i + 1]] = [edges[i], edges[i + 1]];
-  return out;
 }

@@ -70,6 +70,7 @@ export const regridCommand: Command = {
         oxygen: isOxygen(src),
         cacheDir: optional(args, 'cache-dir') ?? defaultCacheDir(),
         targetFile: target,
+        targetFileGrid: await tgt.fileGrid?.(),
         history: `stillwater regrid ${argv.join(' ')}`,
         progress: (done, total) => {
           if (done === total || done % Math.max(1, Math.round(total / 10)) === 0) err(`regrid: level ${done} of ${total}`);
