@@ -17,6 +17,10 @@ export interface TimeAxis {
   units: string;
   calendar: string;
   values: DecodedTime[];
+  /** the steps' CF bounds in the file's units, [start, end] per step (absent when the file has none) */
+  bounds?: Float64Array;
+  /** the bounds are CF climatology bounds (CF 1.10 §7.4): a step is a time of year over many years */
+  climatology?: boolean;
 }
 
 /**

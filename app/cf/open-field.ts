@@ -333,7 +333,15 @@ async function timeAxis(ds: RawDataset, v: RawVariable, c: RawVariable): Promise
   const values = await readCoordinate(ds, c);
   const units = attrString(c.attrs, 'units') ?? '';
   try {
-    return { dim: c.dims[0], axis: decodeTimeAxis(c.name, values, units, attrString(c.attrs, 'calendar')), size: values.length };
+    const axis = decodeTimeAxis(c.name, values, units, attrString(c.attrs, 'calendar'));
+    // CF 1.10 §7.4: a climatological time axis names its bounds by `climatology` instead of `bounds`
+    const climName = attrString(c.attrs, 'climatology')?.trim();
+    const b = climName ? findVariable(ds, climName) : boundsVariable(ds, c);
+    if (b && b.shape.length === 2 && b.shape[0] === values.length && b.shape[1] === 2) {
+      axis.bounds = await readCoordinate(ds, b);
+      if (climName) axis.climatology = true;
+    }
+    return { dim: c.dims[0], axis, size: values.length };
   } catch (e) {
     if (isStillwaterError(e)) throw fileError(e.code, ds.path, `its time coordinate '${c.name}': ${e.message}`, v.name);
     throw e;

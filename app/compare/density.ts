@@ -10,7 +10,9 @@ import type { Grid } from '../grid/types.js';
 import { pressureFromDepth } from '../ocean/density.js';
 import type { Recipe, VariableSource } from '../recipe/types.js';
 import { makeLevelConverter, type DensityInput } from './level-units.js';
-import { readLevelAt, timeIndex } from './read-level.js';
+import { annualLevel } from '../time/reduce.js';
+import { onGrid, openSpec } from './level-reader.js';
+import { timedField } from './read-level.js';
 
 export interface DensityProvider {
   /** for notes: "a nominal density of 1025 kg m-3" */
@@ -19,9 +21,22 @@ export interface DensityProvider {
   close(): Promise<void>;
 }
 
-export type OpenOnGrid = (spec: VariableSource) => Promise<FieldSource>;
+/** A reference variable reduced in time and on the common grid, with its month weights if it has 12 months. */
+type Opened = { field: FieldSource; monthWeights: Float64Array | null; close(): Promise<void> };
 
-export function densityProvider(recipe: Recipe, grid: Grid, openOnGrid: OpenOnGrid): DensityProvider {
+async function openOnGrid(recipe: Recipe, grid: Grid, cacheDir: string | undefined, spec: VariableSource): Promise<Opened> {
+  const raw = await openSpec(spec);
+  try {
+    const timed = timedField(raw, spec, { monthlyRows: false });
+    const field = await onGrid(timed, spec, { grid, options: recipe.options, cacheDir });
+    return { field, monthWeights: timed.monthWeights, close: async () => raw.close?.() };
+  } catch (e) {
+    await raw.close?.().catch(() => undefined);
+    throw e;
+  }
+}
+
+export function densityProvider(recipe: Recipe, grid: Grid, cacheDir: string | undefined): DensityProvider {
   const d = recipe.options.density;
   if (d === 'nominal') {
     const rho = recipe.options.nominalDensity;
@@ -29,14 +44,14 @@ export function densityProvider(recipe: Recipe, grid: Grid, openOnGrid: OpenOnGr
   }
   const tSpec = recipe.reference.variables[d.fields.temperature];
   const sSpec = recipe.reference.variables[d.fields.salinity];
-  let fields: Promise<[FieldSource, FieldSource]> | null = null;
-  const opened: FieldSource[] = [];
+  let fields: Promise<[Opened, Opened]> | null = null;
+  const opened: Opened[] = [];
   const degC = parseUnits('degC');
-  const open = (): Promise<[FieldSource, FieldSource]> =>
+  const open = (): Promise<[Opened, Opened]> =>
     (fields ??= (async () => {
-      const t = await openOnGrid(tSpec);
+      const t = await openOnGrid(recipe, grid, cacheDir, tSpec);
       opened.push(t);
-      const s = await openOnGrid(sSpec);
+      const s = await openOnGrid(recipe, grid, cacheDir, sSpec);
       opened.push(s);
       return [t, s];
     })());
@@ -44,15 +59,16 @@ export function densityProvider(recipe: Recipe, grid: Grid, openOnGrid: OpenOnGr
     note: `TEOS-10 density from the reference's ${d.fields.temperature} and ${d.fields.salinity}`,
     async level(k) {
       const [t, s] = await open();
-      let temperature = await readLevelAt(t, timeIndex(t, tSpec.time), k);
-      const toC = makeLevelConverter(t.units, degC, `${tSpec.path} (temperature for density)`, tSpec.name, false);
+      // the year's density serves every month
+      let temperature = await annualLevel(t.field, t.monthWeights, k);
+      const toC = makeLevelConverter(t.field.units, degC, `${tSpec.path} (temperature for density)`, tSpec.name, false);
       if (toC) temperature = toC.apply(temperature);
-      const salinity = await readLevelAt(s, timeIndex(s, sSpec.time), k);
+      const salinity = await annualLevel(s.field, s.monthWeights, k);
       const depth = grid.vertical ? grid.vertical.centres[k] : 0;
       return { temperature, salinity, pressure: pressureFromDepth(Math.max(0, depth)) };
     },
     async close() {
-      for (const f of opened) await f.close?.().catch(() => undefined);
+      for (const f of opened) await f.close().catch(() => undefined);
     },
   };
 }

@@ -15,14 +15,22 @@ import type { RecipeOptions } from '../recipe/schema.js';
 import { sameGrid } from './common-grid.js';
 import { looksLikeOxygen, makeLevelConverter, type DensityInput } from './level-units.js';
 import { prefixed } from './load-regions.js';
-import { readLevelAt, timeIndex } from './read-level.js';
+import { timedField } from './read-level.js';
+import { annualLevel } from '../time/reduce.js';
 
 export interface LevelReader {
   needsDensity: boolean;
   /** notes for the output: regridding, conversions */
   regridded: boolean;
   conversions: string[];
+  /** how the time steps were reduced (null: the only step) */
+  timeNote: string | null;
+  /** total days of each month when the reader gives 12 months, else null */
+  monthWeights: Float64Array | null;
+  /** the level for the year (a monthly reader's months weighted by their lengths) */
   read(k: number, density: DensityInput | undefined): Promise<Float32Array>;
+  /** the level's 12 months (January first); only when monthWeights is set */
+  readMonths(k: number, density: DensityInput | undefined): Promise<Float32Array[]>;
   close(): Promise<void>;
 }
 
@@ -31,6 +39,8 @@ export interface ReaderContext {
   options: RecipeOptions;
   cacheDir?: string;
   densityNote: string;
+  /** the recipe asks for monthly or seasonal rows: every source must give 12 months */
+  monthlyRows: boolean;
   /** every file opened, for provenance */
   noteFile(path: string): void;
 }
@@ -76,19 +86,25 @@ export async function plainReader(key: string, spec: VariableSource, target: Par
   const field = opened ?? (await openSpec(spec));
   ctx.noteFile(spec.file);
   try {
-    const src = await onGrid(field, spec, ctx);
-    const t = timeIndex(src, spec.time);
-    if (t !== 'mean' && (t < 0 || t >= src.nt)) {
-      throw new StillwaterError('E_RECIPE', `${spec.path}.time: step ${spec.time} is outside the file's ${src.nt} time steps.`, { path: `${spec.path}.time` });
-    }
+    const timed = timedField(field, spec, ctx);
+    const src = await onGrid(timed, spec, ctx);
+    const weights = timed.monthWeights;
     const convert = makeLevelConverter(field.units, target, `${spec.path} ('${spec.name}' in ${spec.file})`, spec.name, oxygen ?? looksLikeOxygen(key, field.standardName));
+    const converted = (v: Float32Array, density: DensityInput | undefined) => (convert ? convert.apply(v, density) : v);
     return {
       needsDensity: convert?.needsDensity ?? false,
-      regridded: src !== field,
+      regridded: src !== timed,
       conversions: convert ? [convert.describe(ctx.densityNote)] : [],
+      timeNote: timed.timeNote,
+      monthWeights: weights,
       async read(k, density) {
-        const v = await readLevelAt(src, t, k);
-        return convert ? convert.apply(v, density) : v;
+        return converted(await annualLevel(src, weights, k), density);
+      },
+      async readMonths(k, density) {
+        if (!weights) throw new StillwaterError('E_INTERNAL', `${spec.path}: months were asked of a field without months.`);
+        const out: Float32Array[] = [];
+        for (let m = 0; m < 12; m++) out.push(converted(await src.readLevel(m, k), density));
+        return out;
       },
       close: async () => {
         await field.close?.().catch(() => undefined);
@@ -129,14 +145,29 @@ export async function derivedReader(
     throw e;
   }
   const n = ctx.grid.horizontal.nx * ctx.grid.horizontal.ny;
+  // with monthly rows every input gives 12 months (planTime refuses one that does not); their month
+  // weights are the first input's
+  const weights = ctx.monthlyRows ? readers[0].reader.monthWeights : null;
+  const notes = [...new Set(readers.map((r) => r.reader.timeNote).filter((x): x is string => !!x))];
   return {
     needsDensity: readers.some((r) => r.reader.needsDensity),
     regridded: readers.some((r) => r.reader.regridded),
     conversions: readers.flatMap((r) => r.reader.conversions.map((c) => `${r.key}: ${c}`)),
+    timeNote: notes.length ? notes.join('; ') : null,
+    monthWeights: weights,
     async read(k, density) {
       const inputs: Record<string, Float32Array> = {};
       for (const r of readers) inputs[r.key] = await r.reader.read(k, density);
       return evaluateExpression(parsed, inputs, n);
+    },
+    async readMonths(k, density) {
+      const months: Record<string, Float32Array[]> = {};
+      for (const r of readers) months[r.key] = await r.reader.readMonths(k, density);
+      return Array.from({ length: 12 }, (_, m) => {
+        const inputs: Record<string, Float32Array> = {};
+        for (const r of readers) inputs[r.key] = months[r.key][m];
+        return evaluateExpression(parsed, inputs, n);
+      });
     },
     async close() {
       for (const r of readers) await r.reader.close();

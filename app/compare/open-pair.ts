@@ -11,7 +11,7 @@ import { parseExpression } from '../ocean/expression.js';
 import type { Recipe, SourceSpec } from '../recipe/types.js';
 import { commonGridFor } from './common-grid.js';
 import { densityProvider, type DensityProvider } from './density.js';
-import { derivedReader, onGrid, openSpec, plainReader, referenceUnitsOf, type LevelReader, type ReaderContext } from './level-reader.js';
+import { derivedReader, openSpec, plainReader, referenceUnitsOf, type LevelReader, type ReaderContext } from './level-reader.js';
 import { prefixed } from './load-regions.js';
 
 /** One source (the reference or a run) of a pair, level by level. */
@@ -25,8 +25,14 @@ export interface SourceLevels {
   regridded: boolean;
   /** how it was brought into the pair's units */
   conversions: string[];
-  /** one level in the pair's units (density fetched when the conversion needs it) */
+  /** how the time steps were reduced (null: the only step) */
+  timeNote: string | null;
+  /** total days of each month when the source gives 12 months (options.periods), else null */
+  monthWeights: Float64Array | null;
+  /** one level in the pair's units (density fetched when the conversion needs it); a monthly source's year */
   level(k: number): Promise<Float32Array>;
+  /** the level's 12 months (January first), when monthWeights is set */
+  months(k: number): Promise<Float32Array[]>;
 }
 
 /** A run of the recipe that has the variable (or every input of a derived one), opened on first use. */
@@ -69,6 +75,8 @@ export interface OpenPairOptions {
   native?: boolean;
   /** every file opened, for provenance */
   noteFile?: (path: string) => void;
+  /** every source gives 12 months (the recipe's options.periods asks for monthly rows) */
+  monthlyRows?: boolean;
 }
 
 export function unitsText(u: ParsedUnits): string {
@@ -99,9 +107,9 @@ export async function openPair(recipe: Recipe, variable: string, opts: OpenPairO
       if (refFieldOwned) await refField.close?.();
     });
     const grid = opts.grid ?? commonGridFor(recipe.options.commonGrid, refField.grid);
-    const density = densityProvider(recipe, grid, async (spec) => onGrid(await openSpec(spec), spec, { grid, options: recipe.options, cacheDir: opts.cacheDir }));
+    const density = densityProvider(recipe, grid, opts.cacheDir);
     closers.push(() => density.close());
-    const ctx: ReaderContext = { grid, options: recipe.options, cacheDir: opts.cacheDir, densityNote: density.note, noteFile: opts.noteFile ?? (() => undefined) };
+    const ctx: ReaderContext = { grid, options: recipe.options, cacheDir: opts.cacheDir, densityNote: density.note, monthlyRows: opts.monthlyRows ?? false, noteFile: opts.noteFile ?? (() => undefined) };
     const unitsOf = referenceUnitsOf(recipe);
     let units: ParsedUnits;
     if (opts.units) units = opts.units;
@@ -137,13 +145,17 @@ export async function openPair(recipe: Recipe, variable: string, opts: OpenPairO
       closers.push(() => reader.close());
       if (reader.regridded) notes.push(`${source.label}: regridded onto the common grid (${recipe.options.method})`);
       for (const c of reader.conversions) notes.push(`${source.label}: ${c}`);
+      if (reader.timeNote) notes.push(`${source.label}: ${reader.timeNote}`);
       return {
         label: source.label,
         file: derived ? source.path : source.variables[variable].file,
         grid: levelsGrid,
         regridded: reader.regridded,
         conversions: reader.conversions,
+        timeNote: reader.timeNote,
+        monthWeights: reader.monthWeights,
         level: async (k) => reader.read(k, reader.needsDensity ? await density.level(k) : undefined),
+        months: async (k) => reader.readMonths(k, reader.needsDensity ? await density.level(k) : undefined),
       };
     };
 

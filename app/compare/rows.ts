@@ -1,6 +1,7 @@
 /**
- * Skill rows (DESIGN.md section 3): one per run × variable × region × layer. Undefined numbers are null
- * (written "—" in tables), never NaN; a row with no compared cells says why in `note`.
+ * Skill rows (DESIGN.md section 3): one per run × variable × region × layer × period. Undefined numbers are
+ * null (written "—" in tables), never NaN; a row with no compared cells says why in `note`. The period is
+ * `annual`, a month (`JAN`…`DEC`) or a season (`DJF`, `MAM`, `JJA`, `SON`), app/time/periods.ts.
  */
 import { skillFromMoments, type SkillNumbers } from '../stats/skill.js';
 import type { CellResult } from './accumulate.js';
@@ -10,6 +11,7 @@ export interface SkillRow extends SkillNumbers {
   variable: string;
   region: string;
   layer: string;
+  period: string;
   units: string;
   /** m3 for volume weights, m2 for area weights (bottom layer, 2-D fields) */
   weight_units: string;
@@ -24,10 +26,10 @@ export interface SkillRow extends SkillNumbers {
   note?: string;
 }
 
-/** The columns every table carries, in order. */
+/** The columns every table carries, in order (DESIGN.md's first; `period` is an extra column, so it comes last). */
 export const ROW_COLUMNS = [
   'run', 'variable', 'region', 'layer', 'units', 'n', 'weight', 'model_mean', 'ref_mean', 'bias', 'rmse', 'crmse', 'corr',
-  'model_std', 'ref_std', 'std_ratio', 'taylor_skill', 'nse', 'target_bias', 'target_urmsd', 'compared_fraction', 'weight_units',
+  'model_std', 'ref_std', 'std_ratio', 'taylor_skill', 'nse', 'target_bias', 'target_urmsd', 'compared_fraction', 'weight_units', 'period',
 ] as const;
 export const LOG_COLUMNS = ['log10_n', 'log10_bias', 'log10_rmse', 'log10_crmse', 'log10_corr', 'log10_std_ratio'] as const;
 
@@ -38,6 +40,7 @@ export interface RowContext {
   variable: string;
   region: string;
   layer: string;
+  period: string;
   units: string;
   weightUnits: string;
 }
@@ -49,6 +52,7 @@ export function makeRow(ctx: RowContext, cell: CellResult, log?: CellResult): Sk
     variable: ctx.variable,
     region: ctx.region,
     layer: ctx.layer,
+    period: ctx.period,
     units: ctx.units,
     ...s,
     compared_fraction: cell.refWeight > 0 ? Math.min(1, s.weight / cell.refWeight) : null,
@@ -67,3 +71,30 @@ export function makeRow(ctx: RowContext, cell: CellResult, log?: CellResult): Sk
   else if (s.n === 0) row.note = NO_CELLS_NOTE;
   return row;
 }
+
+/**
+ * Seasonal-cycle numbers of one run × variable × region × layer, from the 12 monthly rows' weighted means
+ * (app/stats/seasonal-cycle.ts): ranges (max − min) and their ratio run / reference, the phase difference in
+ * months of the maximum and of the first harmonic (positive: the run peaks later), and the volume-weighted
+ * mean over cells of the correlation of the cells' 12-month cycles.
+ */
+export interface CycleRow {
+  run: string;
+  variable: string;
+  region: string;
+  layer: string;
+  units: string;
+  model_range: number | null;
+  ref_range: number | null;
+  range_ratio: number | null;
+  max_phase_months: number | null;
+  harmonic_phase_months: number | null;
+  cell_corr_mean: number | null;
+  cell_corr_cells: number;
+  note?: string;
+}
+
+export const CYCLE_COLUMNS = [
+  'run', 'variable', 'region', 'layer', 'units', 'model_range', 'ref_range', 'range_ratio', 'max_phase_months', 'harmonic_phase_months',
+  'cell_corr_mean', 'cell_corr_cells',
+] as const;

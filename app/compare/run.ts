@@ -17,7 +17,11 @@ import { sameHorizontal } from './common-grid.js';
 import type { FieldSinkFactory, LevelSink } from './field-sink.js';
 import { loadRegions } from './load-regions.js';
 import { openPair } from './open-pair.js';
-import { makeRow, type SkillRow } from './rows.js';
+import { makeRow, type CycleRow, type SkillRow } from './rows.js';
+import { ALL_PERIODS, MONTH_NAMES, periodLevel, periodsFor, type Period } from '../time/periods.js';
+import { CycleCorrelationAccumulator } from './cycle-accumulate.js';
+import { cycleRow } from './cycle-rows.js';
+import type { SourceLevels } from './open-pair.js';
 
 export interface CompareOptions {
   cacheDir?: string;
@@ -45,6 +49,8 @@ export interface VariableInfo {
   conversions: { source: string; note: string }[];
   /** sources regridded to the common grid */
   regridded: string[];
+  /** how each source's time steps were reduced, where there was more than one step */
+  time?: { source: string; note: string }[];
 }
 
 export interface RunCost {
@@ -56,6 +62,8 @@ export interface RunCost {
 
 export interface ComparisonResult {
   rows: SkillRow[];
+  /** seasonal-cycle numbers per run × variable × region × layer, when the recipe asks for monthly rows */
+  cycles?: CycleRow[];
   costs: RunCost[];
   variables: VariableInfo[];
   inputs: InputFile[];
@@ -63,6 +71,11 @@ export interface ComparisonResult {
 
 export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): Promise<ComparisonResult> {
   const rows: SkillRow[] = [];
+  const cycles: CycleRow[] = [];
+  const asked = periodsFor(recipe.options.periods);
+  const monthly = asked.length > 1;
+  // with monthly rows every period is accumulated: the cycle numbers need the months even when only seasons are reported
+  const periods: readonly Period[] = monthly ? ALL_PERIODS : ['annual'];
   const variables: VariableInfo[] = [];
   const inputs = new Map<string, InputFile>();
   const noteFile = (path: string) => {
@@ -78,7 +91,7 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
     const variable = recipe.variables[vi];
     opts.onProgress?.(vi / recipe.variables.length, `${variable}: opening and regridding`);
     const firstRow = rows.length;
-    const pair = await openPair(recipe, variable, { cacheDir: opts.cacheDir, noteFile });
+    const pair = await openPair(recipe, variable, { cacheDir: opts.cacheDir, noteFile, monthlyRows: monthly });
     try {
       const { grid, reference: ref } = pair;
       const runs = await pair.openRuns();
@@ -89,6 +102,7 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
         ...(pair.expression !== undefined ? { expression: pair.expression } : {}),
         conversions: [ref, ...runs].flatMap((src) => src.conversions.map((note) => ({ source: src.label, note }))),
         regridded: [ref, ...runs].filter((src) => src.regridded).map((src) => src.label),
+        time: [ref, ...runs].filter((src) => src.timeNote).map((src) => ({ source: src.label, note: src.timeNote! })),
       };
 
       let cached = regionCache.find((c) => sameHorizontal(c.grid.horizontal, grid.horizontal));
@@ -101,25 +115,28 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
       const area = grid.horizontal.area;
       const tol = recipe.options.bottomTolerance;
       const wantLog = recipe.options.logStats.includes(variable);
-      const accs = runs.map(() => new PairAccumulator(regions, recipe.layers, grid.vertical, area, tol));
-      const logAccs = wantLog ? runs.map(() => new PairAccumulator(regions, recipe.layers, grid.vertical, area, tol)) : [];
+      const newAccs = () => periods.map(() => new PairAccumulator(regions, recipe.layers, grid.vertical, area, tol));
+      const accs = runs.map(newAccs);
+      const logAccs = wantLog ? runs.map(newAccs) : [];
+      const cycleAccs = monthly ? runs.map(() => new CycleCorrelationAccumulator(regions, recipe.layers, grid.vertical, area)) : [];
       const sinks: (LevelSink | null)[] = [];
       try {
         for (const r of runs) sinks.push(opts.keepFields ? await opts.keepFields({ run: r.label, variable, units: info.units, grid }) : null);
         const nz = grid.vertical?.nz ?? 1;
-        let refLog: Float32Array | undefined;
-        let modelLog: Float32Array | undefined;
         for (let k = 0; k < nz; k++) {
           if (opts.signal?.aborted) throw new StillwaterError('E_CANCELLED', 'The comparison was cancelled.');
-          const refLevel = await ref.level(k);
-          if (wantLog) refLog = log10Values(refLevel, refLog);
+          const refLevels = await readPeriods(ref, k, periods);
+          const refLogs = wantLog ? refLevels.levels.map((x) => log10Values(x)) : [];
           for (let q = 0; q < runs.length; q++) {
-            const model = await runs[q].level(k);
-            accs[q].addLevel(k, model, refLevel);
-            if (wantLog) {
-              modelLog = log10Values(model, modelLog);
-              logAccs[q].addLevel(k, modelLog, refLog!);
-            }
+            const modelLevels = await readPeriods(runs[q], k, periods);
+            periods.forEach((_, p) => {
+              accs[q][p].addLevel(k, modelLevels.levels[p], refLevels.levels[p]);
+              if (wantLog) logAccs[q][p].addLevel(k, log10Values(modelLevels.levels[p]), refLogs[p]);
+            });
+            if (monthly) cycleAccs[q].addLevel(k, modelLevels.months!, refLevels.months!);
+            // the fields written are the year's
+            const model = modelLevels.levels[0];
+            const refLevel = refLevels.levels[0];
             const sink = sinks[q];
             if (sink) {
               const diff = new Float32Array(model.length);
@@ -137,22 +154,39 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
 
       const weightUnits = grid.vertical ? 'm3' : 'm2';
       runs.forEach((r, q) => {
-        const cells = accs[q].results();
-        const logCells = wantLog ? logAccs[q].results() : null;
-        cells.forEach((cell, i) => {
-          const layer = recipe.layers[cell.layer];
-          const ctxRow = {
-            run: r.label,
-            variable,
-            region: regions[cell.region].name,
-            layer: layerLabel(layer),
-            units: info.units,
-            weightUnits: layer.kind === 'bottom' ? 'm2' : weightUnits,
-          };
-          rows.push(makeRow(ctxRow, cell, logCells ? logCells[i] : undefined));
+        const byPeriod = new Map<Period, SkillRow[]>();
+        periods.forEach((period, p) => {
+          const cells = accs[q][p].results();
+          const logCells = wantLog ? logAccs[q][p].results() : null;
+          byPeriod.set(
+            period,
+            cells.map((cell, i) => {
+              const layer = recipe.layers[cell.layer];
+              const ctxRow = {
+                run: r.label,
+                variable,
+                region: regions[cell.region].name,
+                layer: layerLabel(layer),
+                period,
+                units: info.units,
+                weightUnits: layer.kind === 'bottom' ? 'm2' : weightUnits,
+              };
+              return makeRow(ctxRow, cell, logCells ? logCells[i] : undefined);
+            }),
+          );
+        });
+        // rows by region × layer, then period, as asked
+        const annualCells = accs[q][0].results();
+        annualCells.forEach((cell, i) => {
+          for (const period of asked) rows.push(byPeriod.get(period)![i]);
+          if (monthly) {
+            const isBottom = recipe.layers[cell.layer].kind === 'bottom';
+            const monthRows = MONTH_NAMES.map((m) => byPeriod.get(m)![i]);
+            cycles.push(cycleRow(monthRows, isBottom ? null : cycleAccs[q].result(cell.region, cell.layer)));
+          }
         });
         // the cost is always over the whole grid and the full depth, whether or not "global" was asked for
-        const s = skillFromMoments(accs[q].globalFullDepth());
+        const s = skillFromMoments(accs[q][0].globalFullDepth());
         costTerms[pair.runs[q].index].push({ variable, rmse: s.rmse, refMean: s.ref_mean });
       });
       variables.push(info);
@@ -162,5 +196,13 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
     }
   }
   const costs = recipe.runs.map((run, i) => ({ run: run.label, ...multiTracerCost(costTerms[i]) }));
-  return { rows, costs, variables, inputs: [...inputs.values()] };
+  return { rows, ...(monthly ? { cycles } : {}), costs, variables, inputs: [...inputs.values()] };
+}
+
+/** One level of a source for each period: the year alone, or (monthly) its 12 months and every period from them. */
+async function readPeriods(src: SourceLevels, k: number, periods: readonly Period[]): Promise<{ levels: Float32Array[]; months: Float32Array[] | null }> {
+  if (periods.length === 1) return { levels: [await src.level(k)], months: null };
+  const months = await src.months(k);
+  const w = src.monthWeights!;
+  return { levels: periods.map((p) => periodLevel(months, w, p)), months };
 }

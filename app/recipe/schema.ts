@@ -8,6 +8,23 @@ import { screenSectionSchema } from './screen-schema.js';
 
 const nonEmpty = z.string().min(1, { error: 'must not be empty' });
 
+const calendarDate = z.string().regex(/^[+-]?\d{1,6}-\d{1,2}-\d{1,2}$/, { error: 'must be a date YYYY-MM-DD' });
+
+/** A time window and/or a choice of calendar months; dates are read in the file's own calendar. */
+export const timeWindowSchema = z
+  .strictObject({
+    from: calendarDate.optional(),
+    to: calendarDate.optional(),
+    months: z
+      .array(z.number().int().min(1, { error: 'months are 1 (January) to 12 (December)' }).max(12, { error: 'months are 1 (January) to 12 (December)' }))
+      .min(1, { error: 'must name at least one month' })
+      .refine((a) => new Set(a).size === a.length, { error: 'names a month twice' })
+      .optional(),
+    monthly: z.literal(true).optional(),
+  })
+  .refine((w) => w.from !== undefined || w.to !== undefined || w.months !== undefined || w.monthly !== undefined, { error: 'must give from, to, months or monthly' })
+  .refine((w) => !(w.months && w.monthly), { error: 'cannot take both "months" (one mean) and "monthly" (12 months)' });
+
 /** One variable of a reference or run: which file, which variable in it, its units if the file lacks them. */
 export const variableSourceSchema = z.strictObject({
   /** file holding the variable; falls back to the source's own `file` */
@@ -16,8 +33,17 @@ export const variableSourceSchema = z.strictObject({
   name: nonEmpty.optional(),
   /** units when the file has none or wrong ones */
   units: nonEmpty.optional(),
-  /** time step: an index (negative counts from the end), "mean" over all steps, or "last"; default: the only step, else the mean */
-  time: z.union([z.number().int(), z.literal('mean'), z.literal('last')], { error: 'must be a whole number, "mean" or "last"' }).optional(),
+  /**
+   * time: a step index (negative counts from the end), "last", "mean" over all steps, "monthly" (a climatology
+   * of 12 calendar months), or {from, to, months, monthly} (app/time/select.ts); default: the only step, a
+   * reference's 12 months with CF climatology bounds, else the mean (a monthly climatology when the recipe
+   * asks for monthly rows)
+   */
+  time: z
+    .union([z.number().int(), z.literal('mean'), z.literal('last'), z.literal('monthly'), timeWindowSchema], {
+      error: 'must be a whole number, "mean", "last", "monthly" or {from, to, months, monthly}',
+    })
+    .optional(),
 });
 
 /** A variable given just by its name in the source's `file`, or in full. */
@@ -126,6 +152,8 @@ export const optionsSchema = z.strictObject({
   bottomTolerance: z.number().min(0).nullable().default(null),
   /** variables that also get statistics of log10 values */
   logStats: z.array(nonEmpty).default([]),
+  /** rows per calendar month and/or per season (DJF, MAM, JJA, SON) besides the annual rows, and seasonal-cycle numbers */
+  periods: z.array(z.enum(['months', 'seasons'], { error: 'must be "months" or "seasons"' })).default([]),
   /** derived variables, computed from other variables of each source */
   derived: z.record(nonEmpty, derivedSchema).default({}),
 });

@@ -5,7 +5,7 @@
 import { isAbsolute, relative, sep } from 'node:path';
 import type { LayerSpec } from '../regions/layers.js';
 import type { RecipeInput } from './schema.js';
-import type { Recipe, SourceSpec } from './types.js';
+import type { Recipe, SourceSpec, VariableSource } from './types.js';
 
 function rel(file: string, dir: string): string {
   const r = relative(dir, file);
@@ -13,7 +13,7 @@ function rel(file: string, dir: string): string {
 }
 
 function sourceJson(s: SourceSpec, dir: string) {
-  const variables: Record<string, { file: string; name: string; units?: string; time?: number | 'mean' | 'last' }> = {};
+  const variables: Record<string, { file: string; name: string; units?: string; time?: VariableSource['time'] }> = {};
   for (const [key, v] of Object.entries(s.variables)) {
     variables[key] = { file: rel(v.file, dir), name: v.name };
     if (v.units) variables[key].units = v.units;

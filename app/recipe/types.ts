@@ -2,6 +2,7 @@
 import type { LayerSpec } from '../regions/layers.js';
 import type { ReportSectionInput } from './report-schema.js';
 import type { ScreenSection } from './screen-schema.js';
+import type { TimeChoice } from '../time/select.js';
 import type { RecipeOptions } from './schema.js';
 
 export interface VariableSource {
@@ -10,7 +11,7 @@ export interface VariableSource {
   /** variable name in the file */
   name: string;
   units?: string;
-  time?: number | 'mean' | 'last';
+  time?: Exclude<TimeChoice, undefined>;
   /** recipe path for messages, e.g. runs[1].variables.O2 */
   path: string;
 }

@@ -17,11 +17,15 @@ const COLS: [string, (r: SkillRow) => string][] = [
   ['units', (r) => r.units],
 ];
 
+/** The period column appears when a row is not annual. */
 export function consoleTable(rows: SkillRow[]): string {
-  const cells = rows.map((r) => COLS.map(([, f]) => f(r)));
-  const width = COLS.map(([h], i) => Math.max([...h].length, ...cells.map((c) => [...c[i]].length)));
-  const pad = (s: string, i: number) => (i < 4 || i === COLS.length - 1 ? s + ' '.repeat(width[i] - [...s].length) : ' '.repeat(width[i] - [...s].length) + s);
-  const lines = [COLS.map(([h], i) => pad(h, i)).join('  ')];
+  const withPeriod = rows.some((r) => (r.period ?? 'annual') !== 'annual');
+  const cols: typeof COLS = withPeriod ? [...COLS.slice(0, 4), ['period', (r) => r.period ?? 'annual'], ...COLS.slice(4)] : COLS;
+  const textCols = withPeriod ? 5 : 4;
+  const cells = rows.map((r) => cols.map(([, f]) => f(r)));
+  const width = cols.map(([h], i) => Math.max([...h].length, ...cells.map((c) => [...c[i]].length)));
+  const pad = (s: string, i: number) => (i < textCols || i === cols.length - 1 ? s + ' '.repeat(width[i] - [...s].length) : ' '.repeat(width[i] - [...s].length) + s);
+  const lines = [cols.map(([h], i) => pad(h, i)).join('  ')];
   for (const c of cells) lines.push(c.map(pad).join('  ').trimEnd());
   return lines.join('\n');
 }

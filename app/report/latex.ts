@@ -37,10 +37,12 @@ function num(x: number | null | undefined, digits = 4): string {
 }
 
 export function skillLatex(result: ComparisonResult, caption = 'Skill of the model runs against the reference'): string {
-  const head = "Run & Region & Layer & $n$ & Bias & RMSE & $E'$ & $r$ & $\\sigma_m/\\sigma_r$ & $S$ \\\\";
+  const withPeriod = result.rows.some((r) => (r.period ?? 'annual') !== 'annual');
+  const head = `Run & Region & Layer & ${withPeriod ? 'Period & ' : ''}$n$ & Bias & RMSE & $E'$ & $r$ & $\\sigma_m/\\sigma_r$ & $S$ \\\\`;
+  const ncol = withPeriod ? 11 : 10;
   const out: string[] = [
     '% Written by stillwater. Needs \\usepackage{booktabs,longtable}.',
-    '\\begin{longtable}{lllrrrrrrr}',
+    `\\begin{longtable}{${withPeriod ? 'llll' : 'lll'}rrrrrrr}`,
     `\\caption{${texEscape(caption)}. Bias = model $-$ reference; $E'$ the centred RMS difference; $r$ the weighted correlation; $S$ the Taylor (2001) skill score.} \\\\`,
     '\\toprule',
     head,
@@ -55,10 +57,10 @@ export function skillLatex(result: ComparisonResult, caption = 'Skill of the mod
   ];
   result.variables.forEach((v, i) => {
     if (i > 0) out.push('\\midrule');
-    out.push(`\\multicolumn{10}{l}{\\textbf{${texEscape(v.variable)}} (${texUnits(v.units)})} \\\\`, '\\midrule');
+    out.push(`\\multicolumn{${ncol}}{l}{\\textbf{${texEscape(v.variable)}} (${texUnits(v.units)})} \\\\`, '\\midrule');
     for (const r of result.rows.filter((x) => x.variable === v.variable)) {
       out.push(
-        [texEscape(r.run), texEscape(r.region), texEscape(r.layer), texEscape(fmtCount(r.n)), num(r.bias), num(r.rmse), num(r.crmse), num(r.corr, 3), num(r.std_ratio, 3), num(r.taylor_skill, 3)].join(' & ') +
+        [texEscape(r.run), texEscape(r.region), texEscape(r.layer), ...(withPeriod ? [r.period ?? 'annual'] : []), texEscape(fmtCount(r.n)), num(r.bias), num(r.rmse), num(r.crmse), num(r.corr, 3), num(r.std_ratio, 3), num(r.taylor_skill, 3)].join(' & ') +
           ' \\\\',
       );
     }

@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import type { Download, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openField } from '../../app/cf/open-field.js';
-import { readLevelAt, timeIndex } from '../../app/compare/read-level.js';
+import { timedField } from '../../app/compare/read-level.js';
 import { loadRecipe } from '../../app/recipe/index.js';
 import { regridField } from '../../app/regrid/field.js';
 import { gswDensity } from '../unit/render/gsw.js';
@@ -111,13 +111,13 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     const j = axes.latEdges.findIndex((e, q) => q < axes.latEdges.length - 1 && lat >= e && lat < axes.latEdges[q + 1]);
     const c = j * ref.grid.horizontal.nx + i;
     expect(shown.cell).toBe(c);
-    const refValue = (await readLevelAt(ref, timeIndex(ref, refSpec.time), k))[c];
+    const refValue = (await timedField(ref, refSpec, { monthlyRows: false }).readLevel(0, k))[c];
     const tSpec = recipe.reference.variables.T;
     const sSpec = recipe.reference.variables.S;
-    const t = (await readLevelAt(await openField(tSpec.file, tSpec.name), 0, k))[c];
-    const s = (await readLevelAt(await openField(sSpec.file, sSpec.name), 0, k))[c];
+    const t = (await (await openField(tSpec.file, tSpec.name)).readLevel(0, k))[c];
+    const s = (await (await openField(sSpec.file, sSpec.name)).readLevel(0, k))[c];
     const [rho] = recipe.options.density === 'nominal' ? [recipe.options.nominalDensity] : gswDensity([[t, s, ref.grid.vertical!.centres[k], ref.grid.horizontal.lon[c], ref.grid.horizontal.lat[c]]]);
-    const runValue = ((await readLevelAt(run, timeIndex(run, runSpec.time), k))[c] * 1000) / rho;
+    const runValue = ((await timedField(run, runSpec, { monthlyRows: false }).readLevel(0, k))[c] * 1000) / rho;
     expect(Number.isFinite(refValue)).toBe(true);
     expect(shown.reference).toBeCloseTo(refValue, 5);
     // within the 5e-4 that separates the app's TEOS-10 density (Absolute Salinity from the reference composition,

@@ -4,7 +4,8 @@ import { describe, expect, it } from 'vitest';
 import type { FieldSource } from '../../../app/cf/field.js';
 import { parseUnits } from '../../../app/cf/units.js';
 import { runComparison } from '../../../app/compare/run.js';
-import { readLevelAt, timeIndex } from '../../../app/compare/read-level.js';
+import { planTime } from '../../../app/time/select.js';
+import { reduceTime } from '../../../app/time/reduce.js';
 import { makeRegularGrid } from '../../../app/grid/rectilinear.js';
 import { validateRecipe } from '../../../app/recipe/validate.js';
 
@@ -26,15 +27,18 @@ describe('time steps', () => {
     [3, NaN],
     [5, 7],
   ]);
-  it('default: the only step, else the mean; "last"; negative indices count from the end', () => {
-    expect(timeIndex(fakeField([[1, 2]]), undefined)).toBe(0);
-    expect(timeIndex(f, undefined)).toBe('mean');
-    expect(timeIndex(f, 'last')).toBe(2);
-    expect(timeIndex(f, -2)).toBe(1);
+  const ctx = { path: 'runs[0].variables.x', monthlyRows: false, reference: false };
+  const level = (field: FieldSource, choice: Parameters<typeof planTime>[1]) => reduceTime(field, planTime(field, choice, ctx)).readLevel(0, 0);
+  it('default: the only step, else the mean; "last"; negative indices count from the end', async () => {
+    expect(planTime(fakeField([[1, 2]]), undefined, ctx)).toMatchObject({ kind: 'step', t: 0 });
+    expect(planTime(f, undefined, ctx).kind).toBe('mean');
+    expect(planTime(f, 'last', ctx)).toMatchObject({ kind: 'step', t: 2 });
+    expect(planTime(f, -2, ctx)).toMatchObject({ kind: 'step', t: 1 });
+    expect(() => planTime(f, 3, ctx)).toThrow(/runs\[0\]\.variables\.x\.time: 'x' in fake\.nc has no time step 3 \(it has 3\)\./);
   });
   it('the mean skips missing steps of a cell: (1 + 3 + 5)/3 = 3 and 7/1 = 7', async () => {
-    expect(Array.from(await readLevelAt(f, 'mean', 0))).toEqual([3, 7]);
-    expect(Array.from(await readLevelAt(f, 1, 0))).toEqual([3, NaN]);
+    expect(Array.from(await level(f, 'mean'))).toEqual([3, 7]);
+    expect(Array.from(await level(f, 1))).toEqual([3, NaN]);
   });
 });
 

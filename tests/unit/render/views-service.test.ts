@@ -9,7 +9,6 @@ import { join, resolve, sep } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { FieldSource } from '../../../app/cf/field.js';
 import { openField } from '../../../app/cf/open-field.js';
-import { readLevelAt } from '../../../app/compare/read-level.js';
 import { StillwaterError } from '../../../app/errors.js';
 import { loadRecipe } from '../../../app/recipe/index.js';
 import { regridField } from '../../../app/regrid/field.js';
@@ -71,8 +70,8 @@ let nominal: number | null = null;
 
 async function density(k: number, cells: number[]): Promise<number[]> {
   if (nominal !== null) return cells.map(() => nominal!);
-  const t = await readLevelAt(refT, 0, k);
-  const sal = await readLevelAt(refS, 0, k);
+  const t = await refT.readLevel(0, k);
+  const sal = await refS.readLevel(0, k);
   const h = ref.grid.horizontal;
   return gswDensity(cells.map((c) => [t[c], sal[c], ref.grid.vertical!.centres[k], h.lon[c], h.lat[c]]));
 }
@@ -95,8 +94,8 @@ describe('view.level', () => {
   it('one level: the reference as read, the run regridded and converted, their difference', async () => {
     const k = 12;
     const d = await call<LevelData>('view.level', { session: info.session, variable: 'PO4', run: RUN, layer: `k:${k}` });
-    const r = await readLevelAt(ref, 0, k);
-    const m = await readLevelAt(run, 0, k);
+    const r = await ref.readLevel(0, k);
+    const m = await run.readLevel(0, k);
     let compared = 0;
     for (let c = 0; c < r.length; c++) {
       if (Number.isNaN(r[c])) expect(d.reference[c]).toBeNaN();
@@ -128,9 +127,9 @@ describe('view.level', () => {
     for (let k = 0; k < v.nz; k++) {
       const w = Math.max(0, Math.min(v.edges[k + 1], 100) - Math.max(v.edges[k], 0));
       if (w <= 0) continue;
-      const tk = (await readLevelAt(refT, 0, k))[c];
-      const sk = (await readLevelAt(refS, 0, k))[c];
-      rows.push({ w, m: (await readLevelAt(run, 0, k))[c], r: (await readLevelAt(ref, 0, k))[c], gsw: [tk, sk, v.centres[k], ref.grid.horizontal.lon[c], ref.grid.horizontal.lat[c]] });
+      const tk = (await refT.readLevel(0, k))[c];
+      const sk = (await refS.readLevel(0, k))[c];
+      rows.push({ w, m: (await run.readLevel(0, k))[c], r: (await ref.readLevel(0, k))[c], gsw: [tk, sk, v.centres[k], ref.grid.horizontal.lon[c], ref.grid.horizontal.lat[c]] });
     }
     const rhos = nominal !== null ? rows.map(() => nominal!) : gswDensity(rows.map((x) => x.gsw));
     let sm = 0;
@@ -153,13 +152,13 @@ describe('view.level', () => {
     const c = OCEAN[0];
     let deepest = -1;
     for (let k = 0; k < ref.grid.vertical!.nz; k++) {
-      const a = (await readLevelAt(run, 0, k))[c];
-      const b = (await readLevelAt(ref, 0, k))[c];
+      const a = (await run.readLevel(0, k))[c];
+      const b = (await ref.readLevel(0, k))[c];
       if (!Number.isNaN(a) && !Number.isNaN(b)) deepest = k;
     }
     expect(deepest).toBeGreaterThan(0);
     expect(d.bottomLevel![c]).toBe(deepest);
-    expect(d.reference[c]).toBe((await readLevelAt(ref, 0, deepest))[c]);
+    expect(d.reference[c]).toBe((await ref.readLevel(0, deepest))[c]);
   });
 });
 
@@ -171,7 +170,7 @@ describe('view.section', () => {
     expect(s.atGrid).toBeCloseTo(axes.lon[i], 9);
     const ny = ref.grid.horizontal.ny;
     for (const k of [0, 10, 20]) {
-      const r = await readLevelAt(ref, 0, k);
+      const r = await ref.readLevel(0, k);
       for (const j of [30, 90, 150]) {
         const want = r[j * ref.grid.horizontal.nx + i];
         if (Number.isNaN(want)) expect(s.reference[k * ny + j]).toBeNaN();

@@ -14,7 +14,7 @@ import { makeRow, NO_CELLS_NOTE } from '../../../app/compare/rows.js';
 import { emptyMoments, pairMoments } from '../../../app/stats/moments.js';
 import { consoleTable, skillCsv, skillLatex, skillMarkdown, texEscape, texUnits, writeSkillTables, type Provenance } from '../../../app/report/index.js';
 
-const ctx = { run: 'Run "A", v2', variable: 'PO4', region: 'global', layer: '0-100 m', units: 'umol kg-1', weightUnits: 'm3' };
+const ctx = { run: 'Run "A", v2', variable: 'PO4', region: 'global', layer: '0-100 m', period: 'annual', units: 'umol kg-1', weightUnits: 'm3' };
 const full = makeRow(ctx, { region: 0, layer: 0, moments: pairMoments(Float64Array.of(1, 2, 4), Float64Array.of(1.5, 2, 3), Float64Array.of(1, 1, 2)), refWeight: 8 });
 const empty = makeRow({ ...ctx, region: 'arctic' }, { region: 1, layer: 0, moments: emptyMoments(), refWeight: 0 });
 const result: ComparisonResult = {

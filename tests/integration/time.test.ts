@@ -1,0 +1,129 @@
+/**
+ * Monthly and seasonal comparison end to end through the command line: a period on every row, seasonal-cycle
+ * rows, merge carrying both, and the bad-input sentences (exit 2, nothing written). The monthly values
+ * themselves are held against xarray in tests/unit/time/time.test.ts; here the checks are properties that a
+ * wrong pipeline would break: a source compared with itself has no bias in any period, a cycle ratio of 1,
+ * no phase difference and cells whose cycles correlate perfectly.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { ALL_PERIODS } from '../../app/time/periods.js';
+
+const root = join(__dirname, '../..');
+const fx = join(__dirname, '../fixtures/time');
+
+function stillwater(args: string[]) {
+  return spawnSync(process.execPath, [join(root, 'main', 'launch.mjs'), ...args], { encoding: 'utf8' });
+}
+
+function recipe(dir: string, name: string, body: Record<string, unknown>): string {
+  const path = join(dir, name);
+  writeFileSync(path, JSON.stringify(body));
+  return path;
+}
+
+const monthlyRecipe = (runs: { label: string; file: string; time?: unknown }[], periods: string[]) => ({
+  reference: { label: 'Ref', variables: { X: { file: join(fx, 'monthly_noleap.nc'), name: 'tracer', time: 'monthly' } } },
+  runs: runs.map((r) => ({ label: r.label, variables: { X: { file: r.file, name: 'tracer', ...(r.time ? { time: r.time } : {}) } } })),
+  regions: ['global'],
+  layers: ['all', [0, 20]],
+  options: { periods },
+});
+
+describe('stillwater compare with options.periods', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'sw-time-'));
+  const cache = join(dir, 'cache');
+
+  it('rows per period, seasonal-cycle rows, and a source against itself agrees in every period', () => {
+    const path = recipe(dir, 'self.json', monthlyRecipe([{ label: 'Self', file: join(fx, 'monthly_noleap.nc') }, { label: 'Std', file: join(fx, 'monthly_standard.nc') }], ['months', 'seasons']));
+    const out = join(dir, 'self');
+    const r = stillwater(['compare', '--recipe', path, '--out', out, '--cache', cache]);
+    expect(r.stderr).not.toMatch(/Error/);
+    expect(r.status).toBe(0);
+    const doc = JSON.parse(readFileSync(join(out, 'skill.json'), 'utf8'));
+    const self = doc.rows.filter((x: { run: string }) => x.run === 'Self');
+    // 2 layers × (annual + 12 months + 4 seasons)
+    expect(self.length).toBe(2 * 17);
+    expect(self.slice(0, 17).map((x: { period: string }) => x.period)).toEqual([...ALL_PERIODS]);
+    for (const row of self) {
+      expect(row.bias).toBeCloseTo(0, 6);
+      expect(row.corr).toBeCloseTo(1, 6);
+    }
+    // the fixture's months follow a cosine of amplitude 2 peaking in April: the monthly means span about 4
+    const monthMeans = self.slice(1, 13).map((x: { ref_mean: number }) => x.ref_mean);
+    expect(Math.max(...monthMeans) - Math.min(...monthMeans)).toBeGreaterThan(3);
+    expect(monthMeans.indexOf(Math.max(...monthMeans))).toBe(3);
+    const cycles = doc.cycles.filter((c: { run: string }) => c.run === 'Self');
+    expect(cycles.length).toBe(2);
+    for (const c of cycles) {
+      expect(c.range_ratio).toBeCloseTo(1, 6);
+      expect(c.max_phase_months).toBe(0);
+      expect(c.harmonic_phase_months).toBeCloseTo(0, 6);
+      expect(c.cell_corr_mean).toBeCloseTo(1, 6);
+      expect(c.cell_corr_cells).toBeGreaterThan(0);
+    }
+    const std = doc.cycles.find((c: { run: string }) => c.run === 'Std');
+    expect(Number.isFinite(std.range_ratio)).toBe(true);
+    const csv = readFileSync(join(out, 'skill.csv'), 'utf8').split('\r\n');
+    expect(csv[0].split(',')).toContain('period');
+    expect(readFileSync(join(out, 'seasonal-cycle.csv'), 'utf8').split('\r\n')[0]).toMatch(/^run,variable,region,layer,units,model_range,ref_range,range_ratio/);
+    expect(readFileSync(join(out, 'skill.md'), 'utf8')).toMatch(/\| run \| region \| layer \| period \|/);
+    expect(r.stdout).toMatch(/period/);
+
+    // merge carries the periods and the cycle rows; one job per run gives the rows of one job over both
+    for (const [name, label, file] of [['a', 'Self', 'monthly_noleap.nc'], ['b', 'Std', 'monthly_standard.nc']] as const) {
+      const p = recipe(dir, `${name}.json`, monthlyRecipe([{ label, file: join(fx, file) }], ['months', 'seasons']));
+      expect(stillwater(['compare', '--recipe', p, '--out', join(dir, name), '--cache', cache]).status).toBe(0);
+    }
+    const m = stillwater(['merge', '--out', join(dir, 'merged'), join(dir, 'a', 'skill.json'), join(dir, 'b', 'skill.json')]);
+    expect(m.status).toBe(0);
+    const merged = JSON.parse(readFileSync(join(dir, 'merged', 'skill.json'), 'utf8'));
+    expect(merged.rows.length).toBe(doc.rows.length);
+    expect(merged.rows.map((x: { period: string }) => x.period)).toEqual(doc.rows.map((x: { period: string }) => x.period));
+    expect(merged.cycles.length).toBe(doc.cycles.length);
+  });
+
+  it('seasons alone: annual and season rows only', () => {
+    const path = recipe(dir, 'seasons.json', monthlyRecipe([{ label: 'Std', file: join(fx, 'monthly_standard.nc') }], ['seasons']));
+    const out = join(dir, 'seasons');
+    expect(stillwater(['compare', '--recipe', path, '--out', out, '--cache', cache]).status).toBe(0);
+    const doc = JSON.parse(readFileSync(join(out, 'skill.json'), 'utf8'));
+    expect([...new Set(doc.rows.map((x: { period: string }) => x.period))]).toEqual(['annual', 'DJF', 'MAM', 'JJA', 'SON']);
+  });
+
+  const refuses = (name: string, body: Record<string, unknown>, sentence: RegExp) => {
+    const path = recipe(dir, `${name}.json`, body);
+    const out = join(dir, name);
+    const r = stillwater(['compare', '--recipe', path, '--out', out, '--cache', cache]);
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim().split('\n').length).toBe(1);
+    expect(r.stderr).toMatch(sentence);
+    expect(existsSync(join(out, 'skill.json'))).toBe(false);
+  };
+
+  it('bad input: exit 2, one sentence naming the file and variable, nothing written', () => {
+    refuses(
+      'twelve',
+      { reference: { label: 'R', variables: { SST: { file: join(fx, 'twelve_plain.nc'), name: 'sst' } } }, runs: [{ label: 'A', variables: { SST: { file: join(fx, 'clim_noleap.nc'), name: 'sst' } } }], regions: ['global'] },
+      /reference\.variables\.SST\.time: 'sst' in .*twelve_plain\.nc has 12 time steps without CF climatology bounds/,
+    );
+    refuses(
+      'window',
+      monthlyRecipe([{ label: 'A', file: join(fx, 'monthly_standard.nc'), time: { from: '1950-01-01', to: '1959-12-31' } }], []),
+      /runs\[0\]\.variables\.X\.time: 'tracer' in .*monthly_standard\.nc has no time step inside the window 1950-01-01 to 1959-12-31: its time axis runs from 1999-01-16/,
+    );
+    refuses(
+      'calendar',
+      { reference: { label: 'R', variables: { SST: { file: join(fx, 'bad_calendar.nc'), name: 'sst' } } }, runs: [{ label: 'A', variables: { SST: { file: join(fx, 'clim_noleap.nc'), name: 'sst' } } }], regions: ['global'] },
+      /bad_calendar\.nc, variable 'sst': its time coordinate 'time': unknown calendar 'lunar'/,
+    );
+    refuses(
+      'step-with-months',
+      monthlyRecipe([{ label: 'A', file: join(fx, 'monthly_standard.nc'), time: 'last' }], ['months']),
+      /runs\[0\]\.variables\.X\.time: 'tracer' in .*monthly_standard\.nc gives one time step \("last"\), but the recipe asks for monthly rows/,
+    );
+  });
+});
