@@ -57,11 +57,3 @@ export interface Grid {
   /** null for 2-D (surface or single-level) fields */
   vertical: VerticalAxis | null;
 }
-
-/** Wet mask and seafloor of one field on its grid. */
-export interface Bathymetry {
-  /** number of wet levels per column (0 = land), ny * nx */
-  wetLevels: Int16Array;
-  /** wet thickness per column, m; the bottom layer may be partial */
-  depth: Float64Array;
-}
