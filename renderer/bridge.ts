@@ -37,6 +37,8 @@ export interface CallOptions {
   jobId?: string;
   /** progress of this job only */
   onProgress?: (e: ProgressEvent) => void;
+  /** let the request outlive the page (closing a session as the page goes) */
+  keepalive?: boolean;
 }
 
 function preload(): PreloadApi | undefined {
@@ -125,7 +127,7 @@ function headers(json: boolean): Record<string, string> {
   return h;
 }
 
-async function httpCall(name: string, input: unknown, jobId: string): Promise<CallReply> {
+async function httpCall(name: string, input: unknown, jobId: string, keepalive = false): Promise<CallReply> {
   let res: Response;
   try {
     res = await fetch(ROUTES.api + encodeURIComponent(name), {
@@ -133,6 +135,7 @@ async function httpCall(name: string, input: unknown, jobId: string): Promise<Ca
       headers: headers(true),
       body: JSON.stringify({ input: input ?? null, jobId }),
       credentials: 'same-origin',
+      keepalive,
     });
   } catch (e) {
     return { ok: false, error: { code: 'E_INTERNAL', message: `The Stillwater server cannot be reached (${String(e)}).` } };
@@ -162,7 +165,7 @@ export async function call<T>(name: string, input: unknown, options: CallOptions
   }
   try {
     const p = preload();
-    const reply = p ? await p.call(name, input, jobId) : await httpCall(name, input, jobId);
+    const reply = p ? await p.call(name, input, jobId) : await httpCall(name, input, jobId, options.keepalive === true);
     if (!reply.ok) throw new ServiceError(reply.error);
     return reply.result as T;
   } finally {

@@ -66,9 +66,21 @@ export function clearCaches(): void {
   skills.clear();
 }
 
-export function openSession(recipePath: string): Promise<SessionInfo> {
+/** The session this page has open, closed on the server when another replaces it or the page goes. */
+let openId: string | null = null;
+
+function closeOnServer(id: string | null): void {
+  if (id) void call('view.close', { session: id }, { keepalive: true }).catch(() => undefined);
+}
+
+if (typeof addEventListener === 'function') addEventListener('pagehide', () => closeOnServer(openId));
+
+export async function openSession(recipePath: string): Promise<SessionInfo> {
   clearCaches();
-  return tracked('Opening recipe', 'view.open', { recipe: recipePath });
+  const info = await tracked<SessionInfo>('Opening recipe', 'view.open', { recipe: recipePath });
+  if (openId !== info.session) closeOnServer(openId);
+  openId = info.session;
+  return info;
 }
 
 export function getLevel(session: string, variable: string, run: string, layer: string): Promise<LevelData> {
@@ -94,47 +106,14 @@ export function sessionRecipe(session: string): Promise<{ recipe: unknown; baseD
   return call('view.recipe', { session });
 }
 
-type RecipeJson = {
-  reference: { variables: Record<string, unknown> };
-  runs: { variables: Record<string, unknown> }[];
-  options?: { derived?: Record<string, { expression: string }>; density?: unknown; units?: Record<string, string>; logStats?: string[] };
-};
-
 /**
- * The recipe cut down to what one variable's rows need: that variable, the inputs of a derived one, and the
- * temperature and salinity that the density conversion reads. The rows come out the same, sooner.
- */
-export function recipeFor(recipe: unknown, variable: string): unknown {
-  const r = JSON.parse(JSON.stringify(recipe)) as RecipeJson;
-  const keep = new Set([variable]);
-  const derived = r.options?.derived?.[variable];
-  if (derived) for (const key of Object.keys(r.reference.variables)) if (new RegExp(`\\b${key}\\b`).test(derived.expression)) keep.add(key);
-  const density = r.options?.density as { fields?: { temperature: string; salinity: string } } | undefined;
-  if (density?.fields) {
-    keep.add(density.fields.temperature);
-    keep.add(density.fields.salinity);
-  }
-  const pick = (vars: Record<string, unknown>): Record<string, unknown> => Object.fromEntries(Object.entries(vars).filter(([k]) => keep.has(k)));
-  r.reference.variables = pick(r.reference.variables);
-  for (const run of r.runs) run.variables = pick(run.variables);
-  if (r.options?.derived) r.options.derived = derived ? { [variable]: derived } : {};
-  if (r.options?.units) r.options.units = pick(r.options.units) as Record<string, string>;
-  if (r.options?.logStats) r.options.logStats = r.options.logStats.filter((k) => keep.has(k));
-  return r;
-}
-
-/**
- * Skill rows (compare.run, in a worker): of one variable, or of the whole recipe when `variable` is null;
- * kept per session until it changes.
+ * Skill rows of one variable, or of the whole recipe when `variable` is null: computed once in the session's
+ * worker (view.skill) and kept here per session until it changes.
  */
 export function getSkill(session: string, variable: string | null = null): Promise<ComparisonResult> {
-  return skills.get(`${session}|${variable ?? '*'}`, async () => {
-    const { recipe, baseDir } = await sessionRecipe(session);
-    return tracked(variable ? `Computing skill scores of ${variable}` : 'Computing skill scores of every variable', 'compare.run', {
-      recipe: variable ? recipeFor(recipe, variable) : recipe,
-      baseDir,
-    });
-  });
+  return skills.get(`${session}|${variable ?? '*'}`, () =>
+    tracked(variable ? `Computing skill scores of ${variable}` : 'Computing skill scores of every variable', 'view.skill', { session, variable }),
+  );
 }
 
 export function getTable(result: ComparisonResult, recipePath: string | null, format: TableFormat): Promise<TableText> {

@@ -1,13 +1,13 @@
 /**
  * The zonal mean of a basin: per level and latitude row of the common grid, the area-weighted mean over
  * the basin's cells in that row, for the reference and every run, and run minus reference over the cells
- * where both have values (app/render/slices.ts zonalMeans). Read level by level.
+ * where both have values (slices.ts zonalMeans). Read level by level.
  */
 import { StillwaterError } from '../errors.js';
 import { loadRegions } from '../compare/load-regions.js';
 import { BUILT_IN_REGIONS } from '../regions/basins.js';
 import type { Recipe, ResolvedRegion } from '../recipe/types.js';
-import { zonalMeans } from '../render/slices.js';
+import { zonalMeans } from './slices.js';
 import type { NamedField } from './line-report.js';
 import { prepareFields } from './recipe-fields.js';
 import { csvTable, type CsvCell } from '../output/csv.js';

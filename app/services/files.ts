@@ -108,6 +108,9 @@ export const filesServices: ServiceEntry[] = [
     name: 'files.describe',
     summary: "A data file's format, dimensions, variables (with units and names) and global attributes, from its header.",
     input: z.object({ path: z.string().min(1) }),
+    // a header of an untrusted file: on a worker thread, stopped when a damaged file makes the reader loop
+    heavy: true,
+    deadlineSeconds: 20,
     async run(input, ctx): Promise<FileDescription> {
       const path = ctx.resolvePath(input.path);
       const size = (await stat(path).catch(() => {

@@ -21,8 +21,19 @@ export interface ServiceEntry<S extends z.ZodType = z.ZodType, O = unknown> {
   name: string;
   summary: string;
   input: S;
-  /** run in a worker thread, so that the screen never freezes */
+  /** run in a worker thread, so that the screen never freezes (every entry that reads a data file is heavy) */
   heavy?: boolean;
+  /**
+   * How the entry relates to workbench sessions, which live on the worker thread that opened them:
+   * 'open' returns a SessionInfo whose session then lives on that thread, 'use' and 'close' take
+   * input.session and run on its thread.
+   */
+  session?: 'open' | 'use' | 'close';
+  /**
+   * Seconds the entry may take before its thread is stopped: for entries that parse untrusted files
+   * and should be quick (headers), so that a damaged file that makes a library loop costs one sentence.
+   */
+  deadlineSeconds?: number;
   run(input: z.infer<S>, ctx: ServiceContext): Promise<O>;
 }
 

@@ -2,7 +2,7 @@
 // mean profiles. Each expected value is worked out by hand in the comment beside it (weighted means are
 // Σw·v / Σw, common practice).
 import { describe, expect, it } from 'vitest';
-import { areaMean, atLevels, bottomLevels, layerMeans, meridianSection, parallelSection, seafloorOf, zonalMeans } from '../../../app/render/slices.js';
+import { areaMean, atLevels, bottomLevels, layerMeans, meridianSection, parallelSection, seafloorOf, zonalMeans } from '../../../app/lines/slices.js';
 
 const f = (a: number[]): Float32Array => Float32Array.from(a);
 
