@@ -12,6 +12,7 @@ export type ErrorCode =
   | 'E_RECIPE' // recipe validation
   | 'E_INPUT' // any other bad argument from a person
   | 'E_CANCELLED' // work cancelled by a person
+  | 'E_BUSY' // more work asked for at once than the workbench queues
   | 'E_INTERNAL';
 
 export interface ErrorSubject {

@@ -10,8 +10,22 @@ import type { ServiceContext, ServiceEntry } from '../app/services/types.js';
 import type { CallReply, ProgressEvent, WireError } from '../contract/transport.js';
 import type { PathGuard } from './path-guard.js';
 
+/** A heavy entry's call as the worker pool takes it. */
+export interface HeavyJob {
+  name: string;
+  input: unknown;
+  jobId: string;
+  roots: string[];
+  granted: string[];
+  cacheDir: string;
+  /** the session the call opens, uses or closes (sessions live on the thread that opened them) */
+  session?: { mode: 'open' | 'use' | 'close'; id?: string };
+  /** stop the thread after this long (entries that parse untrusted headers) */
+  deadlineMs?: number;
+}
+
 /** Runs a heavy entry elsewhere (main/workers.ts); resolves with the result or rejects with the error. */
-export type HeavyRunner = (job: { name: string; input: unknown; jobId: string; roots: string[]; granted: string[]; cacheDir: string }, hooks: { progress: (fraction: number, message: string) => void; signal: AbortSignal }) => Promise<unknown>;
+export type HeavyRunner = (job: HeavyJob, hooks: { progress: (fraction: number, message: string) => void; signal: AbortSignal }) => Promise<unknown>;
 
 export interface DispatcherOptions {
   table: ServiceEntry[];
@@ -19,6 +33,8 @@ export interface DispatcherOptions {
   cacheDir: string;
   /** absent: heavy entries run in this thread too (tests, or where workers are unavailable) */
   heavy?: HeavyRunner;
+  /** multiplies every entry's deadline (tests with damaged files need not wait the full time) */
+  deadlineScale?: number;
 }
 
 /** Describe the first schema problem in one sentence, naming the input path. */
@@ -90,7 +106,16 @@ export class Dispatcher {
       let result: unknown;
       if (entry.heavy && this.opts.heavy) {
         result = await this.opts.heavy(
-          { name, input: rawInput, jobId, roots: this.opts.guard.roots, granted: this.opts.guard.grantedPaths(), cacheDir: this.opts.cacheDir },
+          {
+            name,
+            input: rawInput,
+            jobId,
+            roots: this.opts.guard.roots,
+            granted: this.opts.guard.grantedPaths(),
+            cacheDir: this.opts.cacheDir,
+            ...(entry.session ? { session: { mode: entry.session, id: (parsed.data as { session?: string }).session } } : {}),
+            ...(entry.deadlineSeconds !== undefined ? { deadlineMs: entry.deadlineSeconds * 1000 * (this.opts.deadlineScale ?? 1) } : {}),
+          },
           { progress, signal: controller.signal },
         );
       } else {

@@ -12,7 +12,7 @@ import { registerIpc } from './ipc.js';
 import { PathGuard } from './path-guard.js';
 import { projectRoot } from './static-files.js';
 import { buildMenu, createWindow, hardenContents, hardenSession, registerAppScheme, serveAppScheme, showOpenDialog } from './window.js';
-import { workerRunner } from './workers.js';
+import { WorkerPool } from './workers.js';
 
 function argValues(name: string): string[] {
   const prefix = `--${name}=`;
@@ -36,7 +36,7 @@ void app.whenReady().then(() => {
   const guard = new PathGuard(roots.length ? roots : [join(root, 'sample-data'), process.cwd()]);
   // the recipe named at start may be read, and the data beside it (its paths are relative to its folder)
   if (recipe) guard.grant(dirname(recipe));
-  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: workerRunner(join(distDir, 'worker.mjs')) });
+  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: new WorkerPool(join(distDir, 'worker.mjs')).runner });
   const openDialog = async (o: Parameters<typeof showOpenDialog>[1]): Promise<string[] | null> => {
     const paths = await showOpenDialog(win, o);
     // a file the person picked may be read, even outside the folders named at start; for a recipe, its folder

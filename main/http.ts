@@ -136,6 +136,10 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
       // A refusal by a service (bad input, a missing file, a cancelled job) is a normal answer, not a failed
       // request: 200 with the error as JSON, so the browser does not log it as a fault. Only faults of ours
       // (E_INTERNAL) and unknown services get an error status.
+      if (reply.error.code === 'E_BUSY') {
+        res.setHeader('Retry-After', '2');
+        return sendJson(res, 503, { error: reply.error });
+      }
       return sendJson(res, notFound ? 404 : reply.error.code === 'E_INTERNAL' ? 500 : 200, { error: reply.error });
     }
     if (path === ROUTES.cancel) {

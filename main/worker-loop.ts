@@ -1,6 +1,7 @@
 /**
- * The body of a worker thread: runs one service entry for the parent and reports progress, the result or the
- * error. Kept apart from main/worker.ts so that a test can run it with a table of its own.
+ * The body of a pooled worker thread: runs the service entries the parent sends, one job at a time as the pool
+ * hands them out, and reports progress, the result or the error of each. Kept apart from main/worker.ts so that
+ * a test can run it with a table of its own.
  */
 import type { MessagePort } from 'node:worker_threads';
 import type { ServiceEntry } from '../app/services/types.js';
@@ -22,14 +23,16 @@ function transferables(v: unknown, out: Set<ArrayBuffer> = new Set(), depth = 0)
 }
 
 export function serveWorker(table: ServiceEntry[], port: MessagePort): void {
-  const controller = new AbortController();
+  const running = new Map<string, AbortController>();
   const post = (m: FromWorker, transfer: ArrayBuffer[] = []): void => port.postMessage(m, transfer);
   port.on('message', (m: ToWorker) => {
     if (m.type === 'cancel') {
-      controller.abort();
+      running.get(m.jobId)?.abort();
       return;
     }
     const { job } = m;
+    const controller = new AbortController();
+    running.set(job.jobId, controller);
     const run = async (): Promise<unknown> => {
       const entry = table.find((e) => e.name === job.name);
       if (!entry) throw new StillwaterError('E_INPUT', `There is no service '${job.name}'.`);
@@ -40,19 +43,21 @@ export function serveWorker(table: ServiceEntry[], port: MessagePort): void {
         resolvePath: (p) => guard.resolve(p),
         roots: guard.roots,
         cacheDir: job.cacheDir,
-        progress: (fraction, message) => post({ type: 'progress', fraction, message }),
+        progress: (fraction, message) => post({ type: 'progress', jobId: job.jobId, fraction, message }),
         signal: controller.signal,
       });
     };
-    run().then(
-      (result) => {
-        try {
-          post({ type: 'done', result }, [...transferables(result)]);
-        } catch (e) {
-          post({ type: 'error', error: toWireError(e) });
-        }
-      },
-      (e: unknown) => post({ type: 'error', error: toWireError(e) }),
-    );
+    run()
+      .then(
+        (result) => {
+          try {
+            post({ type: 'done', jobId: job.jobId, result }, [...transferables(result)]);
+          } catch (e) {
+            post({ type: 'error', jobId: job.jobId, error: toWireError(e) });
+          }
+        },
+        (e: unknown) => post({ type: 'error', jobId: job.jobId, error: toWireError(e) }),
+      )
+      .finally(() => running.delete(job.jobId));
   });
 }

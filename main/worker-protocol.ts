@@ -1,4 +1,7 @@
-/** Messages between main/workers.ts (the parent) and main/worker.ts (a worker thread running one job). */
+/**
+ * Messages between main/workers.ts (the pool, in the parent) and main/worker.ts (a pooled worker thread).
+ * A thread lives on between jobs, so the workbench sessions it opened stay with it; every message names its job.
+ */
 import type { WireError } from '../contract/transport.js';
 
 export interface WorkerJob {
@@ -10,9 +13,9 @@ export interface WorkerJob {
   cacheDir: string;
 }
 
-export type ToWorker = { type: 'run'; job: WorkerJob } | { type: 'cancel' };
+export type ToWorker = { type: 'run'; job: WorkerJob } | { type: 'cancel'; jobId: string };
 
 export type FromWorker =
-  | { type: 'progress'; fraction: number; message: string }
-  | { type: 'done'; result: unknown }
-  | { type: 'error'; error: WireError };
+  | { type: 'progress'; jobId: string; fraction: number; message: string }
+  | { type: 'done'; jobId: string; result: unknown }
+  | { type: 'error'; jobId: string; error: WireError };

@@ -1,4 +1,4 @@
-/** Entry of a worker thread (dist/worker.mjs): serves the whole service table for one heavy job. */
+/** Entry of a pooled worker thread (dist/worker.mjs): serves the whole service table, job after job. */
 import { dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parentPort } from 'node:worker_threads';

@@ -1,13 +1,19 @@
 /**
- * Heavy service entries run in worker threads so that neither the Electron main process nor the browser-mode
- * server stops answering. One thread a job: weight caches live on disk, so a fresh thread loses little, and a
- * cancelled job that does not stop in time can simply be terminated.
+ * Heavy service entries run on a bounded pool of worker threads, so that neither the Electron main process nor
+ * the browser-mode server stops answering: as many threads as the machine has cores, one job a thread at a
+ * time, a queue of limited length behind them and a "busy" sentence beyond it.
+ *
+ * Threads live on between jobs: a workbench session stays on the thread that opened it and every call naming
+ * it is queued for that thread. A job with a deadline (headers of untrusted files) that passes it, and a
+ * cancelled job that does not stop within a short grace, get their thread terminated (code looping inside
+ * WebAssembly cannot be stopped any other way); the sessions on that thread are gone and say so when asked.
  */
 import { existsSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
-import { StillwaterError } from '../app/errors.js';
-import type { HeavyRunner } from './dispatch.js';
+import { StillwaterError, type ErrorCode } from '../app/errors.js';
+import type { HeavyJob, HeavyRunner } from './dispatch.js';
 import { cancelled } from './dispatch.js';
 import { projectRoot } from './static-files.js';
 import type { FromWorker, ToWorker } from './worker-protocol.js';
@@ -19,42 +25,217 @@ export function defaultWorkerFile(): string {
   return join(projectRoot(), 'dist', 'worker.mjs');
 }
 
-export function workerRunner(workerFile: string = defaultWorkerFile()): HeavyRunner {
-  return (job, hooks) =>
-    new Promise<unknown>((resolveJob, reject) => {
-      if (!existsSync(workerFile)) {
-        reject(new StillwaterError('E_INTERNAL', `${workerFile}: the worker bundle is missing; run npm run build.`));
-        return;
-      }
-      if (hooks.signal.aborted) {
-        reject(cancelled());
-        return;
-      }
-      // workerData must be an object: the `web-worker` package (under geotiff) destructures it when loaded
-      // off the main thread, and treats an object without its own `mod` key as a main thread.
-      const worker = new Worker(workerFile, { workerData: { stillwater: 'service-job' } });
-      let settled = false;
-      let killTimer: NodeJS.Timeout | undefined;
-      const settle = (fn: () => void): void => {
-        if (settled) return;
-        settled = true;
-        if (killTimer) clearTimeout(killTimer);
-        hooks.signal.removeEventListener('abort', onAbort);
-        void worker.terminate();
-        fn();
-      };
-      const onAbort = (): void => {
-        worker.postMessage({ type: 'cancel' } satisfies ToWorker);
-        killTimer = setTimeout(() => settle(() => reject(cancelled())), GRACE_MS);
-      };
-      hooks.signal.addEventListener('abort', onAbort, { once: true });
-      worker.on('message', (m: FromWorker) => {
-        if (m.type === 'progress') hooks.progress(m.fraction, m.message);
-        else if (m.type === 'done') settle(() => (hooks.signal.aborted ? reject(cancelled()) : resolveJob(m.result)));
-        else settle(() => reject(new StillwaterError(m.error.code as StillwaterError['code'], m.error.message, { file: m.error.file, variable: m.error.variable, path: m.error.path })));
-      });
-      worker.on('error', (e) => settle(() => reject(new StillwaterError('E_INTERNAL', `A worker thread failed: ${e.message}`))));
-      worker.on('exit', (code) => settle(() => reject(hooks.signal.aborted ? cancelled() : new StillwaterError('E_INTERNAL', `A worker thread stopped (exit ${code}) before finishing.`))));
-      worker.postMessage({ type: 'run', job } satisfies ToWorker);
+export interface PoolOptions {
+  /** threads at most (default: the cores of this machine) */
+  size?: number;
+  /** jobs waiting at most beyond those running (default 64) */
+  queueLimit?: number;
+}
+
+interface Hooks {
+  progress: (fraction: number, message: string) => void;
+  signal: AbortSignal;
+}
+
+interface Queued {
+  job: HeavyJob;
+  hooks: Hooks;
+  /** the thread a session call must run on */
+  slot: Slot | null;
+  resolve(v: unknown): void;
+  reject(e: unknown): void;
+}
+
+interface Slot {
+  worker: Worker | null;
+  current: Queued | null;
+  /** sessions opened on this thread */
+  sessions: Set<string>;
+  /** ends the current job: deadline or cancellation grace */
+  timer?: NodeJS.Timeout;
+}
+
+function sessionGone(id: string): StillwaterError {
+  return new StillwaterError('E_INPUT', `The workbench session '${id}' is no longer open; open the recipe again.`);
+}
+
+/** What a job reads, for the deadline's sentence: the file or recipe it names. */
+function subjectOf(input: unknown): string {
+  if (input && typeof input === 'object') {
+    const o = input as Record<string, unknown>;
+    for (const k of ['path', 'file', 'recipe']) if (typeof o[k] === 'string') return (o[k] as string).slice(0, 300);
+  }
+  return 'the file';
+}
+
+export class WorkerPool {
+  private readonly slots: Slot[];
+  private readonly queue: Queued[] = [];
+  private readonly home = new Map<string, Slot>();
+  private readonly queueLimit: number;
+
+  constructor(private readonly workerFile: string = defaultWorkerFile(), opts: PoolOptions = {}) {
+    const size = Math.max(1, Math.floor(opts.size ?? availableParallelism()));
+    this.slots = Array.from({ length: size }, () => ({ worker: null, current: null, sessions: new Set<string>() }));
+    this.queueLimit = opts.queueLimit ?? 64;
+  }
+
+  /** The runner the dispatcher calls for heavy entries. */
+  get runner(): HeavyRunner {
+    return (job, hooks) => this.run(job, hooks);
+  }
+
+  get threads(): number {
+    return this.slots.filter((s) => s.worker).length;
+  }
+
+  get waiting(): number {
+    return this.queue.length;
+  }
+
+  run(job: HeavyJob, hooks: Hooks): Promise<unknown> {
+    if (!existsSync(this.workerFile)) {
+      return Promise.reject(new StillwaterError('E_INTERNAL', `${this.workerFile}: the worker bundle is missing; run npm run build.`));
+    }
+    if (hooks.signal.aborted) return Promise.reject(cancelled());
+    let slot: Slot | null = null;
+    if (job.session && job.session.mode !== 'open') {
+      const id = job.session.id ?? '';
+      slot = this.home.get(id) ?? null;
+      if (!slot) return job.session.mode === 'close' ? Promise.resolve({ closed: false }) : Promise.reject(sessionGone(id));
+    }
+    if (this.queue.length >= this.queueLimit) {
+      return Promise.reject(new StillwaterError('E_BUSY', `The workbench is busy (${this.queue.length} jobs waiting); try again when some have finished.`));
+    }
+    return new Promise((resolve, reject) => {
+      const q: Queued = { job, hooks, slot, resolve, reject };
+      this.queue.push(q);
+      hooks.signal.addEventListener(
+        'abort',
+        () => {
+          const i = this.queue.indexOf(q);
+          if (i >= 0) {
+            this.queue.splice(i, 1);
+            reject(cancelled());
+          } else this.cancelRunning(q);
+        },
+        { once: true },
+      );
+      this.pump();
     });
+  }
+
+  /** Terminate every thread; jobs still queued or running are refused. */
+  async close(): Promise<void> {
+    for (const q of this.queue.splice(0)) q.reject(cancelled());
+    await Promise.all(this.slots.map((s) => this.stop(s, cancelled())));
+  }
+
+  /** Hand queued jobs to free threads: a session's calls only to its own thread, other jobs to any. */
+  private pump(): void {
+    for (const slot of this.slots) {
+      if (slot.current) continue;
+      const i = this.queue.findIndex((q) => q.slot === null || q.slot === slot);
+      if (i < 0) continue;
+      const [q] = this.queue.splice(i, 1);
+      this.start(slot, q);
+    }
+  }
+
+  private thread(slot: Slot): Worker {
+    if (slot.worker) return slot.worker;
+    // workerData must be an object: the `web-worker` package (under geotiff) destructures it when loaded
+    // off the main thread, and treats an object without its own `mod` key as a main thread.
+    const worker = new Worker(this.workerFile, { workerData: { stillwater: 'service-pool' } });
+    slot.worker = worker;
+    worker.on('message', (m: FromWorker) => {
+      const q = slot.current;
+      if (!q || m.jobId !== q.job.jobId) return;
+      if (m.type === 'progress') q.hooks.progress(m.fraction, m.message);
+      else if (m.type === 'done') this.finish(slot, q, () => this.settled(slot, q, m.result));
+      else {
+        const e = m.error;
+        this.finish(slot, q, () => q.reject(new StillwaterError(e.code as ErrorCode, e.message, { file: e.file, variable: e.variable, path: e.path })));
+      }
+    });
+    const lost = (why: string): void => {
+      if (slot.worker !== worker) return;
+      void this.stop(slot, new StillwaterError('E_INTERNAL', why));
+    };
+    worker.on('error', (e) => lost(`A worker thread failed: ${e.message}`));
+    worker.on('exit', (code) => lost(`A worker thread stopped (exit ${code}) before finishing.`));
+    return worker;
+  }
+
+  private start(slot: Slot, q: Queued): void {
+    slot.current = q;
+    const worker = this.thread(slot);
+    worker.ref();
+    const { job } = q;
+    if (job.deadlineMs !== undefined) {
+      const seconds = Math.round(job.deadlineMs / 100) / 10;
+      slot.timer = setTimeout(() => {
+        const subject = subjectOf(job.input);
+        void this.stop(slot, new StillwaterError('E_FORMAT', `${subject}: could not be read within ${seconds} s (the file may be damaged).`, { file: subject }));
+      }, job.deadlineMs);
+    }
+    const { session: _session, deadlineMs: _deadline, ...toWorker } = job;
+    worker.postMessage({ type: 'run', job: toWorker } satisfies ToWorker);
+  }
+
+  private settled(slot: Slot, q: Queued, result: unknown): void {
+    if (q.hooks.signal.aborted) return q.reject(cancelled());
+    const mode = q.job.session?.mode;
+    const id = (result as { session?: unknown } | null)?.session;
+    if ((mode === 'open' || mode === 'use') && typeof id === 'string') {
+      slot.sessions.add(id);
+      this.home.set(id, slot);
+    }
+    if (mode === 'close' && q.job.session?.id) {
+      slot.sessions.delete(q.job.session.id);
+      this.home.delete(q.job.session.id);
+    }
+    q.resolve(result);
+  }
+
+  private finish(slot: Slot, q: Queued, settle: () => void): void {
+    if (slot.current !== q) return;
+    clearTimeout(slot.timer);
+    slot.timer = undefined;
+    slot.current = null;
+    slot.worker?.unref();
+    settle();
+    this.pump();
+  }
+
+  private cancelRunning(q: Queued): void {
+    const slot = this.slots.find((s) => s.current === q);
+    if (!slot?.worker) return;
+    slot.worker.postMessage({ type: 'cancel', jobId: q.job.jobId } satisfies ToWorker);
+    clearTimeout(slot.timer);
+    slot.timer = setTimeout(() => void this.stop(slot, cancelled()), GRACE_MS);
+  }
+
+  /** Terminate a slot's thread: its job is refused with `why`, its sessions are forgotten, queued calls for them refused. */
+  private async stop(slot: Slot, why: StillwaterError): Promise<void> {
+    const worker = slot.worker;
+    slot.worker = null;
+    clearTimeout(slot.timer);
+    slot.timer = undefined;
+    const q = slot.current;
+    slot.current = null;
+    for (const id of slot.sessions) this.home.delete(id);
+    slot.sessions.clear();
+    for (let i = this.queue.length - 1; i >= 0; i--) {
+      const w = this.queue[i];
+      if (w.slot === slot) {
+        this.queue.splice(i, 1);
+        if (w.job.session?.mode === 'close') w.resolve({ closed: false });
+        else w.reject(sessionGone(w.job.session?.id ?? ''));
+      }
+    }
+    q?.reject(q.hooks.signal.aborted ? cancelled() : why);
+    if (worker) await worker.terminate().catch(() => undefined);
+    this.pump();
+  }
 }

@@ -17,7 +17,7 @@ import { BIND_ADDRESS, startServer } from '../http.js';
 import { PathGuard } from '../path-guard.js';
 import { browserOpener, electronBinary, hasDisplay } from '../shell-detect.js';
 import { projectRoot } from '../static-files.js';
-import { workerRunner } from '../workers.js';
+import { WorkerPool } from '../workers.js';
 
 interface ShellSettings {
   port: number;
@@ -42,7 +42,7 @@ async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean
   const guard = new PathGuard(s.roots);
   // a recipe named at start may be read, and the data beside it (its paths are relative to its folder)
   if (s.recipe) guard.grant(dirname(s.recipe));
-  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: workerRunner() });
+  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: new WorkerPool().runner });
   const server = await startServer({ dispatcher, port: s.port, startRecipe: s.recipe, root });
   // Ctrl+C is handled before the address is printed: whoever reads the address may stop us at once
   const stopped = new Promise<number>((done) => {
