@@ -10,18 +10,6 @@ import { describeSchemaError, toWireError } from './dispatch.js';
 import { PathGuard } from './path-guard.js';
 import type { FromWorker, ToWorker } from './worker-protocol.js';
 
-/** Buffers of typed arrays in the result, moved rather than copied back to the parent. */
-function transferables(v: unknown, out: Set<ArrayBuffer> = new Set(), depth = 0): Set<ArrayBuffer> {
-  if (depth > 6 || v === null || typeof v !== 'object') return out;
-  if (ArrayBuffer.isView(v)) {
-    const b = v.buffer;
-    if (b instanceof ArrayBuffer && v.byteLength === b.byteLength) out.add(b);
-    return out;
-  }
-  for (const x of Array.isArray(v) ? v : Object.values(v as Record<string, unknown>)) transferables(x, out, depth + 1);
-  return out;
-}
-
 export function serveWorker(table: ServiceEntry[], port: MessagePort): void {
   const running = new Map<string, AbortController>();
   const post = (m: FromWorker, transfer: ArrayBuffer[] = []): void => port.postMessage(m, transfer);
@@ -51,7 +39,8 @@ export function serveWorker(table: ServiceEntry[], port: MessagePort): void {
       .then(
         (result) => {
           try {
-            post({ type: 'done', jobId: job.jobId, result }, [...transferables(result)]);
+            // copied, not moved: the thread lives on and its sessions keep the arrays they handed out (grid, cached levels)
+            post({ type: 'done', jobId: job.jobId, result });
           } catch (e) {
             post({ type: 'error', jobId: job.jobId, error: toWireError(e) });
           }
