@@ -14,7 +14,7 @@ import { sampleLevel, seafloorOutline } from '../lines/section.js';
 import type { SparseWeights } from '../regrid/csr.js';
 import { BottomTracker } from '../regions/bottom.js';
 import { layerLevelMetres, type LayerSpec } from '../regions/layers.js';
-import { zonalMeans } from '../render/slices.js';
+import { zonalMeans } from '../lines/slices.js';
 
 export interface LayerMaps {
   layer: LayerSpec;
