@@ -16,13 +16,14 @@ function kernelFor(count: number): { k: DensityKernel; mem: WebAssembly.Memory }
   if (!kernel) {
     const mem = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(need / 65536)) });
     const k = new WebAssembly.Instance(new WebAssembly.Module(Buffer.from(WASM_BASE64, 'base64')), { env: { memory: mem } }).exports as unknown as DensityKernel;
+    // the coefficients go in once: growing a memory keeps its contents, and levels are written after them
+    const coef = new Float64Array(mem.buffer, 0, COEF_BYTES / 8);
+    coef.set(K.specificVolumeTerms);
+    coef.set(K.enthalpyTerms, K.specificVolumeTerms.length);
     kernel = { k, mem };
   } else if (kernel.mem.buffer.byteLength < need) {
     kernel.mem.grow(Math.ceil((need - kernel.mem.buffer.byteLength) / 65536));
   }
-  const coef = new Float64Array(kernel.mem.buffer, 0, COEF_BYTES / 8);
-  coef.set(K.specificVolumeTerms);
-  coef.set(K.enthalpyTerms, K.specificVolumeTerms.length);
   return kernel;
 }
 

@@ -4,7 +4,7 @@
  */
 import { rmsArc, targetPoint, taylorPoint, type SkillNumbers } from '../../app/render/diagram-geometry.js';
 import { s } from '../dom.js';
-import { linear } from './scale.js';
+import { linear } from '../../app/figures/scale.js';
 import { figureRoot, GRIDLINE, INK, legend, marker, MUTED, REGION_MARKERS, RUN_COLOURS, text, title, type LegendItem } from './svg-parts.js';
 
 export interface DiagramRow extends SkillNumbers {

@@ -4,7 +4,7 @@
  */
 import { decadeDomain, logPosition, logTicks, logTickText } from '../../app/render/log-axis.js';
 import { s } from '../dom.js';
-import { linear, padded } from './scale.js';
+import { linear, padded } from '../../app/figures/scale.js';
 import { GRIDLINE, INK, leftAxis, text, type Rect } from './svg-parts.js';
 
 export interface LineSeries {

@@ -8,7 +8,7 @@ import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/
 import type { LineData } from '../../app/services/lines.js';
 import { sessionRecipe, tracked } from '../data.js';
 import { h, s } from '../dom.js';
-import { linear, padded } from '../plot/scale.js';
+import { linear, padded } from '../../app/figures/scale.js';
 import { sectionFigure } from '../plot/section-figure.js';
 import { bottomAxis, figureRoot, INK, leftAxis, legend, RUN_COLOURS, title, type Rect } from '../plot/svg-parts.js';
 import { choose, state, type AppState, type LineChoice } from '../state.js';

@@ -2,7 +2,7 @@
 import type { ProfileData } from '../../contract/view-types.js';
 import { getProfile } from '../data.js';
 import { h, s } from '../dom.js';
-import { linear, padded } from '../plot/scale.js';
+import { linear, padded } from '../../app/figures/scale.js';
 import { bottomAxis, figureRoot, INK, leftAxis, legend, RUN_COLOURS, title, type LegendItem, type Rect } from '../plot/svg-parts.js';
 import { currentVariable, state, type AppState } from '../state.js';
 import { figureFrame } from '../widgets/figure-frame.js';

@@ -183,3 +183,11 @@ export function callInPage<T>(page: Page, name: string, input: unknown): Promise
     [name, input] as const,
   ) as Promise<T>;
 }
+
+/** The workbench at 1600 × 1000, once the page says it is ready and `view` (a selector) has drawn. */
+export async function readyWorkbench(view: string, timeout: number): Promise<{ wb: Workbench; page: Page }> {
+  const wb = await openWorkbench({ viewport: { width: 1600, height: 1000 } });
+  await wb.page.waitForSelector('body[data-ready="true"]', { timeout });
+  await wb.page.waitForSelector(view, { timeout });
+  return { wb, page: wb.page };
+}

@@ -7,7 +7,7 @@ import { readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { SAMPLE_DATA, canRunBrowser, openWorkbench, type Workbench } from './harness.js';
+import { SAMPLE_DATA, canRunBrowser, openWorkbench, readyWorkbench, type Workbench } from './harness.js';
 
 const SLOW = 240_000;
 
@@ -30,10 +30,7 @@ describe.skipIf(!canRunBrowser)('issue 14 defects, in Chromium', () => {
   let wb: Workbench;
   let page: Page;
   beforeAll(async () => {
-    wb = await openWorkbench({ viewport: { width: 1600, height: 1000 } });
-    page = wb.page;
-    await page.waitForSelector('body[data-ready="true"]', { timeout: SLOW });
-    await page.waitForSelector('.view-map [data-drawn]', { timeout: SLOW });
+    ({ wb, page } = await readyWorkbench('.view-map [data-drawn]', SLOW));
   }, SLOW);
   afterAll(async () => {
     await wb?.close();

@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Download, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { canRunBrowser, openWorkbench, type Workbench } from './harness.js';
+import { canRunBrowser, readyWorkbench, type Workbench } from './harness.js';
 
 const SLOW = 240_000;
 
@@ -38,10 +38,7 @@ describe.skipIf(!canRunBrowser)('the screen: colour, zoom, crop', () => {
   let wb: Workbench;
   let page: Page;
   beforeAll(async () => {
-    wb = await openWorkbench({ viewport: { width: 1600, height: 1000 } });
-    page = wb.page;
-    await page.waitForSelector('body[data-ready="true"]', { timeout: SLOW });
-    await page.waitForSelector('.view-map [data-look]', { timeout: SLOW });
+    ({ wb, page } = await readyWorkbench('.view-map [data-look]', SLOW));
   }, SLOW);
   afterAll(async () => {
     await wb?.close();
@@ -81,10 +78,7 @@ describe.skipIf(!canRunBrowser)('the screen: zoom, pan, crop, keyboard, refusals
   let wb: Workbench;
   let page: Page;
   beforeAll(async () => {
-    wb = await openWorkbench({ viewport: { width: 1600, height: 1000 } });
-    page = wb.page;
-    await page.waitForSelector('body[data-ready="true"]', { timeout: SLOW });
-    await page.waitForSelector('.view-map [data-look]', { timeout: SLOW });
+    ({ wb, page } = await readyWorkbench('.view-map [data-look]', SLOW));
   }, SLOW);
   afterAll(async () => {
     await wb?.close();
@@ -138,10 +132,7 @@ describe.skipIf(!canRunBrowser)('the screen: the field shown, downloaded', () =>
   let page: Page;
   const dir = mkdtempSync(join(tmpdir(), 'sw-export-'));
   beforeAll(async () => {
-    wb = await openWorkbench({ viewport: { width: 1600, height: 1000 } });
-    page = wb.page;
-    await page.waitForSelector('body[data-ready="true"]', { timeout: SLOW });
-    await page.waitForSelector('.view-map [data-look]', { timeout: SLOW });
+    ({ wb, page } = await readyWorkbench('.view-map [data-look]', SLOW));
   }, SLOW);
   afterAll(async () => {
     await wb?.close();

@@ -5,7 +5,7 @@ import { existsSync, readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Download, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { SAMPLE_DATA, canRunBrowser, openWorkbench, type Workbench } from './harness.js';
+import { SAMPLE_DATA, canRunBrowser, openWorkbench, readyWorkbench, type Workbench } from './harness.js';
 
 const SLOW = 240_000;
 const SAVED = join(SAMPLE_DATA, 'e2e-screen-recipe.json');
@@ -23,10 +23,7 @@ describe.skipIf(!canRunBrowser)('the view saved in the recipe, and keyboard-only
   let page: Page;
   beforeAll(async () => {
     rmSync(SAVED, { force: true });
-    wb = await openWorkbench({ viewport: { width: 1600, height: 1000 } });
-    page = wb.page;
-    await page.waitForSelector('body[data-ready="true"]', { timeout: SLOW });
-    await page.waitForSelector('.view-map [data-drawn]', { timeout: SLOW });
+    ({ wb, page } = await readyWorkbench('.view-map [data-drawn]', SLOW));
   }, SLOW);
   afterAll(async () => {
     await wb?.close();
