@@ -9,15 +9,10 @@ import { StillwaterError, isStillwaterError } from '../app/errors.js';
 import type { ServiceContext, ServiceEntry } from '../app/services/types.js';
 import type { CallReply, ProgressEvent, WireError } from '../contract/transport.js';
 import type { PathGuard } from './path-guard.js';
+import type { WorkerJob } from './worker-protocol.js';
 
 /** A heavy entry's call as the worker pool takes it. */
-export interface HeavyJob {
-  name: string;
-  input: unknown;
-  jobId: string;
-  roots: string[];
-  granted: string[];
-  cacheDir: string;
+export interface HeavyJob extends WorkerJob {
   /** the session the call opens, uses or closes (sessions live on the thread that opened them) */
   session?: { mode: 'open' | 'use' | 'close'; id?: string };
   /** stop the thread after this long (entries that parse untrusted headers) */

@@ -3,6 +3,7 @@
  * 180 mm wide at 300 dpi (2126 pixels), with the resolution written into the PNG (pHYs chunk).
  */
 import { saveBlob } from '../dom.js';
+import { crc32 } from '../../app/figures/png.js';
 
 export const EXPORT_MM = 180;
 export const EXPORT_DPI = 300;
@@ -57,23 +58,6 @@ export async function pngBlob(svg: SVGSVGElement, widthMm = EXPORT_MM, dpi = EXP
 
 export async function savePng(svg: SVGSVGElement, fileBase: string): Promise<void> {
   saveBlob(await pngBlob(svg), `${fileBase}.png`);
-}
-
-const CRC_TABLE = (() => {
-  const t = new Uint32Array(256);
-  for (let n = 0; n < 256; n++) {
-    let c = n;
-    for (let k = 0; k < 8; k++) c = c & 1 ? 0xedb88320 ^ (c >>> 1) : c >>> 1;
-    t[n] = c >>> 0;
-  }
-  return t;
-})();
-
-/** CRC-32 as the PNG specification (ISO/IEC 15948, annex D) defines it. */
-export function crc32(bytes: Uint8Array): number {
-  let c = 0xffffffff;
-  for (let i = 0; i < bytes.length; i++) c = CRC_TABLE[(c ^ bytes[i]) & 0xff] ^ (c >>> 8);
-  return (c ^ 0xffffffff) >>> 0;
 }
 
 /** Insert a pHYs chunk (pixels per metre) right after IHDR, so that the PNG says its print resolution. */
