@@ -19,13 +19,16 @@ function angle(a: Vec3, b: Vec3): number {
 }
 
 /** A grid wraps in i when, along its middle row, the last centre is as close to the first as neighbours are. */
-export function wrapsInI(centres: Vec3[], nx: number, ny: number): boolean {
+export function wrapsInI(lon: ArrayLike<number>, lat: ArrayLike<number>, nx: number, ny: number): boolean {
   if (nx < 3) return false;
   const j = Math.floor(ny / 2);
+  // unit vectors of that one row only: a vector per cell of the whole grid cost about 80 bytes a cell
+  const row: Vec3[] = [];
+  for (let i = 0; i < nx; i++) row.push(toUnitVector(lon[j * nx + i], lat[j * nx + i]));
   let sum = 0;
-  for (let i = 1; i < nx; i++) sum += angle(centres[j * nx + i - 1], centres[j * nx + i]);
+  for (let i = 1; i < nx; i++) sum += angle(row[i - 1], row[i]);
   const mean = sum / (nx - 1);
-  return angle(centres[j * nx + nx - 1], centres[j * nx]) < 1.5 * mean;
+  return angle(row[nx - 1], row[0]) < 1.5 * mean;
 }
 
 /** Longitude `x` moved by whole turns to lie within 180° of `ref`. */
@@ -144,9 +147,7 @@ export function makeCurvilinearGrid(
   if (lon2d.length !== n || lat2d.length !== n) throw new StillwaterError('E_GRID', `A curvilinear grid of ${ny} × ${nx} needs ${n} centre longitudes and latitudes.`);
   const lon = Float64Array.from(lon2d);
   const lat = Float64Array.from(lat2d);
-  const centres: Vec3[] = [];
-  for (let c = 0; c < n; c++) centres.push(toUnitVector(lon[c], lat[c]));
-  const periodic = wrapsInI(centres, nx, ny);
+  const periodic = wrapsInI(lon, lat, nx, ny);
   const cs = corners ?? deriveCorners(lon, lat, nx, ny, periodic);
   if (cs.lon.length !== n * 4 || cs.lat.length !== n * 4) throw new StillwaterError('E_GRID', `Cell corners of a ${ny} × ${nx} grid need ${n * 4} values.`);
   const area = new Float64Array(n);

@@ -22,7 +22,8 @@ export function conservativeCurvilinear(source: HorizontalGrid, target: Horizont
   const x0 = tLon.edges[0], x1 = tLon.edges[tLon.edges.length - 1];
   const tnx = target.nx;
   const nSrc = source.nx * source.ny;
-  const b = new TripletBuilder(nSrc * 8);
+  // a cell overlaps a few target cells at most when the source is finer; the builder grows when it is not
+  const b = new TripletBuilder(Math.min(nSrc * 8, 1 << 20));
   const poly = new PolyBuffer(64), strip = new PolyBuffer(64), piece = new PolyBuffer(64);
   const arcs = new ArcTable();
   const cLon = new Float64Array(4), cLat = new Float64Array(4);
