@@ -3,8 +3,8 @@
  * right, the status line at the bottom. Opens the recipe the workbench was started with.
  */
 import { startRecipe } from './bridge.js';
-import { openSession } from './data.js';
-import { h } from './dom.js';
+import { openSession } from './service-client.js';
+import { h } from './elements.js';
 import { comparisonBar } from './panels/comparison-bar.js';
 import { probePanel } from './panels/probe.js';
 import { sourcesPanel } from './panels/sources.js';

@@ -11,7 +11,7 @@ import { openDataset } from '../io/open.js';
 import { attrString, type DatasetFormat, type RawDataset, type RawVariable } from '../io/types.js';
 import { auxiliaryNames } from './coords.js';
 import { decodeValues } from './decode.js';
-import type { FieldSource } from './field.js';
+import type { FieldSource } from './field-source.js';
 import { fieldFromDataset } from './open-field.js';
 
 export interface ValueStats {

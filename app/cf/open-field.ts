@@ -11,12 +11,12 @@ import { makeRectilinearGrid } from '../grid/rectilinear.js';
 import { makeCurvilinearGrid, type Corners } from '../grid/curvilinear.js';
 import { edgesFromCentres, makeVerticalAxis } from '../grid/vertical.js';
 import type { HorizontalGrid, VerticalAxis } from '../grid/types.js';
-import type { FieldSource, TimeAxis } from './field.js';
+import type { FieldSource, TimeAxis } from './field-source.js';
 import { discoverCoordinates } from './coords.js';
 import { decodeCoordinate, decodeValues } from './decode.js';
 import { decodedType } from './unpack.js';
 import { readFileGrid } from './file-grid.js';
-import { NotMonotonic, deriveEdges, edgesFromBounds, orderLongitudes, orderMonotonic, type OrderedAxis } from './axis-order.js';
+import { NotMonotonic, deriveEdges, edgesFromBounds, orderLongitudes, orderMonotonic, type OrderedAxis } from './coordinate-axis.js';
 import { parseUnits, type ParsedUnits } from './units.js';
 import { decodeTimeAxis } from './time.js';
 

@@ -9,7 +9,7 @@
  * by UDUNITS: a year of 365.242198781 days and a month of a twelfth of that. We follow UDUNITS there.
  */
 import { StillwaterError } from '../errors.js';
-import type { DecodedTime, TimeAxis } from './field.js';
+import type { DecodedTime, TimeAxis } from './field-source.js';
 import { calendarByName, dateOfDay, yearLength, type Calendar } from './calendar.js';
 
 const UDUNITS_YEAR_DAYS = 365.242198781;

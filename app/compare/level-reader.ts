@@ -3,14 +3,14 @@
  * Plain variables: open, regrid if the grid differs, pick the time step, convert. Derived variables:
  * each input read that way (in the reference's units of that input), then the expression.
  */
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import { openField } from '../cf/open-field.js';
 import { parseUnits, type ParsedUnits } from '../cf/units.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid } from '../grid/types.js';
 import { evaluateExpression, parseExpression } from '../ocean/expression.js';
 import type { Recipe, SourceSpec, VariableSource } from '../recipe/types.js';
-import { regridField } from '../regrid/field.js';
+import { regridField } from '../regrid/regrid-field.js';
 import type { RecipeOptions } from '../recipe/schema.js';
 import { sameGrid } from './common-grid.js';
 import { looksLikeOxygen, makeLevelConverter, type DensityInput } from './level-units.js';

@@ -10,7 +10,7 @@ import type { Grid } from '../grid/types.js';
 import { parseExpression } from '../ocean/expression.js';
 import type { Recipe, SourceSpec } from '../recipe/types.js';
 import { commonGridFor } from './common-grid.js';
-import { densityProvider, type DensityProvider } from './density.js';
+import { densityProvider, type DensityProvider } from './density-provider.js';
 import { derivedReader, openSpec, plainReader, referenceUnitsOf, type LevelReader, type ReaderContext } from './level-reader.js';
 import { prefixed } from './load-regions.js';
 

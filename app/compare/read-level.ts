@@ -3,7 +3,7 @@
  * app/time/select.ts), before any regridding, so that a run's many steps are regridded as one field or
  * twelve.
  */
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import type { VariableSource } from '../recipe/types.js';
 import { planTime } from '../time/select.js';
 import { reduceTime, type TimedField } from '../time/reduce.js';

@@ -3,12 +3,12 @@
  * (run minus reference), the seafloor outline and the column means over a depth range.
  * All fields must already be on the same (common) grid and in the same units.
  */
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import { StillwaterError } from '../errors.js';
 import type { VerticalAxis } from '../grid/types.js';
 import { skillStats, type SkillNumbers } from '../stats/weighted.js';
 import { checkDepthRange, columnMeans, wholeColumn, type DepthRange } from './column-mean.js';
-import { pointWeights, type PointMethod } from './point-weights.js';
+import { pointWeights, type PointMethod } from './location-weights.js';
 import type { SampledLine } from './sample-path.js';
 import { sampleSection, seafloorOutline } from './section.js';
 

@@ -4,7 +4,7 @@
  * at the recipe's time step, in one set of units), so lines and points see exactly the fields that the skill
  * tables see.
  */
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import type { ParsedUnits } from '../cf/units.js';
 import { hasVariable, openPair, type OpenPairOptions, type SourceLevels } from '../compare/open-pair.js';
 import { StillwaterError } from '../errors.js';

@@ -4,10 +4,10 @@ import type { DepthRange } from './column-mean.js';
 import type { LonLat } from './great-circle.js';
 import { lineReport, type LineResult } from './line-report.js';
 import { columnMeansCsv, columnMeansJson, sectionCsv, sectionJson } from './line-output.js';
-import type { PointMethod } from './point-weights.js';
+import type { PointMethod } from './location-weights.js';
 import { prepareFields } from './recipe-fields.js';
 import { DEFAULT_SPACING_KM, sampleGreatCircles, sampleMeridian, sampleParallel, type SampledLine } from './sample-path.js';
-import { jsonText } from '../output/json.js';
+import { jsonText } from '../output/json-keys.js';
 import { writeOutputFiles } from '../output/output-set.js';
 
 /** Which line: waypoints joined by great circles, a meridian, or a parallel. */

@@ -4,7 +4,7 @@
  * least `coverage` of the weight (default 0.5, the remapping default), so coasts are not smeared
  * seaward; nearest takes the closest wet neighbour.
  */
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import type { VerticalAxis } from '../grid/types.js';
 import type { SparseWeights } from '../regrid/csr.js';
 

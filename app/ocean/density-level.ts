@@ -1,4 +1,4 @@
-import { DENSITY_KERNEL_INPUTS as K } from './density.js';
+import { DENSITY_KERNEL_INPUTS as K } from './teos10.js';
 import { WASM_BASE64 } from './kernels/density-wasm.js';
 
 /** The export of app/ocean/kernels/density.as.ts (P arguments are byte offsets into its memory). */

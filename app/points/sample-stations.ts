@@ -9,9 +9,9 @@
  * seafloor: the bottom wet cell of each surrounding column (nearest: of the nearest wet column).
  * Every station gets a status (see StationStatus); none is dropped.
  */
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import type { HorizontalGrid, VerticalAxis } from '../grid/types.js';
-import { pointWeights } from '../lines/point-weights.js';
+import { pointWeights } from '../lines/location-weights.js';
 
 export type StationMethod = 'trilinear' | 'nearest';
 /**

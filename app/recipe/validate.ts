@@ -9,7 +9,7 @@ import { StillwaterError } from '../errors.js';
 import type { LayerSpec } from '../regions/layers.js';
 import { parseUnits } from '../cf/units.js';
 import { parseExpression } from '../ocean/expression.js';
-import { formatPath } from './paths.js';
+import { formatPath } from './path-text.js';
 import { recipeSchema, type LayerEntry, type ParsedRecipe, type RegionEntry } from './schema.js';
 import type { Recipe, ResolvedRegion, SourceSpec, VariableSource } from './types.js';
 

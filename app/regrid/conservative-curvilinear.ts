@@ -1,5 +1,5 @@
 import { EARTH_RADIUS_M, type HorizontalGrid } from '../grid/types.js';
-import { ascendingEdges, cellRange } from './axis-order.js';
+import { ascendingEdges, cellRange } from './edge-search.js';
 import { TripletBuilder, type SparseWeights } from './csr.js';
 import { ArcTable, PolyBuffer, bbox, clipSlab, polygonArea } from './polygon-clip.js';
 import { cellToFrame } from './sphere-polygon.js';

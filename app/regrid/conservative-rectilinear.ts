@@ -1,6 +1,6 @@
 import { sinDiff } from '../grid/rectilinear.js';
 import { EARTH_RADIUS_M, type HorizontalGrid } from '../grid/types.js';
-import { ascendingEdges, cellRange } from './axis-order.js';
+import { ascendingEdges, cellRange } from './edge-search.js';
 import type { SparseWeights } from './csr.js';
 import { lonOverlap } from './overlap1d.js';
 

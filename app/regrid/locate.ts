@@ -1,5 +1,5 @@
 import type { HorizontalGrid } from '../grid/types.js';
-import { lowerEdge } from './axis-order.js';
+import { lowerEdge } from './edge-search.js';
 import { SphereKdTree, toXyz } from './kdtree.js';
 import { unwrap } from './sphere-polygon.js';
 

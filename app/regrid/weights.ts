@@ -3,7 +3,7 @@ import type { HorizontalGrid } from '../grid/types.js';
 import { conservativeCurvilinear } from './conservative-curvilinear.js';
 import { conservativeRectilinear } from './conservative-rectilinear.js';
 import type { RemapMethod, SparseWeights } from './csr.js';
-import { bilinearWeights, nearestWeights } from './point-weights.js';
+import { bilinearWeights, nearestWeights } from './interpolation-weights.js';
 import { clearSeparableEngines } from './separable-level.js';
 import { readCachedWeights, weightKey, writeCachedWeights } from './weight-cache.js';
 

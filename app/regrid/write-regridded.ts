@@ -1,4 +1,4 @@
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import type { ParsedUnits } from '../cf/units.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid } from '../grid/types.js';
@@ -9,7 +9,7 @@ import { openOutputSet } from '../output/output-set.js';
 import type { Attributes } from '../io/types.js';
 import { convertLevel } from '../ocean/convert.js';
 import type { RemapMethod } from './csr.js';
-import { regridField, type RegriddedField } from './field.js';
+import { regridField, type RegriddedField } from './regrid-field.js';
 import { outputGridFromFile, ownOutputGrid } from './output-grid.js';
 import type { FileGrid } from '../cf/file-grid.js';
 

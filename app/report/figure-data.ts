@@ -7,7 +7,7 @@
 import type { FieldSinkInfo, LevelSink } from '../compare/field-sink.js';
 import type { Grid, VerticalAxis } from '../grid/types.js';
 import { columnMeans } from '../lines/column-mean.js';
-import { pointWeights } from '../lines/point-weights.js';
+import { pointWeights } from '../lines/location-weights.js';
 import { sampleLine } from '../lines/run-line.js';
 import type { SampledLine } from '../lines/sample-path.js';
 import { sampleLevel, seafloorOutline } from '../lines/section.js';

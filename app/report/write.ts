@@ -1,8 +1,8 @@
 /** Writes skill.json, skill.csv, skill.md and skill.tex (and seasonal-cycle.csv when there are cycle rows) into a folder, as one set (app/output). */
 import type { ComparisonResult } from '../compare/run.js';
 import { writeOutputFiles } from '../output/output-set.js';
-import { cycleCsv, skillCsv } from './csv.js';
-import { skillJson } from './json.js';
+import { cycleCsv, skillCsv } from './skill-csv.js';
+import { skillJson } from './skill-json.js';
 import { skillLatex } from './latex.js';
 import { skillMarkdown } from './markdown.js';
 import type { Provenance } from './types.js';

@@ -1,5 +1,5 @@
 import { StillwaterError, isStillwaterError } from '../errors.js';
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import type { Grid, HorizontalGrid } from '../grid/types.js';
 import { gridDifference } from './grid-match.js';
 import { checkSnapshotList } from './snapshot-list.js';

@@ -1,7 +1,7 @@
 /** spinup.json (keys in snake_case, app/output/README.md), spinup.csv and spinup-skill.csv, as one output set. */
-import { camelKeys, jsonText, snakeKeys } from '../output/json.js';
+import { camelKeys, jsonText, snakeKeys } from '../output/json-keys.js';
 import { writeOutputFiles } from '../output/output-set.js';
-import { skillCsv, tracksCsv } from './csv.js';
+import { skillCsv, tracksCsv } from './spinup-csv.js';
 import type { SpinupResult } from './types.js';
 
 export const SPINUP_FILES = ['spinup.json', 'spinup.csv', 'spinup-skill.csv'] as const;

@@ -8,7 +8,7 @@
  * Missing values take no part: a cell's mean is over the steps where it has a value, with their weights
  * (as xarray's weighted mean skips NaN).
  */
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import { StillwaterError } from '../errors.js';
 import { periodLevel } from './periods.js';
 import type { StepWeights, TimePlan } from './select.js';

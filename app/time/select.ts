@@ -7,7 +7,7 @@
  * both dates count in full. A step whose bounds reach over an edge of the window counts, with its whole
  * length, when its time value lies inside, and not at all otherwise.
  */
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import type { Calendar } from '../cf/calendar.js';
 import { StillwaterError } from '../errors.js';
 import { MONTH_NAMES } from './periods.js';

@@ -8,7 +8,7 @@
  * bounds over many years; a step's length is then the time of year it covers in one year (31 days for a
  * January), so that months of a climatology weigh by their lengths.
  */
-import type { TimeAxis } from '../cf/field.js';
+import type { TimeAxis } from '../cf/field-source.js';
 import { dateOfDay, type Calendar } from '../cf/calendar.js';
 import { parseTimeUnits, type TimeUnits } from '../cf/time.js';
 

@@ -13,7 +13,7 @@ import { recipeFiles } from '../../app/recipe/recipe-files.js';
 import { allowOnly, optional, parseArgs, required } from '../args.js';
 import type { Command } from '../command.js';
 import { err, out } from '../command.js';
-import { toolVersion } from '../paths.js';
+import { toolVersion } from '../package-paths.js';
 import { formatNumber } from '../../app/output/number-format.js';
 
 /** A one-line bar redrawn in place; only when stderr is a terminal. */

@@ -1,7 +1,7 @@
 import { generateDemo } from '../../sample-data/generator/generate.js';
 import { allowOnly, optional, parseArgs } from '../args.js';
 import { err, out, type Command } from '../command.js';
-import { sampleDataDir } from '../paths.js';
+import { sampleDataDir } from '../package-paths.js';
 
 export const makeDemoCommand: Command = {
   name: 'make-demo',

@@ -7,7 +7,7 @@ import { checkOutputFolder } from '../../app/output/output-target.js';
 import { StillwaterError } from '../../app/errors.js';
 import { allowOnly, parseArgs, required } from '../args.js';
 import { err, out, type Command } from '../command.js';
-import { toolVersion } from '../paths.js';
+import { toolVersion } from '../package-paths.js';
 
 export const mergeCommand: Command = {
   name: 'merge',

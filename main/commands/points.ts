@@ -1,6 +1,6 @@
 import { resolve } from 'node:path';
 import { StillwaterError } from '../../app/errors.js';
-import { jsonText } from '../../app/output/json.js';
+import { jsonText } from '../../app/output/json-keys.js';
 import { formatNumber } from '../../app/output/number-format.js';
 import { writeOutputFiles } from '../../app/output/output-set.js';
 import { checkOutputFolder } from '../../app/output/output-target.js';

@@ -1,6 +1,6 @@
 import { resolve } from 'node:path';
 import { openField } from '../../app/cf/open-field.js';
-import type { FieldSource } from '../../app/cf/field.js';
+import type { FieldSource } from '../../app/cf/field-source.js';
 import { parseUnits } from '../../app/cf/units.js';
 import { StillwaterError } from '../../app/errors.js';
 import { fieldFromDataset } from '../../app/cf/open-field.js';

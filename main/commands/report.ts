@@ -10,7 +10,7 @@ import { runReport } from '../../app/report/run-report.js';
 import { allowOnly, optional, parseArgs, required } from '../args.js';
 import type { Command } from '../command.js';
 import { err, out } from '../command.js';
-import { packageRoot, toolVersion } from '../paths.js';
+import { packageRoot, toolVersion } from '../package-paths.js';
 
 /** Natural Earth land (1:110m: finer than a printed global panel can show) from the world-atlas package. */
 function landRings(): Ring[] {

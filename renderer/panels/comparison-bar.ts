@@ -1,6 +1,6 @@
 /** The comparison bar: variable, run, region, depth and projection, and the choice of view. */
 import { PROJECTIONS, type ProjectionId } from '../../app/render/projections.js';
-import { h, select } from '../dom.js';
+import { h, select } from '../elements.js';
 import { VIEWS, choose, subscribe, type AppState, type ViewId } from '../state.js';
 import { keepFocus } from '../widgets/keep-focus.js';
 import { NOT_HERE, type BarControl } from './bar-applies.js';

@@ -4,7 +4,7 @@
  */
 import type { FolderEntry, FolderListing } from '../../app/services/files.js';
 import { call, hasNativeDialog, openFiles } from '../bridge.js';
-import { h } from '../dom.js';
+import { h } from '../elements.js';
 
 export async function pickFile(title: string, accept: (e: FolderEntry) => boolean, extensions: string[]): Promise<string | null> {
   if (hasNativeDialog()) {

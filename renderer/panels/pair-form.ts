@@ -1,8 +1,8 @@
 /** The form that pairs a variable of a model file with a reference variable, adding a run when asked. */
 import type { SessionInfo } from '../../contract/view-types.js';
 import { call } from '../bridge.js';
-import { clearCaches, tracked } from '../data.js';
-import { h, select } from '../dom.js';
+import { clearCaches, tracked } from '../service-client.js';
+import { h, select } from '../elements.js';
 import { setSession } from '../state.js';
 import { pickFile } from './file-picker.js';
 

@@ -4,8 +4,8 @@
  */
 import { cellAt } from '../../app/render/pixel-lookup.js';
 import type { LevelData } from '../../contract/view-types.js';
-import { getLevel } from '../data.js';
-import { fmt, fmtLat, fmtLon, h } from '../dom.js';
+import { getLevel } from '../service-client.js';
+import { fmt, fmtLat, fmtLon, h } from '../elements.js';
 import { setProbe, subscribe, type AppState } from '../state.js';
 
 export function probePanel(el: HTMLElement): void {

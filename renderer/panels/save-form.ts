@@ -1,7 +1,7 @@
 /** The form that saves the session (its pairings and the view) as a recipe file. */
 import type { SessionInfo } from '../../contract/view-types.js';
 import { call } from '../bridge.js';
-import { h } from '../dom.js';
+import { h } from '../elements.js';
 import { screenOf, setSession, state } from '../state.js';
 import type { Say } from './pair-form.js';
 

@@ -1,6 +1,6 @@
 /** One source of the recipe (the reference or a run): its variables with names and units, its snapshots. */
 import type { SourceInfo } from '../../contract/view-types.js';
-import { h } from '../dom.js';
+import { h } from '../elements.js';
 
 export function sourceBlock(src: SourceInfo, kind: 'reference' | 'run'): HTMLElement {
   const vars = h('ul', { class: 'var-list' });

@@ -2,8 +2,8 @@
  * The sources panel: the recipe, the reference and the runs with their variables and units; open a
  * recipe, pair a run's variable with a reference variable (adding a run), save the session as a recipe.
  */
-import { openSession } from '../data.js';
-import { h } from '../dom.js';
+import { openSession } from '../service-client.js';
+import { h } from '../elements.js';
 import { setSession, state, subscribe } from '../state.js';
 import { pickFile } from './file-picker.js';
 import { pairForm, type Say } from './pair-form.js';

@@ -1,6 +1,6 @@
 /** The status line: what runs in the background, how far it is, and a button to stop it. */
-import { cancelAll, onJobs, runningJobs } from '../data.js';
-import { h } from '../dom.js';
+import { cancelAll, onJobs, runningJobs } from '../service-client.js';
+import { h } from '../elements.js';
 
 export function statusLine(el: HTMLElement): { say(text: string, kind?: 'info' | 'error'): void } {
   el.classList.add('status-line');

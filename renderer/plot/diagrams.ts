@@ -3,7 +3,7 @@
  * run × region: colour tells the run, the marker the region; both legends are drawn.
  */
 import { rmsArc, targetPoint, taylorPoint, type SkillNumbers } from '../../app/render/diagram-geometry.js';
-import { s } from '../dom.js';
+import { s } from '../elements.js';
 import { linear } from '../../app/figures/scale.js';
 import { figureRoot, GRIDLINE, INK, legend, marker, MUTED, REGION_MARKERS, RUN_COLOURS, text, title, type LegendItem } from './svg-parts.js';
 

@@ -2,7 +2,7 @@
  * Figures leave the workbench as SVG (vector, fonts as text) or PNG at print resolution:
  * 180 mm wide at 300 dpi (2126 pixels), with the resolution written into the PNG (pHYs chunk).
  */
-import { saveBlob } from '../dom.js';
+import { saveBlob } from '../elements.js';
 import { crc32 } from '../../app/figures/png.js';
 
 export const EXPORT_MM = 180;

@@ -3,7 +3,7 @@
  * ticks, gridlines at the decades, a linear vertical axis with units, and one path per series.
  */
 import { decadeDomain, logPosition, logTicks, logTickText } from '../../app/render/log-axis.js';
-import { s } from '../dom.js';
+import { s } from '../elements.js';
 import { linear, padded } from '../../app/figures/scale.js';
 import { GRIDLINE, INK, leftAxis, text, type Rect } from './svg-parts.js';
 

@@ -5,7 +5,7 @@
  */
 import type { ColourScale } from '../../app/render/colour-scales.js';
 import type { MapProjection } from '../../app/render/projections.js';
-import { s } from '../dom.js';
+import { s } from '../elements.js';
 import { logTicks } from '../../app/render/colour-mapping.js';
 import { formatTick, niceTicks } from '../../app/render/colour-scales.js';
 import { contourSegments } from '../../app/render/contours.js';

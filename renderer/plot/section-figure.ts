@@ -5,7 +5,7 @@
 import type { ColourScale } from '../../app/render/colour-scales.js';
 import { findInterval } from '../../app/render/pixel-lookup.js';
 import { paletteIndex } from '../../app/render/recolour.js';
-import { h, s } from '../dom.js';
+import { h, s } from '../elements.js';
 import { linear, stretchedDepth } from '../../app/figures/scale.js';
 import { bottomAxis, colourBar, figureRoot, INK, leftAxis, title, type Rect } from './svg-parts.js';
 

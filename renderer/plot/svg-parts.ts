@@ -6,7 +6,7 @@
 import type { ColourScale } from '../../app/render/colour-scales.js';
 import { logTicks } from '../../app/render/colour-mapping.js';
 import { cssColour, formatTick, niceTicks } from '../../app/render/colour-scales.js';
-import { s } from '../dom.js';
+import { s } from '../elements.js';
 import type { Scale } from '../../app/figures/scale.js';
 
 export const FONT = "system-ui, -apple-system, 'Segoe UI', Roboto, 'Helvetica Neue', Arial, sans-serif";

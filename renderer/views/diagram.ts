@@ -1,7 +1,7 @@
 /** Diagram view: Taylor and target diagrams of every run × region of the chosen variable and layer. */
 import type { ComparisonResult } from '../../app/compare/run.js';
-import { getSkill } from '../data.js';
-import { h } from '../dom.js';
+import { getSkill } from '../service-client.js';
+import { h } from '../elements.js';
 import { taylorFigure, targetFigure, type DiagramRow, type DiagramSpec } from '../plot/diagrams.js';
 import { choose, currentVariable, state, type AppState } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';

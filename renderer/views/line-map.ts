@@ -4,7 +4,7 @@
  * the line samples is drawn through them. Changes go through the state (undo takes them back).
  */
 import { greatCirclePath } from '../../app/render/line-path.js';
-import { s } from '../dom.js';
+import { s } from '../elements.js';
 import { coastlines } from '../plot/coast.js';
 import { figureRoot, INK } from '../plot/svg-parts.js';
 import { choose, commitPreview, preview, state, type LineChoice } from '../state.js';

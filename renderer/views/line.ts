@@ -6,8 +6,8 @@
  */
 import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
 import type { LineData } from '../../app/services/lines.js';
-import { sessionRecipe, tracked } from '../data.js';
-import { h, s } from '../dom.js';
+import { sessionRecipe, tracked } from '../service-client.js';
+import { h, s } from '../elements.js';
 import { linear, padded } from '../../app/figures/scale.js';
 import { sectionFigure } from '../plot/section-figure.js';
 import { bottomAxis, figureRoot, INK, leftAxis, legend, RUN_COLOURS, title, type Rect } from '../plot/svg-parts.js';

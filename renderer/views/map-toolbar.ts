@@ -3,7 +3,7 @@
  * scale and its stretch, a range shared by every run, contour lines, and zoom.
  */
 import { DIFF_SCALES, FIELD_SCALES } from '../../app/render/named-scales.js';
-import { h } from '../dom.js';
+import { h } from '../elements.js';
 import { choose, type AppState } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';
 import { accept, readNumber, refuse } from '../widgets/field-check.js';

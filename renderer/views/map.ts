@@ -9,9 +9,9 @@ import { buildPixelLookup, canvasHeightFor, cellAt, pixelToProjected } from '../
 import type { MapProjection } from '../../app/render/projections.js';
 import { regionSkill } from '../../app/render/region-skill.js';
 import type { LevelData } from '../../contract/view-types.js';
-import { getLevel, getRegionCells } from '../data.js';
+import { getLevel, getRegionCells } from '../service-client.js';
 import { call } from '../bridge.js';
-import { fmt, h, s, saveBlob } from '../dom.js';
+import { fmt, h, s, saveBlob } from '../elements.js';
 import { coastlines, coastlinesIfReady } from '../plot/coast.js';
 import { mapFigure, mapPlotRect, type MapFigure } from '../plot/map-figure.js';
 import { choose, commitPreview, preview, setProbe, state, type AppState } from '../state.js';

@@ -1,7 +1,7 @@
 /** Profile view: the area-weighted mean profile of a region, the reference and every run, depth downwards. */
 import type { ProfileData } from '../../contract/view-types.js';
-import { getProfile } from '../data.js';
-import { h, s } from '../dom.js';
+import { getProfile } from '../service-client.js';
+import { h, s } from '../elements.js';
 import { linear, padded } from '../../app/figures/scale.js';
 import { bottomAxis, figureRoot, INK, leftAxis, legend, RUN_COLOURS, title, type LegendItem, type Rect } from '../plot/svg-parts.js';
 import { currentVariable, state, type AppState } from '../state.js';

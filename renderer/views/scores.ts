@@ -2,8 +2,8 @@
 import type { ComparisonResult } from '../../app/compare/run.js';
 import type { SkillRow } from '../../app/compare/rows.js';
 import type { TableFormat } from '../../contract/view-types.js';
-import { getSkill, getTable } from '../data.js';
-import { fmt, h, MISSING, saveBlob } from '../dom.js';
+import { getSkill, getTable } from '../service-client.js';
+import { fmt, h, MISSING, saveBlob } from '../elements.js';
 import { state, type AppState } from '../state.js';
 import { sortableTable, type Column } from '../widgets/sortable-table.js';
 import { spinupBanner } from './spinup-banner.js';

@@ -4,8 +4,8 @@
  */
 import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
 import type { SectionData } from '../../contract/view-types.js';
-import { getSection } from '../data.js';
-import { h } from '../dom.js';
+import { getSection } from '../service-client.js';
+import { h } from '../elements.js';
 import { latText, lonText, sectionFigure } from '../plot/section-figure.js';
 import { choose, currentVariable, state, type AppState, type Selection } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';

@@ -1,7 +1,7 @@
 /** The banner above the scores table: whether each scored run has settled, asked for in the background. */
 import type { SpinupSummary } from '../../app/spinup/types.js';
-import { sessionRecipe, tracked } from '../data.js';
-import { h } from '../dom.js';
+import { sessionRecipe, tracked } from '../service-client.js';
+import { h } from '../elements.js';
 import { state, type AppState } from '../state.js';
 import { errorText } from './view.js';
 

@@ -3,7 +3,7 @@
  * years (a panel per tracer, or one shared panel in per cent), and the skill of each snapshot below.
  */
 import type { SkillPoint, SpinupResult, SpinupTrack } from '../../app/spinup/types.js';
-import { s } from '../dom.js';
+import { s } from '../elements.js';
 import { logLinePanel, yearDomain, type LineSeries } from '../plot/log-lines.js';
 import { figureRoot, MUTED, RUN_COLOURS, text, title, type Rect } from '../plot/svg-parts.js';
 

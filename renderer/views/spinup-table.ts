@@ -1,6 +1,6 @@
 /** The spin-up's table of drift rates, fits and verdicts, one row a track, notes on a line under it. */
 import type { SpinupTrack } from '../../app/spinup/types.js';
-import { fmt, h, MISSING } from '../dom.js';
+import { fmt, h, MISSING } from '../elements.js';
 import { sortableTable, type Column, type SortableTable } from '../widgets/sortable-table.js';
 
 export type SortKey = 'tracer' | 'region' | 'layer' | 'perKyr' | 'percent' | 'fitPercent' | 'xInf' | 'tau' | 't90' | 'needed' | 'status';

@@ -4,8 +4,8 @@
  * (spinup-table.ts); service 'spinup.run'.
  */
 import type { SpinupResult } from '../../app/spinup/types.js';
-import { tracked, sessionRecipe } from '../data.js';
-import { h } from '../dom.js';
+import { tracked, sessionRecipe } from '../service-client.js';
+import { h } from '../elements.js';
 import { state, type AppState } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';
 import { spinupFigure, type Choice, type Quantity } from './spinup-figure.js';

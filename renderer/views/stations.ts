@@ -9,8 +9,8 @@
 import { stationsOnSlice, type SliceForStations } from '../../app/render/stations-on-slice.js';
 import { colourFor, type ColourScale } from '../../app/render/colour-scales.js';
 import type { PointsData } from '../../app/services/lines.js';
-import { sessionRecipe, tracked } from '../data.js';
-import { h, s } from '../dom.js';
+import { sessionRecipe, tracked } from '../service-client.js';
+import { h, s } from '../elements.js';
 import type { AppState } from '../state.js';
 
 export interface StationsOverlay {

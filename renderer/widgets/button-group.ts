@@ -2,7 +2,7 @@
  * A group of toggle buttons of which one is pressed (a choice among a few values). Arrow keys move the choice
  * within the group and keep the focus on the pressed button.
  */
-import { h } from '../dom.js';
+import { h } from '../elements.js';
 
 export interface ButtonGroupSpec<T extends string> {
   /** what the group chooses, read by assistive technology and shown before it when `showLabel` */

@@ -2,7 +2,7 @@
  * A refusal shown at the field itself: the input is marked invalid and a sentence beside it says why, read out
  * by assistive technology; the value is not applied. Accepting a value clears the sentence.
  */
-import { h } from '../dom.js';
+import { h } from '../elements.js';
 
 let counter = 0;
 

@@ -2,7 +2,7 @@
  * The frame every figure view draws in: a toolbar of options above a stage where the figure (or a message in
  * its place) goes.
  */
-import { h } from '../dom.js';
+import { h } from '../elements.js';
 import { note } from '../views/view.js';
 
 export interface FigureFrame {

@@ -2,7 +2,7 @@
  * A table whose column heads sort it (click again to reverse); missing values sort last in both directions.
  * Each column says how to read a row's value for sorting and how to draw its cell.
  */
-import { h, MISSING } from '../dom.js';
+import { h, MISSING } from '../elements.js';
 
 export type SortValue = number | string | null | undefined;
 

@@ -11,11 +11,11 @@
  */
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
-import type { FieldSource } from '../../app/cf/field.js';
+import type { FieldSource } from '../../app/cf/field-source.js';
 import { makeRectilinearGrid, makeRegularGrid } from '../../app/grid/rectilinear.js';
 import type { Grid, HorizontalGrid, VerticalAxis } from '../../app/grid/types.js';
 import { makeVerticalAxis } from '../../app/grid/vertical.js';
-import { regridField } from '../../app/regrid/field.js';
+import { regridField } from '../../app/regrid/regrid-field.js';
 import { clearWeightMemory } from '../../app/regrid/weights.js';
 import { distortedGrid } from '../unit/regrid/helpers.js';
 

@@ -8,7 +8,7 @@
  */
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
-import { densityFromPracticalAndPotential } from '../../app/ocean/density.js';
+import { densityFromPracticalAndPotential } from '../../app/ocean/teos10.js';
 import { densityOfLevel } from '../../app/ocean/density-level.js';
 
 const REPEATS = 9;

@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openField } from '../../app/cf/open-field.js';
 import { timedField } from '../../app/compare/read-level.js';
 import { loadRecipe } from '../../app/recipe/index.js';
-import { regridField } from '../../app/regrid/field.js';
+import { regridField } from '../../app/regrid/regrid-field.js';
 import { gswDensity } from '../unit/render/gsw.js';
 import { SAMPLE_DATA, canRunBrowser, openWorkbench, type Workbench } from './harness.js';
 

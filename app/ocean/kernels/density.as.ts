@@ -2,7 +2,7 @@
 //
 // TEOS-10 density of a whole level from practical salinity and potential temperature, four cells a step
 // in two-lane SIMD: the same operations in the same order as densityFromPracticalAndPotential in
-// app/ocean/density.ts (SR from SP, Θ from the potential-enthalpy polynomial, the 75-term specific volume,
+// app/ocean/teos10.ts (SR from SP, Θ from the potential-enthalpy polynomial, the 75-term specific volume,
 // both in the Horner form there), so the values are the same to the last bit. The main loop is that Horner
 // form written out by a script, innermost term first; the last odd cells use the inline functions below. The coefficients are not
 // repeated here: the caller copies the tables of density.ts into memory at coefP (75 specific-volume

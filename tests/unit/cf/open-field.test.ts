@@ -6,7 +6,7 @@ import { decodeValues } from '../../../app/cf/decode.js';
 import { decodedType } from '../../../app/cf/unpack.js';
 import { openDataset } from '../../../app/io/open.js';
 import { findVariable } from '../../../app/io/types.js';
-import type { FieldSource } from '../../../app/cf/field.js';
+import type { FieldSource } from '../../../app/cf/field-source.js';
 
 const dir = join(__dirname, '../../fixtures/cf');
 interface Point {

@@ -1,7 +1,7 @@
 /** Time steps of a field (hand values) and cancelling a comparison. */
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import type { FieldSource } from '../../../app/cf/field.js';
+import type { FieldSource } from '../../../app/cf/field-source.js';
 import { parseUnits } from '../../../app/cf/units.js';
 import { runComparison } from '../../../app/compare/run.js';
 import { planTime } from '../../../app/time/select.js';

@@ -1,5 +1,5 @@
 /** A FieldSource held in memory (level-major values), for line and station tests and benchmarks. */
-import type { FieldSource } from '../../../app/cf/field.js';
+import type { FieldSource } from '../../../app/cf/field-source.js';
 import { parseUnits } from '../../../app/cf/units.js';
 import { makeRectilinearGrid } from '../../../app/grid/rectilinear.js';
 import { makeVerticalAxis } from '../../../app/grid/vertical.js';

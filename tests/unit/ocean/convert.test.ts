@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { parseUnits } from '../../../app/cf/units.js';
 import { convertLevel, NOMINAL_DENSITY } from '../../../app/ocean/convert.js';
-import { densityFromPracticalAndPotential } from '../../../app/ocean/density.js';
+import { densityFromPracticalAndPotential } from '../../../app/ocean/teos10.js';
 import { StillwaterError } from '../../../app/errors.js';
 
 const u = parseUnits;

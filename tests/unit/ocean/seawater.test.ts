@@ -5,7 +5,7 @@ import {
   conservativeFromPotential,
   densityFromPracticalAndPotential,
   densityTeos10,
-} from '../../../app/ocean/density.js';
+} from '../../../app/ocean/teos10.js';
 import { densityOfLevel } from '../../../app/ocean/density-level.js';
 import { oxygenSolubility, oxygenSolubilityT68 } from '../../../app/ocean/oxygen.js';
 import { aouLevel } from '../../../app/ocean/aou.js';

@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { csvCell, csvTable, csvText } from '../../../app/output/csv.js';
-import { camelKey, camelKeys, jsonText, snakeKey, snakeKeys } from '../../../app/output/json.js';
+import { camelKey, camelKeys, jsonText, snakeKey, snakeKeys } from '../../../app/output/json-keys.js';
 import { dataNumber, formatNumber, formatPercent, formatSigned, MISSING } from '../../../app/output/number-format.js';
 
 describe('CSV', () => {

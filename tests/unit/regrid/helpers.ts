@@ -1,4 +1,4 @@
-import type { FieldSource } from '../../../app/cf/field.js';
+import type { FieldSource } from '../../../app/cf/field-source.js';
 import type { ParsedUnits } from '../../../app/cf/units.js';
 import type { Grid, HorizontalGrid } from '../../../app/grid/types.js';
 import { EARTH_RADIUS_M } from '../../../app/grid/types.js';

@@ -7,11 +7,11 @@ import { existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'nod
 import { tmpdir } from 'node:os';
 import { join, resolve, sep } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { FieldSource } from '../../../app/cf/field.js';
+import type { FieldSource } from '../../../app/cf/field-source.js';
 import { openField } from '../../../app/cf/open-field.js';
 import { StillwaterError } from '../../../app/errors.js';
 import { loadRecipe } from '../../../app/recipe/index.js';
-import { regridField } from '../../../app/regrid/field.js';
+import { regridField } from '../../../app/regrid/regrid-field.js';
 import type { LevelData, SectionData, SessionInfo, TableText } from '../../../contract/view-types.js';
 import type { ServiceContext } from '../../../app/services/types.js';
 import { viewsServices } from '../../../app/services/views.js';

@@ -1,4 +1,4 @@
-import type { FieldSource } from '../../../app/cf/field.js';
+import type { FieldSource } from '../../../app/cf/field-source.js';
 import type { ParsedUnits } from '../../../app/cf/units.js';
 import { makeRectilinearGrid } from '../../../app/grid/rectilinear.js';
 import { makeVerticalAxis } from '../../../app/grid/vertical.js';

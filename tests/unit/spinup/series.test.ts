@@ -3,7 +3,7 @@ import { seriesSums } from '../../../app/spinup/series.js';
 import { buildResult } from '../../../app/spinup/build-result.js';
 import { DEFAULT_SETTINGS, type LayerSpec, type SnapshotSpec } from '../../../app/spinup/types.js';
 import { StillwaterError } from '../../../app/errors.js';
-import type { FieldSource } from '../../../app/cf/field.js';
+import type { FieldSource } from '../../../app/cf/field-source.js';
 import { handField, handGrid, memoryOpener, UMOL_KG } from './hand-built.js';
 
 const grid = handGrid([0, 10, 20, 30], [-10, 0, 10], [0, 50, 150, 400]);

@@ -6,7 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import type { FieldSource } from '../../../app/cf/field.js';
+import type { FieldSource } from '../../../app/cf/field-source.js';
 import { calendarByName } from '../../../app/cf/calendar.js';
 import { openField } from '../../../app/cf/open-field.js';
 import { decodeTimeAxis } from '../../../app/cf/time.js';

@@ -6,7 +6,7 @@
  *   (the first wet candidate wins, as in app/regrid/csr.ts applyFirstValid).
  * A point outside a regional grid gets an empty row (NaN when applied).
  * Global regular lat-lon grids (the usual common grid) take a shortcut that finds the cell by arithmetic
- * instead of a search; it gives the locator's weights (tests/unit/lines/point-weights.test.ts).
+ * instead of a search; it gives the locator's weights (tests/unit/lines/location-weights.test.ts).
  */
 import type { HorizontalGrid } from '../grid/types.js';
 import type { SparseWeights } from '../regrid/csr.js';

@@ -1,4 +1,4 @@
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import { StillwaterError } from '../errors.js';
 import type { Grid, HorizontalGrid } from '../grid/types.js';
 import { rowSums, type RemapMethod, type SparseWeights } from './csr.js';

@@ -4,10 +4,10 @@
  * salinity on the common grid, level by level, with the sea pressure of the level's centre depth (TEOS-10
  * density in app/ocean; pressure at 45° latitude for every cell: the latitude changes it by well under 1 %).
  */
-import type { FieldSource } from '../cf/field.js';
+import type { FieldSource } from '../cf/field-source.js';
 import { parseUnits } from '../cf/units.js';
 import type { Grid } from '../grid/types.js';
-import { pressureFromDepth } from '../ocean/density.js';
+import { pressureFromDepth } from '../ocean/teos10.js';
 import type { Recipe, VariableSource } from '../recipe/types.js';
 import { makeLevelConverter, type DensityInput } from './level-units.js';
 import { annualLevel } from '../time/reduce.js';

@@ -5,7 +5,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { makeRectilinearGrid, makeRegularGrid } from '../../../app/grid/rectilinear.js';
 import type { Grid, HorizontalGrid } from '../../../app/grid/types.js';
 import { makeVerticalAxis } from '../../../app/grid/vertical.js';
-import { regridField } from '../../../app/regrid/field.js';
+import { regridField } from '../../../app/regrid/regrid-field.js';
 import { clearWeightMemory } from '../../../app/regrid/weights.js';
 import { distortedGrid, functionField, memoryField } from './helpers.js';
 

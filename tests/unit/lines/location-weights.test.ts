@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { makeRectilinearGrid, makeRegularGrid } from '../../../app/grid/rectilinear.js';
-import { pointWeights, regularAxes } from '../../../app/lines/point-weights.js';
+import { pointWeights, regularAxes } from '../../../app/lines/location-weights.js';
 import { PointLocator, newStencil } from '../../../app/regrid/locate.js';
 
 /** The regridder's locator, point by point: the weights the shortcut must reproduce. */

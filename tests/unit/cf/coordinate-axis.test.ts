@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { NotMonotonic, deriveEdges, edgesFromBounds, orderLongitudes, orderMonotonic } from '../../../app/cf/axis-order.js';
+import { NotMonotonic, deriveEdges, edgesFromBounds, orderLongitudes, orderMonotonic } from '../../../app/cf/coordinate-axis.js';
 
 const f = (a: number[]) => Float64Array.from(a);
 // Bounds rules of CF 1.10 §7.1 (a cell's two bounds in either order; neighbours share a bound) and the
