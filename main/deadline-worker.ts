@@ -1,7 +1,9 @@
 /**
  * Run work on a worker thread that can be stopped: each call has a deadline, and a call that passes it
  * terminates the thread (code inside WebAssembly, such as the HDF5 library, cannot be interrupted any other
- * way) and is refused with one sentence. The next call starts a fresh thread.
+ * way) and is refused with one sentence. The next call starts a fresh thread, but only once the stopped one
+ * has exited: a thread holding the HDF5 library keeps about 2.9 GB of address space reserved until then, and
+ * under `ulimit -v` two such threads at once do not fit (V8 then aborts the whole process).
  *
  * Reusable by anything that hands untrusted parsing off the calling thread: the command line's HDF5 library
  * calls and the server's pool both use it.
@@ -53,11 +55,17 @@ export class DeadlineWorker {
   private nextId = 1;
   private readonly pending = new Map<number, Pending>();
   private started = 0;
+  /** threads started and not yet exited, and the most there ever were at once */
+  private alive = 0;
+  private peak = 0;
+  /** settles when the last stopped thread has exited (its address space is released only then) */
+  private exited: Promise<void> = Promise.resolve();
 
   constructor(private readonly workerFile: string | URL, private readonly options: DeadlineWorkerOptions = {}) {}
 
   /** Send one request; resolves with the worker's value or rejects with a StillwaterError. */
-  call<T>(request: unknown, opts: CallOptions): Promise<T> {
+  async call<T>(request: unknown, opts: CallOptions): Promise<T> {
+    if (!this.worker) await this.exited;
     const worker = this.thread();
     const id = this.nextId++;
     return new Promise<T>((resolve, reject) => {
@@ -97,10 +105,16 @@ export class DeadlineWorker {
     return this.started;
   }
 
+  /** The most threads that were ever alive at once (1: a new thread never overlapped a stopped one). */
+  get peakThreads(): number {
+    return this.peak;
+  }
+
   /** Terminate the thread (if any); calls in flight are refused with E_CANCELLED. */
   async close(): Promise<void> {
     const w = this.worker;
     if (w) this.stop(w, -1, new StillwaterError('E_CANCELLED', 'The work was cancelled.'));
+    await this.exited;
   }
 
   private thread(): Worker {
@@ -110,6 +124,8 @@ export class DeadlineWorker {
       resourceLimits: this.options.resourceLimits,
     });
     this.started++;
+    this.alive++;
+    this.peak = Math.max(this.peak, this.alive);
     worker.unref();
     worker.on('message', (m: Reply) => {
       const p = this.pending.get(m.id);
@@ -128,7 +144,15 @@ export class DeadlineWorker {
           : new StillwaterError('E_INTERNAL', `A worker thread failed: ${e.message}`),
       ),
     );
-    worker.on('exit', (code) => fail(() => new StillwaterError('E_INTERNAL', `A worker thread stopped (exit ${code}) before answering.`)));
+    const gone = new Promise<void>((resolve) =>
+      worker.once('exit', (code) => {
+        this.alive--;
+        fail(() => new StillwaterError('E_INTERNAL', `A worker thread stopped (exit ${code}) before answering.`));
+        resolve();
+      }),
+    );
+    const before = this.exited;
+    this.exited = Promise.all([before, gone]).then(() => undefined);
     this.worker = worker;
     return worker;
   }

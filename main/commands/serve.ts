@@ -42,12 +42,14 @@ async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean
   const guard = new PathGuard(s.roots);
   // a recipe named at start may be read, and the data beside it (its paths are relative to its folder)
   if (s.recipe) guard.grant(dirname(s.recipe));
-  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: new WorkerPool().runner });
+  const pool = new WorkerPool();
+  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: pool.runner });
   const server = await startServer({ dispatcher, port: s.port, startRecipe: s.recipe, root });
-  // Ctrl+C is handled before the address is printed: whoever reads the address may stop us at once
+  // Ctrl+C is handled before the address is printed: whoever reads the address may stop us at once.
+  // The pool's threads are terminated too: one stuck in a library loop on a damaged file would keep us alive.
   const stopped = new Promise<number>((done) => {
     const stop = (): void => {
-      void server.close().then(() => done(0));
+      void Promise.all([server.close(), pool.close()]).then(() => done(0));
     };
     process.once('SIGINT', stop);
     process.once('SIGTERM', stop);
