@@ -45,6 +45,13 @@ export function toWireError(e: unknown): WireError {
   return { code: 'E_INTERNAL', message: `Internal fault: ${e instanceof Error ? e.message : String(e)}` };
 }
 
+/** Where a heavy call must run: a session's calls on its thread; a recipe-based entry called without a session anywhere. */
+function sessionOfCall(entry: ServiceEntry, input: unknown): Pick<HeavyJob, 'session'> {
+  const id = (input as { session?: unknown } | null)?.session;
+  if (!entry.session || (entry.session !== 'open' && typeof id !== 'string')) return {};
+  return { session: { mode: entry.session, ...(typeof id === 'string' ? { id } : {}) } };
+}
+
 const JOB_ID = /^[A-Za-z0-9_.:-]{1,80}$/;
 
 export class Dispatcher {
@@ -108,7 +115,7 @@ export class Dispatcher {
             roots: this.opts.guard.roots,
             granted: this.opts.guard.grantedPaths(),
             cacheDir: this.opts.cacheDir,
-            ...(entry.session ? { session: { mode: entry.session, id: (parsed.data as { session?: string }).session } } : {}),
+            ...sessionOfCall(entry, parsed.data),
             ...(entry.deadlineSeconds !== undefined ? { deadlineMs: entry.deadlineSeconds * 1000 * (this.opts.deadlineScale ?? 1) } : {}),
           },
           { progress, signal: controller.signal },

@@ -101,11 +101,6 @@ export function getProfile(session: string, variable: string, region: string): P
   );
 }
 
-/** The recipe of a session as JSON with its folder (what the recipe-based services take). */
-export function sessionRecipe(session: string): Promise<{ recipe: unknown; baseDir: string }> {
-  return call('view.recipe', { session });
-}
-
 /**
  * Skill rows of one variable, or of the whole recipe when `variable` is null: computed once in the session's
  * worker (view.skill) and kept here per session until it changes.

@@ -8,11 +8,13 @@ import { z } from 'zod';
 import { runLine, type LineSpec } from '../lines/run-line.js';
 import { parseWaypoints } from '../lines/waypoints.js';
 import { readStations, runPoints, stationProblems } from '../points/run-points.js';
-import { besideRecipe, guardedRecipe, guardFile } from './recipe-guard.js';
+import type { Stations } from '../points/stations-csv.js';
+import { besideRecipe, guardFile, recipeOfCall } from './recipe-guard.js';
 import type { SkillNumbers } from '../stats/weighted.js';
 import { entry, type ServiceEntry } from './types.js';
 
-const recipeJson = { recipe: z.unknown(), baseDir: z.string().min(1) };
+/** An open workbench session (its recipe is used, on its thread), or a recipe as JSON with its folder. */
+const recipeJson = { session: z.string().min(1).optional(), recipe: z.unknown().optional(), baseDir: z.string().min(1).optional() };
 const lonLat = z.object({ lon: z.number().finite(), lat: z.number().finite() });
 
 const lineInput = z.object({
@@ -85,14 +87,19 @@ export interface PointsData {
   notes: string[];
 }
 
+function stationsData(st: Stations): StationsData {
+  return { file: st.file, units: st.units ?? null, id: st.id, lon: st.lon, lat: st.lat, depth: st.depth, seafloor: st.seafloor, value: st.value };
+}
+
 export const linesServices: ServiceEntry[] = [
   entry({
     name: 'line.sample',
     summary: 'The reference, every run and their differences along a line (waypoints, meridian or parallel), with the seafloor and column means.',
     input: lineInput,
     heavy: true,
+    session: 'use',
     async run(input, ctx): Promise<LineData> {
-      const recipe = guardedRecipe(input, ctx);
+      const recipe = recipeOfCall(input, ctx);
       const spec: LineSpec =
         input.line.kind === 'waypoints'
           ? { kind: 'waypoints', points: typeof input.line.points === 'string' ? parseWaypoints(input.line.points, 'waypoints') : input.line.points }
@@ -135,7 +142,7 @@ export const linesServices: ServiceEntry[] = [
     async run(input, ctx): Promise<StationsData> {
       const file = input.baseDir && !isAbsolute(input.file) ? resolve(ctx.resolvePath(input.baseDir), input.file) : input.file;
       const st = await readStations(ctx.resolvePath(file));
-      return { file: st.file, units: st.units ?? null, id: st.id, lon: st.lon, lat: st.lat, depth: st.depth, seafloor: st.seafloor, value: st.value };
+      return stationsData(st);
     },
   }),
   entry({
@@ -143,8 +150,9 @@ export const linesServices: ServiceEntry[] = [
     summary: 'The reference and every run sampled at station observations: values, per-station status and statistics (also of log10 values).',
     input: pointsInput,
     heavy: true,
+    session: 'use',
     async run(input, ctx): Promise<PointsData> {
-      const recipe = guardedRecipe(input, ctx);
+      const recipe = recipeOfCall(input, ctx);
       const stationsFile = guardFile({ file: besideRecipe(recipe, input.stations), path: 'stations' }, ctx);
       const r = await runPoints(recipe, {
         variable: input.variable,
@@ -159,7 +167,7 @@ export const linesServices: ServiceEntry[] = [
         units: r.units,
         method: r.method,
         spansDecades: r.spansDecades,
-        stations: { file: st.file, units: st.units ?? null, id: st.id, lon: st.lon, lat: st.lat, depth: st.depth, seafloor: st.seafloor, value: st.value },
+        stations: stationsData(st),
         sources: r.sources.map((s) => ({
           label: s.label,
           role: s.role,

@@ -9,7 +9,9 @@ import { readFile } from 'node:fs/promises';
 import { z } from 'zod';
 import { StillwaterError } from '../errors.js';
 import { recipeFiles } from '../recipe/recipe-files.js';
-import { guardedRecipe } from './recipe-guard.js';
+import { recipeToJson } from '../recipe/index.js';
+import type { Recipe } from '../recipe/types.js';
+import { recipeOfCall } from './recipe-guard.js';
 import { spinupFromRecipe } from '../spinup/run-spinup.js';
 import type { SpinupResult, SpinupSummary } from '../spinup/types.js';
 import { cacheKey, readCachedResult, restoreNaN, writeCachedResult } from '../spinup/result-cache.js';
@@ -17,10 +19,12 @@ import { spinupFromJson } from '../spinup/write-output.js';
 import { entry, type ServiceContext, type ServiceEntry } from './types.js';
 
 const spinupInput = z.object({
-  /** the recipe as JSON (an object), with runs[].snapshots: [{file, year}] */
-  recipe: z.unknown(),
-  /** folder that relative paths in the recipe are taken from */
-  baseDir: z.string(),
+  /** an open workbench session whose recipe is followed */
+  session: z.string().min(1).optional(),
+  /** or the recipe as JSON (an object), with runs[].snapshots: [{file, year}] */
+  recipe: z.unknown().optional(),
+  /** and the folder that relative paths in the recipe are taken from */
+  baseDir: z.string().min(1).optional(),
   /** label of the run to follow (default: the first run that lists snapshots) */
   run: z.string().optional(),
   /** recipe variable keys to follow (default: the run's variables that the first snapshot holds) */
@@ -41,10 +45,11 @@ const recent = new Map<string, SpinupResult>();
 const RECENT_MAX = 8;
 
 
-async function follow(input: SpinupInput, ctx: ServiceContext, skill: boolean): Promise<SpinupResult> {
-  const recipe = guardedRecipe(input, ctx);
+async function follow(recipe: Recipe, input: SpinupInput, ctx: ServiceContext, skill: boolean): Promise<SpinupResult> {
   const files = recipeFiles(recipe).map((f) => f.file);
-  const keyOf = (withSkill: boolean) => cacheKey({ ...input, baseDir: recipe.baseDir, skill: withSkill }, files);
+  // keyed by what is followed, whether the recipe came from a session or as JSON
+  const asked = { recipe: recipeToJson(recipe), baseDir: recipe.baseDir, run: input.run, variables: input.variables, threshold: input.threshold, tailYears: input.tailYears };
+  const keyOf = (withSkill: boolean) => cacheKey({ ...asked, skill: withSkill }, files);
   const key = await keyOf(skill);
   // a result with skill also answers a request without it
   for (const k of skill ? [key] : [key, await keyOf(true)]) {
@@ -75,8 +80,9 @@ export const spinupServices: ServiceEntry[] = [
     summary: 'Follow a run through its spin-up snapshots: series, drift rates, first-order fits, verdicts, skill over spin-up time.',
     input: spinupInput,
     heavy: true,
+    session: 'use',
     async run(input, ctx): Promise<SpinupResult> {
-      return follow(input, ctx, input.skill !== false);
+      return follow(recipeOfCall(input, ctx), input, ctx, input.skill !== false);
     },
   }),
   entry({
@@ -84,11 +90,12 @@ export const spinupServices: ServiceEntry[] = [
     summary: 'Has the run settled? One summary for the banner on the scores view; null when the run lists no snapshots.',
     input: spinupInput.omit({ variables: true, skill: true }),
     heavy: true,
+    session: 'use',
     async run(input, ctx): Promise<SpinupSummary | null> {
-      const recipe = guardedRecipe(input, ctx);
+      const recipe = recipeOfCall(input, ctx);
       const run = input.run !== undefined ? recipe.runs.find((r) => r.label === input.run) : recipe.runs.find((r) => r.snapshots?.length);
       if (!run?.snapshots?.length) return null;
-      return (await follow({ ...input, run: run.label }, ctx, false)).summary;
+      return (await follow(recipe, { ...input, run: run.label }, ctx, false)).summary;
     },
   }),
   entry({

@@ -49,17 +49,6 @@ export const viewsServices: ServiceEntry[] = [
     },
   }),
   entry({
-    name: 'view.recipe',
-    summary: "The session's recipe as JSON (what Save writes), with its folder.",
-    input: sessionInput,
-    heavy: true,
-    session: 'use',
-    async run(input): Promise<{ recipe: unknown; baseDir: string }> {
-      const s = sessionStore.get(input.session);
-      return { recipe: recipeToJson(s.recipe), baseDir: s.recipe.baseDir };
-    },
-  }),
-  entry({
     name: 'view.pair',
     summary: 'Pair a variable of a run (a file and a variable in it) with a reference variable; adds the run when it is new.',
     input: z.object({

@@ -6,7 +6,7 @@
  */
 import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
 import type { LineData } from '../../app/services/lines.js';
-import { sessionRecipe, tracked } from '../service-client.js';
+import { tracked } from '../service-client.js';
 import { h, s } from '../elements.js';
 import { linear, padded } from '../../app/figures/scale.js';
 import { sectionFigure } from '../plot/section-figure.js';
@@ -182,7 +182,7 @@ export const lineView: ViewFactory = (el) => {
     note(stage, 'Sampling the fields along the line (in the background)…', 'busy');
     try {
       const r = await tracked<LineData>('Sampling along the line', 'line.sample', {
-        ...(await sessionRecipe(session.session)),
+        session: session.session,
         variable: st.sel.variable,
         line: { kind: 'waypoints', points: textOf(st.sel.line.points) },
         spacingKm: st.sel.line.spacingKm,

@@ -1,6 +1,6 @@
 /** The banner above the scores table: whether each scored run has settled, asked for in the background. */
 import type { SpinupSummary } from '../../app/spinup/types.js';
-import { sessionRecipe, tracked } from '../service-client.js';
+import { tracked } from '../service-client.js';
 import { h } from '../elements.js';
 import { state, type AppState } from '../state.js';
 import { errorText } from './view.js';
@@ -38,7 +38,7 @@ export function spinupBanner(el: HTMLElement, st: AppState): void {
       const key = `${asked}|${run}`;
       let p = verdicts.get(key);
       if (!p) {
-        p = (async () => tracked<SpinupSummary | null>(`Has ${run} settled?`, 'spinup.verdict', { ...(await sessionRecipe(asked)), run }))();
+        p = tracked<SpinupSummary | null>(`Has ${run} settled?`, 'spinup.verdict', { session: asked, run });
         verdicts.set(key, p);
         p.catch(() => verdicts.delete(key));
       }

@@ -4,7 +4,7 @@
  * (spinup-table.ts); service 'spinup.run'.
  */
 import type { SpinupResult } from '../../app/spinup/types.js';
-import { tracked, sessionRecipe } from '../service-client.js';
+import { tracked } from '../service-client.js';
 import { h } from '../elements.js';
 import { state, type AppState } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';
@@ -142,7 +142,7 @@ export const spinupView: ViewFactory = (el) => {
     if (!result || resultKey !== key) {
       note(stage, `Following ${c.run} through its snapshots (in the background)…`, 'busy');
       try {
-        const r = await tracked<SpinupResult>('Following the spin-up', 'spinup.run', { ...(await sessionRecipe(session.session)), run: c.run });
+        const r = await tracked<SpinupResult>('Following the spin-up', 'spinup.run', { session: session.session, run: c.run });
         if (my !== token) return;
         result = r;
         resultKey = key;

@@ -9,7 +9,7 @@
 import { stationsOnSlice, type SliceForStations } from '../../app/render/stations-on-slice.js';
 import { colourFor, type ColourScale } from '../../app/render/colour-scales.js';
 import type { PointsData } from '../../app/services/lines.js';
-import { sessionRecipe, tracked } from '../service-client.js';
+import { tracked } from '../service-client.js';
 import { h, s } from '../elements.js';
 import type { AppState } from '../state.js';
 
@@ -61,7 +61,7 @@ export function stationsOverlay(onChange: () => void): StationsOverlay {
     status.textContent = 'Sampling the stations…';
     try {
       const r = await tracked<PointsData>('Sampling at stations', 'points.compare', {
-        ...(await sessionRecipe(session.session)),
+        session: session.session,
         variable: st.sel.variable,
         stations: path.value.trim(),
       });

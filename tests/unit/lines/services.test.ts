@@ -6,6 +6,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { linesServices, type LineData, type PointsData, type StationsData } from '../../../app/services/lines.js';
+import { viewsServices } from '../../../app/services/views.js';
+import type { SessionInfo } from '../../../contract/view-types.js';
 import type { ServiceContext } from '../../../app/services/types.js';
 import { PathGuard } from '../../../main/path-guard.js';
 import { makeLineScenario, truth } from '../../integration/lines-fixture.js';
@@ -41,6 +43,22 @@ describe('line and station services', () => {
     expect(p.sources[0].status).toEqual(['ok', 'on_land']);
     expect(p.problems).toHaveLength(1);
     expect(p.problems[0]).toMatch(/line 4 \(station B at 0, 0, 10 m\): on land in climatology, plus-half/);
+  });
+  it('line.sample on an open session gives what the same recipe sent as JSON gives', async () => {
+    const open = viewsServices.find((e) => e.name === 'view.open')!;
+    const info = (await open.run(open.input.parse({ recipe: join(dir, 'recipe.json') }), ctx)) as SessionInfo;
+    const line = { kind: 'waypoints', points: '-40,-30; -20,30' };
+    const bySession = (await svc('line.sample').run(svc('line.sample').input.parse({ session: info.session, variable: 'PO4', line, spacingKm: 250 }), ctx)) as LineData;
+    const byJson = (await svc('line.sample').run(svc('line.sample').input.parse({ recipe, baseDir: dir, variable: 'PO4', line, spacingKm: 250 }), ctx)) as LineData;
+    expect(bySession.fields.map((f) => f.label)).toEqual(byJson.fields.map((f) => f.label));
+    expect(Array.from(bySession.fields[0].columnMean)).toEqual(Array.from(byJson.fields[0].columnMean));
+    expect(bySession.skill).toEqual(byJson.skill);
+  });
+  it('a call naming neither a session nor a recipe is one sentence', async () => {
+    const input = svc('line.sample').input.parse({ variable: 'PO4', line: { kind: 'meridian', lon: 0 } });
+    await expect(svc('line.sample').run(input, ctx)).rejects.toThrow(/^Name an open session, or send a recipe with the folder/);
+    const gone = svc('line.sample').input.parse({ session: 'no-such-session', variable: 'PO4', line: { kind: 'meridian', lon: 0 } });
+    await expect(svc('line.sample').run(gone, ctx)).rejects.toThrow(/session 'no-such-session' is no longer open/);
   });
   it('files outside the allowed folders are refused', async () => {
     const other = mkdtempSync(join(tmpdir(), 'sw-outside-'));
