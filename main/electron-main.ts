@@ -4,6 +4,7 @@
  */
 import { BrowserWindow, app, ipcMain } from 'electron';
 import { dirname, join } from 'node:path';
+import { keepParsingOffThisThread } from '../app/io/parsing-thread.js';
 import { serviceTable } from '../app/service.js';
 import { defaultCacheDir } from '../app/regrid/weight-cache.js';
 import { IPC } from '../contract/transport.js';
@@ -36,7 +37,12 @@ void app.whenReady().then(() => {
   const guard = new PathGuard(roots.length ? roots : [join(root, 'sample-data'), process.cwd()]);
   // the recipe named at start may be read, and the data beside it (its paths are relative to its folder)
   if (recipe) guard.grant(dirname(recipe));
-  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: new WorkerPool(join(distDir, 'worker.mjs')).runner });
+  // every file from outside is parsed on the pool's threads (the HDF5 library on a thread of its own below
+  // each, as in browser mode): this process only serves the window
+  keepParsingOffThisThread('the Electron main process');
+  const pool = new WorkerPool(join(distDir, 'worker.mjs'));
+  app.on('will-quit', () => void pool.close());
+  const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: pool.runner });
   const openDialog = async (o: Parameters<typeof showOpenDialog>[1]): Promise<string[] | null> => {
     const paths = await showOpenDialog(win, o);
     // a file the person picked may be read, even outside the folders named at start; for a recipe, its folder

@@ -1,6 +1,7 @@
 import { readSync } from 'node:fs';
 import { open, stat, type FileHandle } from 'node:fs/promises';
 import { fileError, StillwaterError } from '../errors.js';
+import { checkParsingHere } from './parsing-thread.js';
 
 /**
  * Readers ask a ByteSource for ranges, so the same format code serves local files,
@@ -44,6 +45,7 @@ export class FileSource implements ByteSource {
   private constructor(readonly name: string, readonly size: number, private readonly handle: FileHandle) {}
 
   static async open(path: string): Promise<FileSource> {
+    checkParsingHere(path);
     let size: number;
     try {
       const s = await stat(path);

@@ -5,6 +5,7 @@
 import { readFile } from 'node:fs/promises';
 import { parseUnits, type ParsedUnits } from '../cf/units.js';
 import { StillwaterError, isStillwaterError } from '../errors.js';
+import { checkParsingHere } from '../io/parsing-thread.js';
 import { prepareFields } from '../lines/recipe-fields.js';
 import type { Recipe } from '../recipe/types.js';
 import { sampleStations, type StationMethod, type StationSamples } from './sample-stations.js';
@@ -38,6 +39,7 @@ export interface PointsResult {
 }
 
 export async function readStations(path: string): Promise<Stations> {
+  checkParsingHere(path);
   let text: string;
   try {
     text = await readFile(path, 'utf8');

@@ -1,12 +1,14 @@
 import { readFile } from 'node:fs/promises';
 import { dirname, resolve } from 'node:path';
 import { StillwaterError } from '../errors.js';
+import { checkParsingHere } from '../io/parsing-thread.js';
 import type { Recipe } from './types.js';
 import { validateRecipe, type ValidateOptions } from './validate.js';
 
 /** Read, parse and validate a recipe file; relative paths in it resolve against its folder. */
 export async function loadRecipe(path: string, opts: ValidateOptions = {}): Promise<Recipe> {
   const abs = resolve(path);
+  checkParsingHere(abs);
   let text: string;
   try {
     text = await readFile(abs, 'utf8');

@@ -4,6 +4,7 @@
  */
 import { readFile } from 'node:fs/promises';
 import { StillwaterError } from '../errors.js';
+import { checkParsingHere } from '../io/parsing-thread.js';
 import type { HorizontalGrid } from '../grid/types.js';
 import { pointInPolygon, wrapLon, type Ring } from './polygon.js';
 import { cellsWhere, type Region } from './region.js';
@@ -81,6 +82,7 @@ export function regionsFromPolygons(named: NamedPolygons[], grid: HorizontalGrid
 }
 
 export async function loadGeoJsonRegions(file: string, grid: HorizontalGrid, nameProperty = 'name', only?: string[]): Promise<Region[]> {
+  checkParsingHere(file);
   let text: string;
   try {
     text = await readFile(file, 'utf8');

@@ -29,6 +29,8 @@ export const compareServices: ServiceEntry[] = [
     name: 'recipe.load',
     summary: 'Read and check a recipe file; returns it with absolute paths and defaults filled in.',
     input: z.object({ path: z.string() }),
+    // a file from outside: parsed on a worker thread, never on the one that serves the screen
+    heavy: true,
     async run(input, ctx) {
       const recipe = guardRecipe(await loadRecipe(ctx.resolvePath(input.path), { confine: ctx.resolvePath }), ctx);
       return { recipe: recipeToJson(recipe), baseDir: recipe.baseDir, variables: recipe.variables };

@@ -139,6 +139,8 @@ export const linesServices: ServiceEntry[] = [
     name: 'points.stations',
     summary: 'Station observations read from a CSV file (positions, depths, values, units), for drawing on the map.',
     input: z.object({ file: z.string().min(1), /** the recipe's folder, which a relative path is taken from */ baseDir: z.string().min(1).optional() }),
+    // a file from outside: parsed on a worker thread, never on the one that serves the screen
+    heavy: true,
     async run(input, ctx): Promise<StationsData> {
       const file = input.baseDir && !isAbsolute(input.file) ? resolve(ctx.resolvePath(input.baseDir), input.file) : input.file;
       const st = await readStations(ctx.resolvePath(file));

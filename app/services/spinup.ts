@@ -17,6 +17,7 @@ import type { SpinupResult, SpinupSummary } from '../spinup/types.js';
 import { cacheKey, readCachedResult, restoreNaN, writeCachedResult } from '../spinup/result-cache.js';
 import { spinupFromJson } from '../spinup/write-output.js';
 import { entry, type ServiceContext, type ServiceEntry } from './types.js';
+import { checkParsingHere } from '../io/parsing-thread.js';
 
 const spinupInput = z.object({
   /** an open workbench session whose recipe is followed */
@@ -102,8 +103,11 @@ export const spinupServices: ServiceEntry[] = [
     name: 'spinup.open',
     summary: 'Read a spinup.json written by `stillwater spinup` (snake_case keys; files from before that change read too).',
     input: z.object({ path: z.string() }),
+    // a file from outside: parsed on a worker thread, never on the one that serves the screen
+    heavy: true,
     async run(input, ctx): Promise<SpinupResult> {
       const path = ctx.resolvePath(input.path);
+      checkParsingHere(path);
       let json: unknown;
       try {
         json = spinupFromJson(JSON.parse(await readFile(path, 'utf8')));

@@ -21,7 +21,10 @@ export interface ServiceEntry<S extends z.ZodType = z.ZodType, O = unknown> {
   name: string;
   summary: string;
   input: S;
-  /** run in a worker thread, so that the screen never freezes (every entry that reads a data file is heavy) */
+  /**
+   * run in a worker thread, so that the screen never freezes: every entry that reads a file from outside is
+   * heavy (the serving threads refuse to parse one, app/io/parsing-thread.ts)
+   */
   heavy?: boolean;
   /**
    * How the entry relates to workbench sessions, which live on the worker thread that opened them:

@@ -10,6 +10,7 @@ import { ensureDemo } from '../../sample-data/generator/generate.js';
 import { serviceTable } from '../../app/service.js';
 import { defaultCacheDir } from '../../app/regrid/weight-cache.js';
 import { StillwaterError } from '../../app/errors.js';
+import { keepParsingOffThisThread } from '../../app/io/parsing-thread.js';
 import { allowOnly, optional, optionalNumber, parseArgs, type ParsedArgs } from '../args.js';
 import { err, out, type Command } from '../command.js';
 import { Dispatcher } from '../dispatch.js';
@@ -42,6 +43,8 @@ async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean
   const guard = new PathGuard(s.roots);
   // a recipe named at start may be read, and the data beside it (its paths are relative to its folder)
   if (s.recipe) guard.grant(dirname(s.recipe));
+  // every file from outside is parsed on the pool's threads: this one only serves the page and the calls
+  keepParsingOffThisThread('the browser-mode server');
   const pool = new WorkerPool();
   const dispatcher = new Dispatcher({ table: serviceTable, guard, cacheDir: defaultCacheDir(), heavy: pool.runner });
   const server = await startServer({ dispatcher, port: s.port, startRecipe: s.recipe, root });
