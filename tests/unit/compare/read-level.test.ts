@@ -2,23 +2,15 @@
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { FieldSource } from '../../../app/cf/field-source.js';
-import { parseUnits } from '../../../app/cf/units.js';
 import { runComparison } from '../../../app/compare/run.js';
 import { planTime } from '../../../app/time/select.js';
 import { reduceTime } from '../../../app/time/reduce.js';
 import { makeRegularGrid } from '../../../app/grid/rectilinear.js';
 import { validateRecipe } from '../../../app/recipe/validate.js';
+import { memoryField } from '../memory-field.js';
 
 function fakeField(steps: number[][]): FieldSource {
-  return {
-    file: 'fake.nc',
-    variable: 'x',
-    units: parseUnits('1'),
-    grid: { horizontal: makeRegularGrid(180, 180), vertical: null },
-    nt: steps.length,
-    time: null,
-    readLevel: async (t) => Float32Array.from(steps[t]),
-  };
+  return memoryField({ horizontal: makeRegularGrid(180, 180), vertical: null }, steps.map((v) => Float32Array.from(v)), { file: 'fake.nc', variable: 'x', units: '1', nt: steps.length });
 }
 
 describe('time steps', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { zonalMeanOfBasin } from '../../../app/lines/zonal-mean.js';
-import { edgesOf, memoryField } from './memory-field.js';
+import { edgesOf, gridFromEdges, memoryField } from '../memory-field.js';
 
 // Zonal mean: the area-weighted mean over the basin's cells of a latitude row (common practice). On a
 // lat-lon grid every cell of a row has the same area, so it is the plain mean of the row's basin cells.
@@ -16,7 +16,7 @@ describe('zonal mean of a basin', () => {
   const mask = Uint8Array.from([1, 1, 1, 0, 1, 1, 1, 0, 0, 1, 1, 0]); // columns 0..2, except row 2 column 0
 
   it('averages the basin cells of each row and level, leaving dry cells out', async () => {
-    const fields = { reference: { label: 'ref', field: memoryField(lonE, latE, zE, ref) }, runs: [{ label: 'run', field: memoryField(lonE, latE, zE, run) }] };
+    const fields = { reference: { label: 'ref', field: memoryField(gridFromEdges(lonE, latE, zE), ref) }, runs: [{ label: 'run', field: memoryField(gridFromEdges(lonE, latE, zE), run) }] };
     const [r, m, d] = await zonalMeanOfBasin(fields, mask);
     expect(r.role).toBe('reference');
     expect(Array.from(r.values.subarray(0, 3))).toEqual([1, 11, 21.5]); // (0+1+2)/3, (10+11+12)/3, (21+22)/2

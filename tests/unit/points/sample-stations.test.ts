@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { sampleStations } from '../../../app/points/sample-stations.js';
-import { memoryField } from '../lines/memory-field.js';
+import { gridFromEdges, memoryField } from '../memory-field.js';
 
 // Check values from scipy.interpolate.RegularGridInterpolator(method='linear')
 // (tests/fixtures/lines/make_trilinear.py).
@@ -28,7 +28,7 @@ function positions(points: { lon: number; lat: number; depth: number }[], seaflo
 describe('trilinear station sampling agrees with scipy RegularGridInterpolator', () => {
   for (const c of fx.cases) {
     it(c.name, async () => {
-      const f = memoryField(c.lon_edges, c.lat_edges, c.z_edges, Float32Array.from(c.values));
+      const f = memoryField(gridFromEdges(c.lon_edges, c.lat_edges, c.z_edges), Float32Array.from(c.values));
       const s = await sampleStations(f, positions(c.points));
       c.expected.forEach((e, i) => {
         expect(s.status[i]).toBe('ok');
@@ -45,7 +45,7 @@ const zE = [0, 100, 200, 300, 400];
 function stepField(wetLevels: number[]): ReturnType<typeof memoryField> {
   const v = new Float32Array(4 * 12);
   for (let k = 0; k < 4; k++) for (let c = 0; c < 12; c++) v[k * 12 + c] = k < wetLevels[c] ? 10 * k + c : NaN;
-  return memoryField(lonE, latE, zE, v);
+  return memoryField(gridFromEdges(lonE, latE, zE), v);
 }
 
 describe('stations at the seafloor, on land and below the seafloor are each reported', () => {

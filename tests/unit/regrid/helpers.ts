@@ -1,28 +1,10 @@
 import type { FieldSource } from '../../../app/cf/field-source.js';
-import type { ParsedUnits } from '../../../app/cf/units.js';
 import type { Grid, HorizontalGrid } from '../../../app/grid/types.js';
 import { EARTH_RADIUS_M } from '../../../app/grid/types.js';
 import { frameCellAreas } from '../../../app/regrid/conservative-curvilinear.js';
 import type { SparseWeights } from '../../../app/regrid/csr.js';
 import type { LevelRule } from '../../../app/regrid/remap-level.js';
-
-export const MMOL_M3: ParsedUnits = { text: 'mmol m-3', kind: 'amount_per_volume', canonical: 'mmol m-3', factor: 1e-3, offset: 0 };
-
-/** A field held in memory: levels[t * nz + k] is one level. */
-export function memoryField(grid: Grid, levels: Float32Array[], nt = 1): FieldSource {
-  const nz = grid.vertical ? grid.vertical.nz : 1;
-  return {
-    file: 'memory.nc',
-    variable: 'tracer',
-    units: MMOL_M3,
-    grid,
-    nt,
-    time: null,
-    async readLevel(t: number, k: number) {
-      return levels[t * nz + k].slice();
-    },
-  };
-}
+import { MMOL_M3 } from '../memory-field.js';
 
 /** A field computed from a function of lon, lat, depth, on demand. */
 export function functionField(grid: Grid, f: (lon: number, lat: number, z: number, cell: number) => number): FieldSource & { reads: number } {

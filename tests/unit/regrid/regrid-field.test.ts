@@ -7,7 +7,8 @@ import type { Grid, HorizontalGrid } from '../../../app/grid/types.js';
 import { makeVerticalAxis } from '../../../app/grid/vertical.js';
 import { regridField } from '../../../app/regrid/regrid-field.js';
 import { clearWeightMemory } from '../../../app/regrid/weights.js';
-import { distortedGrid, functionField, memoryField } from './helpers.js';
+import { memoryField } from '../memory-field.js';
+import { distortedGrid, functionField } from './helpers.js';
 
 const edges = (a: number, b: number, d: number): Float64Array => Float64Array.from({ length: Math.round((b - a) / d) + 1 }, (_, i) => a + i * d);
 const flat = (h: HorizontalGrid): Grid => ({ horizontal: h, vertical: null });

@@ -4,7 +4,7 @@ import { cellsWhere } from '../../../app/regions/region.js';
 import { inventoryUnits } from '../../../app/spinup/inventory-units.js';
 import { EARTH_RADIUS_M } from '../../../app/grid/types.js';
 import type { LayerSpec } from '../../../app/spinup/types.js';
-import { handField, handGrid, MMOL_M3, UMOL_KG } from './hand-built.js';
+import { gridFromEdges, memoryField, MMOL_M3, UMOL_KG } from '../memory-field.js';
 
 // A 2 x 2 x 2 grid: longitudes 0–10–20 °E, latitudes 0–10–30 °N, layers 0–100–300 m.
 // Cell area on a sphere, exact geometry: R² Δλ (sin φ2 − sin φ1), R = 6 371 008.8 m (GRS 80 mean radius, Moritz 2000).
@@ -16,7 +16,7 @@ const A_north = R2 * dLon * (s(30) - s(10)); // row j = 1
 const nan = NaN;
 // level 0 (0–100 m): [1, 2 | 3, land]; level 1 (100–300 m): [4, 5 | land, land]
 const data = Float32Array.from([1, 2, 3, nan, 4, 5, nan, nan]);
-const grid = handGrid([0, 10, 20], [0, 10, 30], [0, 100, 300]);
+const grid = gridFromEdges([0, 10, 20], [0, 10, 30], [0, 100, 300]);
 /** region cells from a 0/1 mask */
 const region = (name: string, mask: number[]) => ({ name, cells: cellsWhere(mask.length, (c) => mask[c] === 1) });
 const layers: LayerSpec[] = [
@@ -27,7 +27,7 @@ const layers: LayerSpec[] = [
 
 describe('volume-weighted sums and inventory, computed by hand on a small grid', () => {
   it('sums Σ c·V and V per layer; a level straddling a layer edge counts with the part inside', async () => {
-    const f = handField('hand.nc', 'PO4', grid, data);
+    const f = memoryField(grid, data, { file: 'hand.nc', variable: 'PO4' });
     const [global, west] = await snapshotSums(f, 0, [region('global', [1, 1, 1, 1]), region('west', [1, 0, 1, 0])], layers);
     const cvAll = (1 * A_south + 2 * A_south + 3 * A_north) * 100 + (4 * A_south + 5 * A_south) * 200;
     const vAll = (2 * A_south + A_north) * 100 + 2 * A_south * 200;
@@ -51,7 +51,7 @@ describe('volume-weighted sums and inventory, computed by hand on a small grid',
     expect(inv.units).toBe('mol');
     expect(inv.factor).toBe(1e-3);
     expect(inv.note).toBeUndefined();
-    const f = handField('hand.nc', 'PO4', grid, data);
+    const f = memoryField(grid, data, { file: 'hand.nc', variable: 'PO4' });
     const [[all]] = await snapshotSums(f, 0, [region('global', [1, 1, 1, 1])], layers.slice(0, 1));
     const molByHand = 1e-3 * ((1 * A_south + 2 * A_south + 3 * A_north) * 100 + (4 * A_south + 5 * A_south) * 200);
     expect((all.sumCV * inv.factor) / molByHand - 1).toBeCloseTo(0, 12);

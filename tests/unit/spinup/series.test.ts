@@ -4,9 +4,10 @@ import { buildResult } from '../../../app/spinup/build-result.js';
 import { DEFAULT_SETTINGS, type LayerSpec, type SnapshotSpec } from '../../../app/spinup/types.js';
 import { StillwaterError } from '../../../app/errors.js';
 import type { FieldSource } from '../../../app/cf/field-source.js';
-import { handField, handGrid, memoryOpener, UMOL_KG } from './hand-built.js';
+import { gridFromEdges, memoryField, UMOL_KG } from '../memory-field.js';
+import { memoryOpener } from './memory-opener.js';
 
-const grid = handGrid([0, 10, 20, 30], [-10, 0, 10], [0, 50, 150, 400]);
+const grid = gridFromEdges([0, 10, 20, 30], [-10, 0, 10], [0, 50, 150, 400]);
 const layers: LayerSpec[] = [
   { kind: 'all' },
   { kind: 'interval', top: 0, bottom: 150 },
@@ -18,7 +19,7 @@ function snapshotField(file: string, year: number, variable = 'PO4', g = grid): 
   const n = g.horizontal.nx * g.horizontal.ny;
   const d = new Float32Array(nz * n);
   for (let k = 0; k < nz; k++) for (let c = 0; c < n; c++) d[k * n + c] = c === 5 ? NaN : (2 + Math.exp(-year / 600)) * (1 + 0.1 * k);
-  return handField(file, variable, g, d);
+  return memoryField(g, d, { file, variable });
 }
 
 function demoFiles(years: number[]): { specs: SnapshotSpec[]; files: Record<string, Record<string, FieldSource>> } {
@@ -84,7 +85,7 @@ describe('spin-up series over snapshot files', () => {
 
   it('refuses a snapshot on another grid, naming the file and the difference', async () => {
     const { specs, files } = demoFiles([100, 200, 300]);
-    files['year-300.nc'] = { PO4: snapshotField('year-300.nc', 300, 'PO4', handGrid([0, 10, 20, 30], [-10, 0, 10], [0, 50, 150, 500])) };
+    files['year-300.nc'] = { PO4: snapshotField('year-300.nc', 300, 'PO4', gridFromEdges([0, 10, 20, 30], [-10, 0, 10], [0, 50, 150, 500])) };
     const e = await refusal(seriesSums({ snapshots: specs, listName: 'runs[0].snapshots', tracers, layers, open: memoryOpener(files) }));
     expect(e.code).toBe('E_GRID');
     expect(e.message).toMatch(/^year-300\.nc: .*another grid than year-100\.nc \(other depth levels\)/);
@@ -113,7 +114,7 @@ describe('spin-up series over snapshot files', () => {
     const { specs, files } = demoFiles([100, 200, 300]);
     for (const [name, vars] of Object.entries(files)) vars.NO3 = snapshotField(name, 1, 'NO3');
     const f = files['year-300.nc'].NO3;
-    files['year-300.nc'].NO3 = handField('year-300.nc', 'NO3', f.grid, new Float32Array(6 * 3), UMOL_KG);
+    files['year-300.nc'].NO3 = memoryField(f.grid, new Float32Array(6 * 3), { file: 'year-300.nc', variable: 'NO3', units: UMOL_KG });
     const e = await refusal(seriesSums({ snapshots: specs, listName: 'runs[0].snapshots', tracers: [...tracers, { name: 'nitrate', variable: 'NO3' }], layers, open: memoryOpener(files) }));
     expect(e.code).toBe('E_UNITS');
     expect(e.message).toMatch(/^year-300\.nc: variable 'NO3' .* is in 'umol kg-1' but in 'mmol m-3' in year-100\.nc/);
