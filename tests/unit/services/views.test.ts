@@ -16,7 +16,7 @@ import type { LevelData, SectionData, SessionInfo, TableText } from '../../../co
 import type { ServiceContext } from '../../../app/services/types.js';
 import { viewsServices } from '../../../app/services/views.js';
 import { ensureDemo } from '../../../sample-data/generator/generate.js';
-import { gswDensity } from './gsw.js';
+import { gswDensity } from '../render/gsw.js';
 
 const SAMPLE = resolve('sample-data');
 const RECIPE = join(SAMPLE, 'demo-recipe.json');
