@@ -25,6 +25,9 @@ function fakeElectron() {
     isPackaged: false,
   });
   const windows: { options: Record<string, unknown>; url?: string }[] = [];
+  let windowLoading!: () => void;
+  /** settles when the main process asks the window to load its page: the last step once the app is ready */
+  const loading = new Promise<void>((r) => (windowLoading = r));
   class BrowserWindow extends EventEmitter {
     webContents = { send: vi.fn() };
     constructor(readonly options: Record<string, unknown>) {
@@ -33,6 +36,7 @@ function fakeElectron() {
     }
     loadURL(url: string) {
       windows[windows.length - 1].url = url;
+      windowLoading();
       return Promise.resolve();
     }
     show() {}
@@ -74,7 +78,7 @@ function fakeElectron() {
   };
   let isReady = false;
   const schemes: unknown[] = [];
-  return { electron, calls, windows, handlers, session, app, schemes, ready: () => ((isReady = true), readyResolve()) };
+  return { electron, calls, windows, handlers, session, app, schemes, loading, ready: () => ((isReady = true), readyResolve()) };
 }
 
 describe('Electron main process wiring', () => {
@@ -87,7 +91,7 @@ describe('Electron main process wiring', () => {
     expect(f.calls).toEqual(['register-scheme ready=false']);
     expect(JSON.stringify(f.schemes)).toContain('"secure":true');
     f.ready();
-    await new Promise((r) => setTimeout(r, 20));
+    await f.loading;
     expect(f.calls).toContain('handle app');
 
     // the window: built from windowOptions, loading our page from the private scheme

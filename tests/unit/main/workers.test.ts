@@ -53,17 +53,19 @@ describe('worker threads', () => {
   it('stop a job that looks at its signal, answering E_CANCELLED', async () => {
     const c = new AbortController();
     const run = workerRunner(workerFile);
-    const p = run(job('count', { steps: 1000, ms: 5 }), { progress: () => undefined, signal: c.signal });
-    setTimeout(() => c.abort(), 100);
+    // cancelled once it is certainly running: at its first progress report
+    const p = run(job('count', { steps: 1000, ms: 5 }), { progress: () => c.abort(), signal: c.signal });
     await expect(p).rejects.toMatchObject({ code: 'E_CANCELLED' });
   });
   it('terminate a job that ignores its signal, after a short grace', async () => {
     const c = new AbortController();
-    const run = workerRunner(workerFile);
-    const p = run(job('stubborn', {}), { progress: () => undefined, signal: c.signal });
-    setTimeout(() => c.abort(), 200);
-    // the job blocks its thread for 20 s: only terminating the thread answers before the test's own limit
+    const pool = new WorkerPool(workerFile, { size: 1 });
+    pools.push(pool);
+    // cancelled once its thread is stuck: the job reports progress, then blocks for 20 s ignoring the signal
+    const p = pool.run(job('stubborn', {}), { progress: () => c.abort(), signal: c.signal });
     await expect(p).rejects.toMatchObject({ code: 'E_CANCELLED' });
+    // the answer came from terminating the thread, not from the job ending by itself
+    expect(pool.threads).toBe(0);
   });
   it('keep the path rule inside the thread', async () => {
     const run = workerRunner(workerFile);
