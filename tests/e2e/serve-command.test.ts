@@ -12,10 +12,24 @@ beforeAll(async () => {
   await prepare();
 });
 
-function runUntilUrl(args: string[], env: NodeJS.ProcessEnv): Promise<{ url: string; stderr: () => string; stop: () => Promise<number | null> }> {
+function runUntilUrl(
+  args: string[],
+  env: NodeJS.ProcessEnv,
+): Promise<{ url: string; stderr: () => string; stderrMatching: (re: RegExp) => Promise<void>; stop: () => Promise<number | null> }> {
   const child = spawn(process.execPath, [CLI, ...args], { cwd: PROJECT, env, stdio: ['ignore', 'pipe', 'pipe'] });
   let err = '';
   child.stderr.on('data', (b: Buffer) => (err += b.toString()));
+  /** settles once stderr says `re` (it may already have) */
+  const stderrMatching = (re: RegExp): Promise<void> =>
+    new Promise((resolveMatch) => {
+      const check = (): void => {
+        if (!re.test(err)) return;
+        child.stderr.off('data', check);
+        resolveMatch();
+      };
+      child.stderr.on('data', check);
+      check();
+    });
   return new Promise((resolve, reject) => {
     let out = '';
     const timer = setTimeout(() => reject(new Error(`no address in 60 s: ${err}`)), 60_000);
@@ -27,6 +41,7 @@ function runUntilUrl(args: string[], env: NodeJS.ProcessEnv): Promise<{ url: str
         resolve({
           url: line.trim(),
           stderr: () => err,
+          stderrMatching,
           stop: () =>
             new Promise((done) => {
               child.once('exit', (code) => done(code));
@@ -43,7 +58,7 @@ describe('stillwater start and serve', () => {
   it('start falls back to browser mode without the Electron binary, says so, and serves the page', async () => {
     const env = { ...process.env, DISPLAY: '', WAYLAND_DISPLAY: '' };
     const r = await runUntilUrl(['start', '--port', '0'], env);
-    for (let i = 0; i < 50 && !/browser mode/.test(r.stderr()); i++) await new Promise((w) => setTimeout(w, 100));
+    await r.stderrMatching(/browser mode/);
     expect(r.url).toMatch(/^http:\/\/127\.0\.0\.1:\d+\/\?token=[\w-]{32,}$/);
     expect(r.stderr()).toMatch(/browser mode \((the Electron binary is not installed|there is no display)\)/);
     const res = await fetch(r.url);
@@ -56,7 +71,7 @@ describe('stillwater start and serve', () => {
 
   it('serve prints only the address on stdout and stops cleanly on Ctrl+C', async () => {
     const r = await runUntilUrl(['serve', '--root', join(PROJECT, 'sample-data')], process.env);
-    for (let i = 0; i < 50 && !/files readable/.test(r.stderr()); i++) await new Promise((w) => setTimeout(w, 100));
+    await r.stderrMatching(/files readable/);
     expect(r.stderr()).toMatch(/files readable under .*sample-data/);
     // the address with its token is printed once, on stdout (issue 16, item 11)
     expect(r.stderr()).not.toContain(new URL(r.url).searchParams.get('token')!);

@@ -132,6 +132,10 @@ describe('Electron main process wiring', () => {
     f.session.defaultSession.permission!({}, 'geolocation', (g: unknown) => (granted = g));
     expect(granted).toBe(false);
 
+    // no file from outside is parsed in this process: every reader refuses to run on its thread
+    const { checkParsingHere } = await import('../../../app/io/parsing-thread.js');
+    expect(() => checkParsingHere('/data/x.nc')).toThrow(/would be read on the thread that serves the screen \(the Electron main process\)/);
+
     // IPC: one handler per service entry, plus cancel, dialog, start recipe
     for (const e of serviceTable) expect(f.handlers.has(`${IPC.call}:${e.name}`), e.name).toBe(true);
     for (const c of [IPC.cancel, IPC.dialog, IPC.startRecipe]) expect(f.handlers.has(c)).toBe(true);
