@@ -11,6 +11,11 @@ export type Hdf5Request =
   | { op: 'slice'; handle: number; h5path: string; ranges: Hdf5Ranges; subject: { file: string; variable: string } }
   | { op: 'close'; handle: number };
 
+/** What a close answers: the library's memory afterwards, so that the caller can retire a swollen thread. */
+export interface Hdf5Closed {
+  heapBytes: number;
+}
+
 // The library prints diagnostics through console.error, bound when its module loads: silence it first.
 // What went wrong reaches the caller as one sentence instead.
 console.error = () => undefined;
@@ -26,7 +31,8 @@ async function start(): Promise<void> {
       const req = r as Hdf5Request;
       if (req.op === 'open') return lib.open(req.path);
       if (req.op === 'slice') return lib.slice(req.handle, req.h5path, req.ranges, req.subject);
-      return lib.close(req.handle);
+      await lib.close(req.handle);
+      return { heapBytes: await lib.heapBytes() } satisfies Hdf5Closed;
     },
     (value) => (ArrayBuffer.isView(value) && value.buffer instanceof ArrayBuffer && value.byteLength === value.buffer.byteLength ? [value.buffer] : []),
   );

@@ -89,6 +89,11 @@ export class InProcessHdf5 implements Hdf5Library {
       // closing a damaged file can fail; nothing is left to release that a retry would
     }
   }
+
+  /** Bytes of the library's WebAssembly memory: it grows with what a file needed and never shrinks. */
+  async heapBytes(): Promise<number> {
+    return (await h5wasm.ready).HEAPU8.length;
+  }
 }
 
 type H5Module = Awaited<typeof h5wasm.ready>;

@@ -14,6 +14,8 @@ export interface FuzzTally {
   ok: number;
   refused: number;
   unreadable: number;
+  /** refusals because the HDF5 library did not return within its deadline */
+  deadline: number;
   fault: number;
   hang: number;
   crash: number;

@@ -109,12 +109,14 @@ function runChild(harness, job, limits, record) {
 
 /** Counts of outcomes, for printing. */
 export function tally(records) {
-  const t = { total: records.length, ok: 0, refused: 0, unreadable: 0, fault: 0, hang: 0, crash: 0, changed: 0, maxRssMb: 0 };
+  const t = { total: records.length, ok: 0, refused: 0, unreadable: 0, deadline: 0, fault: 0, hang: 0, crash: 0, changed: 0, maxRssMb: 0 };
   for (const r of records) {
     if (r.code === 0) t.ok++;
     else if (r.code === 2) {
       t.refused++;
       if (r.problem) t.unreadable++;
+      // refused because the HDF5 library did not return within its deadline (its thread was stopped)
+      if (/could not be read within/.test(String(r.message))) t.deadline++;
     } else if (r.code === 1) t.fault++;
     else if (r.code === 'hang') t.hang++;
     else t.crash++;
