@@ -3,8 +3,14 @@ import type { RawArray, RawVariable } from '../io/types.js';
 import { applyMask, maskRules } from './mask.js';
 import { decodedType, packingOf, unpack } from './unpack.js';
 
+/**
+ * `raw` is the caller's to give away (readers hand out new arrays): values already of the decoded type are
+ * decoded in place, since a fresh array of a level of millions of cells costs more in page faults than the work.
+ */
 export function decodeValues(v: Pick<RawVariable, 'dtype' | 'attrs' | 'attrTypes'>, raw: RawArray): Float32Array | Float64Array {
-  const out = decodedType(v) === 'f4' ? new Float32Array(raw.length) : new Float64Array(raw.length);
+  const f4 = decodedType(v) === 'f4';
+  const inPlace = f4 ? raw instanceof Float32Array : raw instanceof Float64Array;
+  const out = inPlace ? (raw as Float32Array | Float64Array) : f4 ? new Float32Array(raw.length) : new Float64Array(raw.length);
   applyMask(raw, maskRules(v), out);
   return unpack(out, packingOf(v));
 }

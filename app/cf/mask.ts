@@ -126,11 +126,28 @@ export function applyMask<T extends Float32Array | Float64Array>(raw: RawArray, 
   const hi = rules.validMax ?? Infinity;
   const miss = rules.missing;
   const big = src instanceof BigInt64Array || src instanceof BigUint64Array;
+  if (!big && miss.length <= 2) return maskFloat(src as Float64Array, lo, hi, miss, out);
   for (let i = 0; i < n; i++) {
     const x = big ? Number((src as BigInt64Array)[i]) : (src as Float64Array)[i];
     let bad = x < lo || x > hi;
     for (let m = 0; !bad && m < miss.length; m++) bad = x === miss[m];
     out[i] = bad ? NaN : x;
+  }
+  return out;
+}
+
+/**
+ * The same rule for the common case (numbers, at most two missing values) without the inner loop: a model
+ * level of millions of cells is masked here once per level read. NaN stands in for an absent missing value
+ * (it equals nothing). `out` may be `src` itself.
+ */
+function maskFloat<T extends Float32Array | Float64Array>(src: ArrayLike<number>, lo: number, hi: number, miss: number[], out: T): T {
+  const n = src.length;
+  const m0 = miss.length > 0 ? miss[0] : NaN;
+  const m1 = miss.length > 1 ? miss[1] : NaN;
+  for (let i = 0; i < n; i++) {
+    const x = src[i];
+    out[i] = x < lo || x > hi || x === m0 || x === m1 ? NaN : x;
   }
   return out;
 }

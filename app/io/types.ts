@@ -58,7 +58,8 @@ export interface RawDataset {
   /** What a person should know about what was (not) read, e.g. groups other than the root group. */
   readonly notes?: string[];
   /**
-   * Read a hyperslab in the variable's own dtype, C order (last dimension fastest).
+   * Read a hyperslab in the variable's own dtype, C order (last dimension fastest), as a new array that the
+   * caller owns (decoding may overwrite it).
    * start/count default to the whole variable. char variables come back as Uint8Array.
    * Throws StillwaterError E_VARIABLE for an unknown name, E_INPUT for a slab outside the shape.
    */

@@ -74,7 +74,8 @@ export class ChunkStore {
   private readonly pending = new Map<number, Promise<Uint8Array>>();
   constructor(private readonly source: ByteSource) {}
 
-  async get(v: ChunkedVariable, entry: ChunkEntry, keep: boolean): Promise<Uint8Array> {
+  /** The decoded chunk; `into` (a chunk's size) may receive it directly when nothing keeps it (then it is returned). */
+  async get(v: ChunkedVariable, entry: ChunkEntry, keep: boolean, into?: Uint8Array): Promise<Uint8Array> {
     const hit = this.cache.get(entry.address);
     if (hit) return hit;
     const ahead = this.pending.get(entry.address);
@@ -85,7 +86,7 @@ export class ChunkStore {
     } else {
       const raw = new Uint8Array(entry.size);
       await readIntoFrom(this.source, entry.address, raw);
-      data = decodeChunk(raw, v.filters, entry.filterMask, v.elementSize, chunkBytes(v));
+      data = decodeChunk(raw, v.filters, entry.filterMask, v.elementSize, chunkBytes(v), keep ? undefined : into);
     }
     if (keep) this.cache.put(entry.address, data);
     return data;
@@ -156,9 +157,12 @@ export async function readChunked(
     const boxCount = boxEnd.map((e, i) => e - boxStart[i]);
     const whole = boxCount.every((c, i) => c === chunk[i]);
     const entry = v.chunks.get(idx.join(','));
+    // a chunk that is the whole slab is decoded straight into it
+    const direct = whole && needed.length === 1 && boxCount.every((c, i) => c === count[i]) ? out : undefined;
     const data = !entry || entry.address === UNDEFINED_ADDRESS
       ? fillChunk(chunkElems, elementSize, v.fill)
-      : await store.get(v, entry, !whole);
+      : await store.get(v, entry, !whole, direct);
+    if (data === out) continue;
     copyBox(
       data, chunk, boxStart.map((b, i) => b - origin[i]),
       out, count, boxStart.map((b, i) => b - start[i]),

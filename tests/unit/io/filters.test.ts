@@ -22,3 +22,21 @@ describe('unshuffle inverts the shuffle filter', () => {
     expect(Array.from(unshuffle(shuffle(bytes, size), size))).toEqual(Array.from(bytes));
   });
 });
+
+describe('unshuffle into the caller\'s array', () => {
+  it.each([[4, 64800 * 4], [4, 18], [8, 43]])('element size %i, %i bytes: the same bytes, written into the given array', (size, length) => {
+    const bytes = Uint8Array.from({ length }, (_, i) => (i * 53 + 7) & 0xff);
+    const into = new Uint8Array(length).fill(0xaa);
+    const got = unshuffle(shuffle(bytes, size), size, into);
+    expect(got).toBe(into);
+    expect(Array.from(into)).toEqual(Array.from(bytes));
+  });
+
+  it('an array of another length is left alone and a new one returned', () => {
+    const bytes = Uint8Array.from({ length: 16 }, (_, i) => i);
+    const into = new Uint8Array(8);
+    const got = unshuffle(shuffle(bytes, 4), 4, into);
+    expect(got).not.toBe(into);
+    expect(Array.from(got)).toEqual(Array.from(bytes));
+  });
+});
