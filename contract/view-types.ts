@@ -3,6 +3,12 @@
  * services and the renderer both import these. Arrays are typed arrays with NaN for missing values.
  */
 
+/**
+ * A period of the year the views can show: the year, a calendar month, or a meteorological season (the
+ * same names as the skill rows' `period`, app/time/periods.ts).
+ */
+export type ViewPeriod = 'annual' | 'JAN' | 'FEB' | 'MAR' | 'APR' | 'MAY' | 'JUN' | 'JUL' | 'AUG' | 'SEP' | 'OCT' | 'NOV' | 'DEC' | 'DJF' | 'MAM' | 'JJA' | 'SON';
+
 /** One variable of the reference or of a run, as the sources panel lists it. */
 export interface SourceVariable {
   /** the recipe's key, e.g. "PO4" */
@@ -79,6 +85,10 @@ export interface SessionInfo {
   regions: string[];
   layers: LayerChoice[];
   grid: ViewGrid;
+  /** the periods the views can show: 'annual' always, months and seasons when the recipe asks for them (options.periods) */
+  periods: ViewPeriod[];
+  /** why months and seasons cannot be chosen, when they cannot */
+  periodsNote?: string;
   /** every problem found on opening the recipe (listed in the sources panel) */
   problems?: RecipeProblem[];
   /** the recipe's `screen` section: the view saved with it, restored on open */
@@ -91,6 +101,7 @@ export interface SessionInfo {
 export interface LevelData {
   variable: string;
   run: string;
+  period: ViewPeriod;
   layer: LayerChoice;
   units: string;
   model: Float32Array;
@@ -108,6 +119,7 @@ export type SectionKind = 'meridian' | 'parallel' | 'zonal';
 export interface SectionData {
   variable: string;
   run: string;
+  period: ViewPeriod;
   kind: SectionKind;
   /** longitude of a meridian or latitude of a parallel that was asked for, and the grid line used */
   at: number | null;
@@ -130,12 +142,37 @@ export interface SectionData {
 export interface ProfileData {
   variable: string;
   region: string;
+  period: ViewPeriod;
   units: string;
   depthCentres: Float64Array;
   depthEdges: Float64Array;
   /** area-weighted mean of each level over the region's wet cells */
   reference: Float64Array;
   runs: { label: string; values: Float64Array }[];
+}
+
+/**
+ * The monthly cycle of a region's mean over the levels of a depth choice: a month × depth section. Values are
+ * month-major within a level, [k * 12 + m] (m = 0 is January), k counting the levels listed in depthEdges.
+ */
+export interface ProfileCycleData {
+  variable: string;
+  run: string;
+  region: string;
+  layer: LayerChoice;
+  units: string;
+  /** edges of the levels shown (nk + 1), m, from the first level of the depth choice */
+  depthEdges: Float64Array;
+  /** index of the first level shown on the common grid */
+  firstLevel: number;
+  /** days of each month as the reference's calendar counts them (its month weights) */
+  monthDays: Float64Array;
+  /** area-weighted mean over the region's cells where the reference has a value */
+  reference: Float64Array;
+  /** the run over the cells where it and the reference both have values */
+  model: Float64Array;
+  /** the run minus the reference, both over the cells where both have values */
+  difference: Float64Array;
 }
 
 export type TableFormat = 'csv' | 'markdown' | 'latex' | 'json';
@@ -173,5 +210,9 @@ export interface ScreenSection {
   sectionField?: 'model' | 'reference' | 'difference';
   sectionDepth?: number | null;
   diagram?: 'taylor' | 'target';
+  /** the period of the year the views showed */
+  period?: ViewPeriod;
+  /** the Profile view showed the monthly cycle (month × depth) instead of the mean profile */
+  profileCycle?: boolean;
   line?: { points: [number, number][]; spacingKm: number; field: number; stretch: boolean };
 }

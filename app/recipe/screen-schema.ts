@@ -5,6 +5,7 @@
  */
 import { z } from 'zod';
 import type { ScreenSection } from '../../contract/view-types.js';
+import { ALL_PERIODS, type Period } from '../time/periods.js';
 
 const range = z.tuple([z.number().finite(), z.number().finite()]).refine((r) => r[1] > r[0], { error: 'the maximum must be above the minimum' });
 const window = z.strictObject({ xmin: z.number().finite(), xmax: z.number().finite(), ymin: z.number().finite(), ymax: z.number().finite() });
@@ -32,6 +33,8 @@ export const screenSectionSchema = z.strictObject({
   sectionField: z.enum(['model', 'reference', 'difference']).optional(),
   sectionDepth: z.number().positive().nullable().optional(),
   diagram: z.enum(['taylor', 'target']).optional(),
+  period: z.enum(ALL_PERIODS as [Period, ...Period[]]).optional(),
+  profileCycle: z.boolean().optional(),
   line: z
     .strictObject({
       points: z.array(z.tuple([z.number().min(-180).max(360), z.number().min(-90).max(90)])).min(2),

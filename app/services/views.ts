@@ -23,10 +23,15 @@ import { profileData } from '../session/profile-data.js';
 import { sectionData } from '../session/section-data.js';
 import { openSession } from '../session/session.js';
 import { sessionStore } from '../session/store.js';
-import type { LevelData, ProfileData, SectionData, SessionInfo, TableText } from '../../contract/view-types.js';
+import type { LevelData, ProfileCycleData, ProfileData, SectionData, SessionInfo, TableText } from '../../contract/view-types.js';
 import { entry, type ServiceEntry } from './types.js';
+import { profileCycleData } from '../session/profile-cycle.js';
+import { ALL_PERIODS, type Period } from '../time/periods.js';
 
 const sessionInput = z.object({ session: z.string().min(1) });
+
+/** A period of the year (annual, a month, a season); the year when left out. */
+const periodInput = z.enum(ALL_PERIODS as [Period, ...Period[]]).default('annual');
 
 /** Seconds that reading headers may take before the worker is stopped (damaged files can make a library loop). */
 const HEADER_DEADLINE_S = 20;
@@ -121,11 +126,11 @@ export const viewsServices: ServiceEntry[] = [
   entry({
     name: 'view.level',
     summary: 'Model, reference and difference on the common grid for one level, layer mean, or the bottom.',
-    input: z.object({ session: z.string().min(1), variable: z.string().min(1), run: z.string().min(1), layer: z.string().min(1) }),
+    input: z.object({ session: z.string().min(1), variable: z.string().min(1), run: z.string().min(1), layer: z.string().min(1), period: periodInput }),
     heavy: true,
     session: 'use',
     async run(input, ctx): Promise<LevelData> {
-      return levelData(sessionStore.get(input.session), input.variable, input.run, input.layer, ctx);
+      return levelData(sessionStore.get(input.session), input.variable, input.run, input.layer, ctx, input.period);
     },
   }),
   entry({
@@ -149,6 +154,7 @@ export const viewsServices: ServiceEntry[] = [
       kind: z.enum(['meridian', 'parallel', 'zonal']),
       at: z.number().finite().nullable().default(null),
       region: z.string().min(1).nullable().default(null),
+      period: periodInput,
     }),
     heavy: true,
     session: 'use',
@@ -159,11 +165,21 @@ export const viewsServices: ServiceEntry[] = [
   entry({
     name: 'view.profile',
     summary: 'Area-weighted mean profile of a region: the reference and every run.',
-    input: z.object({ session: z.string().min(1), variable: z.string().min(1), region: z.string().min(1) }),
+    input: z.object({ session: z.string().min(1), variable: z.string().min(1), region: z.string().min(1), period: periodInput }),
     heavy: true,
     session: 'use',
     async run(input, ctx): Promise<ProfileData> {
-      return profileData(sessionStore.get(input.session), input.variable, input.region, ctx);
+      return profileData(sessionStore.get(input.session), input.variable, input.region, ctx, input.period);
+    },
+  }),
+  entry({
+    name: 'view.profileCycle',
+    summary: "The monthly cycle of a region's mean over a depth choice's levels (month × depth): the reference, a run and their difference.",
+    input: z.object({ session: z.string().min(1), variable: z.string().min(1), run: z.string().min(1), region: z.string().min(1), layer: z.string().min(1) }),
+    heavy: true,
+    session: 'use',
+    async run(input, ctx): Promise<ProfileCycleData> {
+      return profileCycleData(sessionStore.get(input.session), input, ctx);
     },
   }),
   entry({

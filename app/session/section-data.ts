@@ -4,19 +4,23 @@ import { levelsOf, meridianSection, parallelSection, seafloorOf, zonalMeans } fr
 import { findInterval } from '../render/pixel-lookup.js';
 import type { SectionData } from '../../contract/view-types.js';
 import type { ServiceProgress } from './progress.js';
+import type { Period } from '../time/periods.js';
+import { checkPeriod } from './periods.js';
 import type { Session } from './session.js';
 import { allLevels, refOf, regionNamed, runOf } from './sources.js';
 
 export async function sectionData(
   s: Session,
-  input: { variable: string; run: string; kind: 'meridian' | 'parallel' | 'zonal'; at: number | null; region: string | null },
+  input: { variable: string; run: string; kind: 'meridian' | 'parallel' | 'zonal'; at: number | null; region: string | null; period?: Period },
   ctx: ServiceProgress,
 ): Promise<SectionData> {
+  const period = input.period ?? 'annual';
+  checkPeriod(s.recipe, period);
   const pair = await s.pair(input.variable);
   const model = await runOf(pair, input.run);
   const g = s.info.grid;
-  const ms = await allLevels(s, pair, model, ctx, `${input.variable}, ${input.run}`, [0, 0.5]);
-  const rs = await allLevels(s, pair, refOf(s, pair), ctx, `${input.variable}, ${s.recipe.reference.label}`, [0.5, 1]);
+  const ms = await allLevels(s, pair, model, ctx, `${input.variable}, ${input.run}`, [0, 0.5], period);
+  const rs = await allLevels(s, pair, refOf(s, pair), ctx, `${input.variable}, ${s.recipe.reference.label}`, [0.5, 1], period);
   const nz = g.nz;
   let mSec: Float32Array, rSec: Float32Array, dSec: Float32Array, n: number, edges: Float64Array, atGrid: number | null = null;
   let axis: SectionData['axis'];
@@ -65,6 +69,7 @@ export async function sectionData(
   return {
     variable: input.variable,
     run: input.run,
+    period,
     kind: input.kind,
     at: input.kind === 'zonal' ? null : input.at,
     atGrid,

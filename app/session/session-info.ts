@@ -14,6 +14,7 @@ import { parseExpression } from '../ocean/expression.js';
 import type { Recipe } from '../recipe/types.js';
 import type { LayerSpec } from '../regions/layers.js';
 import { recipeProblems } from '../services/recipe-problems.js';
+import { sessionPeriods } from './periods.js';
 import type { LayerChoice, SessionInfo, SourceInfo, ViewGrid } from '../../contract/view-types.js';
 
 /**
@@ -142,6 +143,7 @@ export async function sessionInfo(recipe: Recipe, recipePath: string, grid: Grid
     regions: recipe.regions.map((r) => (r.kind === 'built-in' ? r.name : r.kind === 'mask' ? r.variable : basename(r.file))),
     layers: layerChoices(recipe, grid),
     grid: viewGrid(grid),
+    ...sessionPeriods(recipe),
     ...(recipe.screen ? { screen: recipe.screen } : {}),
     problems: recipeProblems(recipe, reference, runs),
     modified,

@@ -15,6 +15,8 @@ import { PromiseCache } from '../promise-cache.js';
 import type { Recipe } from '../recipe/types.js';
 import type { Region } from '../regions/region.js';
 import type { SessionInfo } from '../../contract/view-types.js';
+import { periodLevel, type Period } from '../time/periods.js';
+import { checkPeriod, recipeIsMonthly } from './periods.js';
 import { sessionInfo } from './session-info.js';
 
 const LEVEL_CACHE_BYTES = 512 * 1024 * 1024;
@@ -36,8 +38,8 @@ export interface Session {
   /** when a call last used it (for closing idle sessions) */
   lastUsed: number;
   pair(variable: string): Promise<OpenedPair>;
-  /** one level of one source on the common grid, in the pair's units (cached) */
-  level(pair: OpenedPair, source: Source, k: number): Promise<Float32Array>;
+  /** one level of one source on the common grid, in the pair's units, for a period of the year (cached) */
+  level(pair: OpenedPair, source: Source, k: number, period?: Period): Promise<Float32Array>;
   regions(): Promise<Region[]>;
   /** skill rows of one variable (every variable: null), computed once per session state */
   skill(variable: string | null, opts: { signal?: AbortSignal; onProgress?: (fraction: number, message: string) => void }): Promise<ComparisonResult>;
@@ -76,14 +78,24 @@ export async function openSession(recipe: Recipe, recipePath: string, cacheDir: 
       if (closed) throw new StillwaterError('E_INPUT', `The workbench session '${id}' is no longer open; open the recipe again.`);
       let p = pairs.get(variable);
       if (!p) {
-        p = openPair(recipe, variable, { cacheDir, grid });
+        // a recipe that compares months reads every source as 12 months, as its skill rows do
+        p = openPair(recipe, variable, { cacheDir, grid, monthlyRows: recipeIsMonthly(recipe) });
         pairs.set(variable, p);
         p.catch(() => pairs.delete(variable));
       }
       return p;
     },
-    level(pair, source, k) {
-      return levels.get(`${pair.variable}\u0000${source.label}\u0000${source.role}\u0000${k}`, () => source.levels.level(k));
+    level(pair, source, k, period = 'annual') {
+      if (period === 'annual') return levels.get(`${pair.variable}\u0000${source.label}\u0000${source.role}\u0000${k}`, () => source.levels.level(k));
+      checkPeriod(recipe, period);
+      return levels.get(`${pair.variable}\u0000${source.label}\u0000${source.role}\u0000${k}\u0000${period}`, async () => {
+        const weights = source.levels.monthWeights;
+        if (!weights) throw new StillwaterError('E_INTERNAL', `${source.label}: '${pair.variable}' was opened without its months.`);
+        const months = await source.levels.months(k);
+        const out = periodLevel(months, weights, period);
+        // a single month is the reader's own array, which it keeps for the next periods: the cache gets a copy
+        return months.includes(out) ? out.slice() : out;
+      });
     },
     regions() {
       if (!regions) {

@@ -2,6 +2,7 @@
 import type { OpenedPair } from '../compare/open-pair.js';
 import { StillwaterError } from '../errors.js';
 import type { ServiceProgress } from './progress.js';
+import type { Period } from '../time/periods.js';
 import type { Session, Source } from './session.js';
 
 export function refOf(s: Session, pair: OpenedPair): Source {
@@ -14,12 +15,12 @@ export async function runOf(pair: OpenedPair, run: string): Promise<Source> {
   return { label: run, role: 'run', levels: await slot.open() };
 }
 
-export async function allLevels(s: Session, pair: OpenedPair, source: Source, ctx: ServiceProgress, what: string, share: [number, number] = [0, 1]): Promise<Float32Array[]> {
+export async function allLevels(s: Session, pair: OpenedPair, source: Source, ctx: ServiceProgress, what: string, share: [number, number] = [0, 1], period: Period = 'annual'): Promise<Float32Array[]> {
   const nz = s.info.grid.nz;
   const out: Float32Array[] = [];
   for (let k = 0; k < nz; k++) {
     if (ctx.signal.aborted) throw new StillwaterError('E_CANCELLED', 'The work was cancelled.');
-    out.push(await s.level(pair, source, k));
+    out.push(await s.level(pair, source, k, period));
     ctx.progress(share[0] + ((k + 1) / nz) * (share[1] - share[0]), `${what}: level ${k + 1} of ${nz}`);
   }
   return out;
