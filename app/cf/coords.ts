@@ -5,6 +5,7 @@
  * variable or dimension names as the last resort.
  */
 import { attrString, type RawDataset, type RawVariable } from '../io/types.js';
+import { baseName, findReferenced } from '../io/variable-path.js';
 import { isTimeUnits } from './time.js';
 
 export type Role = 'lon' | 'lat' | 'vertical' | 'time';
@@ -31,10 +32,12 @@ export function coordinateRole(v: RawVariable): Role | undefined {
   if (isTimeUnits(units) || standard === 'time' || axis === 'T') return 'time';
   if (VERTICAL_STANDARD.has(standard) || axis === 'Z' || positive === 'up' || positive === 'down') return 'vertical';
   const degrees = /^degrees?$/i.test(units);
-  if (axis === 'X' && (degrees || LON_NAMES.test(v.name))) return 'lon';
-  if (axis === 'Y' && (degrees || LAT_NAMES.test(v.name))) return 'lat';
+  // names inside NetCDF-4 groups are paths: the group is no evidence, the name within it is
+  const own = baseName(v.name);
+  if (axis === 'X' && (degrees || LON_NAMES.test(own))) return 'lon';
+  if (axis === 'Y' && (degrees || LAT_NAMES.test(own))) return 'lat';
   // last resort: the name (a coordinate variable's name is its dimension's name)
-  const names = [v.name];
+  const names = [own];
   if (names.some((n) => LON_NAMES.test(n)) && (units === '' || degrees)) return 'lon';
   if (names.some((n) => LAT_NAMES.test(n)) && (units === '' || degrees)) return 'lat';
   if (names.some((n) => VERTICAL_NAMES.test(n)) && (units === '' || LENGTH_UNITS.test(units))) return 'vertical';
@@ -66,7 +69,7 @@ export function discoverCoordinates(ds: RawDataset, data: RawVariable): Discover
   // 1. coordinate variables: 1-D, named like one of the data's dimensions
   for (const d of data.dims) add(ds.variables.find((v) => v.name === d && v.dims.length === 1 && v.dims[0] === d));
   // 2. the coordinates attribute
-  for (const name of (attrString(data.attrs, 'coordinates') ?? '').split(/\s+/).filter(Boolean)) add(ds.variables.find((v) => v.name === name));
+  for (const name of (attrString(data.attrs, 'coordinates') ?? '').split(/\s+/).filter(Boolean)) add(findReferenced(ds.variables, data, name));
   // 3. any other variable on a subset of the data's dimensions (files that forget the coordinates attribute)
   for (const v of ds.variables) if (v.dims.length > 0 && v.dims.length <= 2 && v.dims.every((d) => data.dims.includes(d))) add(v);
 
@@ -110,8 +113,9 @@ export function auxiliaryNames(ds: RawDataset): Set<string> {
       const a = attrString(v.attrs, key);
       if (!a) continue;
       for (const part of a.split(/\s+/)) {
-        const name = part.endsWith(':') ? '' : part;
-        if (name) names.add(name);
+        // cell_measures reads "area: cell_area": the names after the colons
+        if (!part || part.endsWith(':')) continue;
+        names.add(findReferenced(ds.variables, v, part)?.name ?? part);
       }
     }
   }

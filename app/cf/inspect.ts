@@ -76,6 +76,10 @@ export interface InspectReport {
   otherGrids: GridSummary[];
   time: TimeSummary | null;
   variables: VariableSummary[];
+  /** NetCDF-4 groups read ('/' alone for other formats); variables inside groups are named by path */
+  groups: string[];
+  /** what the reader could not read or had to guess (groups beyond its limits, unnamed dimensions) */
+  notes: string[];
 }
 
 export interface InspectOptions {
@@ -163,6 +167,8 @@ export async function inspectDataset(ds: RawDataset, opts: InspectOptions = {}):
     otherGrids: grids.slice(1),
     time,
     variables,
+    groups: ds.groups ? [...ds.groups] : ['/'],
+    notes: [...(ds.notes ?? [])],
   };
 }
 

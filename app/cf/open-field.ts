@@ -7,6 +7,7 @@
 import { StillwaterError, fileError, isStillwaterError } from '../errors.js';
 import { openDataset } from '../io/open.js';
 import { attrString, findVariable, type RawDataset, type RawVariable } from '../io/types.js';
+import { findReferenced, missingVariableText } from '../io/variable-path.js';
 import { makeRectilinearGrid } from '../grid/rectilinear.js';
 import { makeCurvilinearGrid, type Corners } from '../grid/curvilinear.js';
 import { edgesFromCentres, makeVerticalAxis } from '../grid/vertical.js';
@@ -50,10 +51,7 @@ interface HorizontalLayout {
 export async function fieldFromDataset(ds: RawDataset, variable: string, opts: OpenFieldOptions = {}): Promise<FieldSource> {
   const file = ds.path;
   const v = findVariable(ds, variable);
-  if (!v) {
-    const names = ds.variables.map((x) => x.name).join(', ');
-    throw fileError('E_VARIABLE', file, `there is no variable '${variable}' (variables: ${names || 'none'}).`, variable);
-  }
+  if (!v) throw fileError('E_VARIABLE', file, missingVariableText(variable, ds.variables, ds.groups), variable);
   if (v.dtype === 'char' || v.dtype === 'string') throw fileError('E_VARIABLE', file, 'holds text, not numbers.', variable);
   const units = fieldUnits(file, v, opts.units);
   const coords = discoverCoordinates(ds, v);
@@ -168,7 +166,7 @@ function notMonotonic(file: string, variable: string, what: string, c: RawVariab
 
 function boundsVariable(ds: RawDataset, c: RawVariable): RawVariable | undefined {
   const name = attrString(c.attrs, 'bounds');
-  return name ? findVariable(ds, name.trim()) : undefined;
+  return name ? findReferenced(ds.variables, c, name) : undefined;
 }
 
 async function horizontalLayout(ds: RawDataset, v: RawVariable, lon: RawVariable, lat: RawVariable): Promise<HorizontalLayout> {
@@ -336,7 +334,7 @@ async function timeAxis(ds: RawDataset, v: RawVariable, c: RawVariable): Promise
     const axis = decodeTimeAxis(c.name, values, units, attrString(c.attrs, 'calendar'));
     // CF 1.10 §7.4: a climatological time axis names its bounds by `climatology` instead of `bounds`
     const climName = attrString(c.attrs, 'climatology')?.trim();
-    const b = climName ? findVariable(ds, climName) : boundsVariable(ds, c);
+    const b = climName ? findReferenced(ds.variables, c, climName) : boundsVariable(ds, c);
     if (b && b.shape.length === 2 && b.shape[0] === values.length && b.shape[1] === 2) {
       axis.bounds = await readCoordinate(ds, b);
       if (climName) axis.climatology = true;

@@ -25,6 +25,7 @@ import type { H5Variable } from './netcdf4-metadata.js';
 import { checkSlab } from './slab.js';
 import { contiguousStrides, readStrided } from './strided-read.js';
 import type { Attributes, RawArray, RawDataset, RawDimension, RawVariable } from './types.js';
+import { missingVariableText, nameOfPath } from './variable-path.js';
 
 type Plan =
   | { kind: 'contiguous'; address: number; fill?: Uint8Array }
@@ -39,10 +40,10 @@ export async function openNetcdf4(source: ByteSource, path: string): Promise<Raw
   const { handle, meta, addresses } = await lib.open(source.name);
   try {
     if (meta.variables.length === 0) {
-      throw fileError('E_FORMAT', path, 'this HDF5 file holds no datasets we can read in its root group (it is not a NetCDF-4 file with variables).');
+      throw fileError('E_FORMAT', path, 'this HDF5 file holds no datasets we can read in any of its groups (it is not a NetCDF-4 file with variables).');
     }
     const sb = await readSuperblock(source);
-    return new Netcdf4Dataset(path, source, lib, handle, sb, meta.dimensions, meta.attrs, meta.variables, meta.notes, (h5path) => addresses[h5path]);
+    return new Netcdf4Dataset(path, source, lib, handle, sb, meta.dimensions, meta.attrs, meta.variables, meta.notes, meta.groups, (h5path) => addresses[h5path]);
   } catch (e) {
     await lib.close(handle);
     throw e;
@@ -65,6 +66,7 @@ export class Netcdf4Dataset implements RawDataset {
     readonly attrs: Attributes,
     private readonly h5vars: H5Variable[],
     readonly notes: string[],
+    readonly groups: string[],
     private readonly objectAddress: (h5path: string) => number | undefined,
   ) {
     this.store = new ChunkStore(source);
@@ -72,8 +74,8 @@ export class Netcdf4Dataset implements RawDataset {
   }
 
   async read(name: string, start?: number[], count?: number[]): Promise<RawArray> {
-    const v = this.h5vars.find((x) => x.name === name);
-    if (!v) throw fileError('E_VARIABLE', this.path, `there is no variable '${name}'.`, name);
+    const v = this.variable(name);
+    if (!v) throw fileError('E_VARIABLE', this.path, missingVariableText(name, this.h5vars, this.groups), name);
     if (v.dtype === 'string') throw fileError('E_VARIABLE', this.path, 'holds text strings, not numbers, and is not read as data.', name);
     const { s, c } = checkSlab(this.path, v, start, count);
     const plan = await this.planFor(v);
@@ -102,8 +104,14 @@ export class Netcdf4Dataset implements RawDataset {
 
   /** How a variable's data are read: by us from contiguous bytes or chunks, or by the HDF5 library. */
   async readRoute(name: string): Promise<Plan['kind'] | undefined> {
-    const v = this.h5vars.find((x) => x.name === name);
+    const v = this.variable(name);
     return v ? (await this.planFor(v)).kind : undefined;
+  }
+
+  /** By name, or inside groups by path (`/bgc/chl`, `bgc/chl`). */
+  private variable(name: string): H5Variable | undefined {
+    const wanted = nameOfPath(name);
+    return this.h5vars.find((x) => x.name === name) ?? this.h5vars.find((x) => x.name === wanted);
   }
 
   private planFor(v: H5Variable): Promise<Plan> {

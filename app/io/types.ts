@@ -2,6 +2,8 @@
  * What every format reader returns: raw arrays and attributes, nothing of CF.
  * CF decoding (app/cf) interprets them; the grid model (app/grid) owns geometry.
  */
+import { nameOfPath } from './variable-path.js';
+
 export type DType = 'i1' | 'u1' | 'i2' | 'u2' | 'i4' | 'u4' | 'i8' | 'u8' | 'f4' | 'f8' | 'char' | 'string';
 
 /** Attribute values: text, or numbers (64-bit integers converted to number). */
@@ -55,8 +57,10 @@ export interface RawDataset {
   readonly dimensions: RawDimension[];
   readonly attrs: Attributes;
   readonly variables: RawVariable[];
-  /** What a person should know about what was (not) read, e.g. groups other than the root group. */
+  /** What a person should know about what was (not) read, e.g. groups beyond the reader's limits. */
   readonly notes?: string[];
+  /** NetCDF-4 groups read, as paths ('/', '/bgc', '/bgc/deep'); objects inside them are named by path */
+  readonly groups?: readonly string[];
   /**
    * Read a hyperslab in the variable's own dtype, C order (last dimension fastest), as a new array that the
    * caller owns (decoding may overwrite it).
@@ -67,8 +71,9 @@ export interface RawDataset {
   close(): Promise<void>;
 }
 
+/** A variable by name; inside NetCDF-4 groups by its path (`/bgc/chl`, see variable-path.ts). */
 export function findVariable(ds: RawDataset, name: string): RawVariable | undefined {
-  return ds.variables.find((v) => v.name === name);
+  return ds.variables.find((v) => v.name === name) ?? (name.includes('/') ? ds.variables.find((v) => v.name === nameOfPath(name)) : undefined);
 }
 
 export function attrNumber(attrs: Attributes, key: string): number | undefined {

@@ -14,7 +14,9 @@ time axis (calendar, units, first and last dates, number of steps).
 
   --stats   also each data variable's decoded minimum, maximum, mean and number of valid values
             (missing values, fill values and packing handled as CF says; read one level at a time)
-  --json    print {file, format, dimensions, grid, time, variables} as JSON instead of text`;
+  --json    print {file, format, dimensions, grid, time, groups, notes, variables} as JSON instead of text
+
+Variables inside NetCDF-4 groups are listed, and named everywhere, by their path (/bgc/chl).`;
 
 const FORMAT_NAMES: Record<string, string> = {
   'netcdf3-classic': 'NetCDF classic (CDF-1)',
@@ -65,6 +67,11 @@ export function formatReport(r: InspectReport): string {
   const lines: string[] = [];
   lines.push(`${r.file}`);
   lines.push(`  ${FORMAT_NAMES[r.format] ?? r.format}`);
+  const groups = r.groups.filter((g) => g !== '/');
+  if (groups.length) {
+    const shown = groups.length > 12 ? `${groups.slice(0, 12).join(', ')} and ${groups.length - 12} more` : groups.join(', ');
+    lines.push(`  groups: ${shown} (variables inside them are named by path)`);
+  }
   lines.push('');
   lines.push('Dimensions');
   lines.push(...table(r.dimensions.map((d) => [d.name, String(d.size), d.unlimited ? '(unlimited)' : ''])));
@@ -102,6 +109,11 @@ export function formatReport(r: InspectReport): string {
       }
     });
   }
+  if (r.notes.length) {
+    lines.push('');
+    lines.push('Notes');
+    for (const note of r.notes) lines.push(`  ${note}`);
+  }
   return lines.join('\n');
 }
 
@@ -114,6 +126,8 @@ export function reportJson(r: InspectReport): unknown {
     grid: r.grid,
     other_grids: r.otherGrids,
     time: r.time,
+    groups: r.groups,
+    notes: r.notes,
     variables: r.variables.map((v) => ({
       name: v.name,
       dims: v.dims,

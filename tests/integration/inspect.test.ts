@@ -68,6 +68,21 @@ describe('stillwater inspect --json --stats on netCDF4-python files', () => {
     });
   }
 
+  it('lists variables inside NetCDF-4 groups by path, with their groups (netCDF4-python file, tests/fixtures/groups)', () => {
+    const file = join(root, 'tests/fixtures/groups/groups_nc4.nc');
+    const r = inspect(file, '--json');
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.groups).toEqual(['/', '/bgc', '/phys', '/bgc/deep']);
+    expect(j.notes).toEqual([]);
+    const names = (j.variables as { name: string }[]).map((v) => v.name);
+    expect(names).toEqual(expect.arrayContaining(['sst', '/bgc/chl', '/bgc/deep/o2', '/bgc/deep/no3', '/phys/temp']));
+    // make_groups.py: chl is on /bgc's own depth(2), which shadows the root's depth(3)
+    expect(j.variables.find((v: { name: string }) => v.name === '/bgc/chl')).toMatchObject({ dims: ['/bgc/depth', 'lat', 'lon'], shape: [2, 4, 6], units: 'mg m-3' });
+    const text = inspect(join(root, 'tests/fixtures/groups/deep_nc4.nc')).stdout;
+    expect(text).toMatch(/\nNotes\n {2}groups nested deeper than 16 levels .* are not read: \/g1\/g2\/.*\/g17\./);
+  });
+
   it('lists each variable with dims, shape, units, standard_name and long_name', () => {
     const j = JSON.parse(inspect(join(fixtures, 'packed_nc4.nc'), '--json').stdout);
     const temp = j.variables.find((v: { name: string }) => v.name === 'temp');

@@ -93,12 +93,39 @@ describe('stillwater regrid', () => {
   });
 });
 
+// tests/fixtures/groups/make_groups.py (netCDF4-python): nested groups, /bgc with its own depth axis
+const GROUPS = join(root, 'tests/fixtures/groups/groups_nc4.nc');
+
+describe('stillwater regrid names variables inside NetCDF-4 groups by path', () => {
+  it('regrids /bgc/deep/o2 onto the grid of /bgc/chl (the same cells): the values netCDF4-python reads, in a flat file', () => {
+    const out = join(dir, 'o2-groups.nc');
+    const r = regrid('--source', GROUPS, '--var', '/bgc/deep/o2', '--target', GROUPS, '--target-var', '/bgc/chl', '--out', out);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(python(`
+import json, sys
+import numpy as np
+from netCDF4 import Dataset
+src = Dataset(sys.argv[1])['bgc/deep/o2'][:].astype('f8')
+d = Dataset(sys.argv[2])
+print(json.dumps({'groups': list(d.groups), 'dims': list(d['o2'].dimensions), 'depth': d['depth'][:].tolist(),
+  'max_rel': float(np.max(np.abs(d['o2'][:].astype('f8') / src - 1)))}))
+`, GROUPS, out));
+    expect(j.groups).toEqual([]);
+    expect(j.dims).toEqual(['depth', 'lat', 'lon']);
+    // the target's depth axis is /bgc/depth = [10, 100] (make_groups.py)
+    expect(j.depth).toEqual([10, 100]);
+    // the same cells: the output is the source (written in float32, so to its rounding)
+    expect(j.max_rel).toBeLessThan(1e-7);
+  });
+});
+
 describe('stillwater regrid: bad input gets one sentence, exit 2, and nothing at --out', () => {
   const cases: [string, string[], RegExp][] = [
     ['grids that do not overlap', ['--source', 'west.nc', '--var', 'no3', '--target', 'east.nc'], /west\.nc, variable 'no3': its grid and the target grid do not overlap\./],
     ['a target without usable bounds', ['--source', 'source.nc', '--var', 'po4', '--target', 'nobounds.nc'], /nobounds\.nc.*bounds/],
     ['a source with all values missing', ['--source', 'empty.nc', '--var', 'o2', '--target', 'target.nc'], /empty\.nc, variable 'o2': every value is missing/],
     ['units with no conversion path', ['--source', 'source.nc', '--var', 'thetao', '--target', 'target.nc', '--units', 'umol kg-1'], /variable 'thetao': there is no conversion from 'degC' to 'umol kg-1'/],
+    ['a NetCDF-4 group the file lacks', ['--source', GROUPS, '--var', '/bgx/chl', '--target', GROUPS], /groups_nc4\.nc, variable '\/bgx\/chl': there is no group '\/bgx' in this file \(its groups: \/bgc, \/phys, \/bgc\/deep\)\.$/],
     ['an unknown method', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--method', 'spline'], /--method must be one of conservative, bilinear, nearest/],
     ['an output that is an input', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', 'source.nc'], /--out .*source\.nc: is an input of this run .*; outputs never replace inputs\./],
     ['a device as the output (checked before any work)', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', '/dev/null'], /^stillwater regrid: --out \/dev\/null: is not a regular file \(a device or other special file\)/],
@@ -106,7 +133,7 @@ describe('stillwater regrid: bad input gets one sentence, exit 2, and nothing at
     ['a place in /proc as the output', ['--source', 'source.nc', '--var', 'po4', '--target', 'target.nc', '--out', '/proc/x'], /--out \/proc\/x: lies in a system pseudo file system/],
   ];
   it.each(cases)('%s', (_name, args, message) => {
-    const named = args.map((a) => (a.endsWith('.nc') ? join(dir, a) : a));
+    const named = args.map((a) => (a.endsWith('.nc') && !a.startsWith('/') ? join(dir, a) : a));
     const out = join(dir, 'bad', 'out.nc');
     rmSync(join(dir, 'bad'), { recursive: true, force: true });
     spawnSync('mkdir', ['-p', join(dir, 'bad')]);
