@@ -64,6 +64,7 @@ async function main(): Promise<void> {
     const el = h('div', { class: `view view-${id}`, 'data-view': id });
     ui.area.replaceChildren(el);
     ui.area.setAttribute('aria-labelledby', `tab-${id}`);
+    root.dataset.view = id;
     const handle = FACTORIES[id](el, state);
     current = { id, handle, el };
     ui.exports.hidden = !handle.figure;

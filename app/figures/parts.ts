@@ -82,7 +82,7 @@ export function figureTitle(svg: SvgNode, x: number, y: number, width: number, m
   let yy = y + (mainLines.length - 1) * (FONT_PT.title + 2) + 4;
   if (sub) {
     const lines = wrap(sub, charsIn(width, FONT_PT.label), 2);
-    lines.forEach((line, i) => svg.append(text(x, yy + FONT_PT.label + 1 + i * (FONT_PT.label + 2), line, { 'font-size': FONT_PT.label, fill: MUTED })));
+    lines.forEach((line, i) => svg.append(text(x, yy + FONT_PT.label + 1 + i * (FONT_PT.label + 2), line, { 'font-size': FONT_PT.label, fill: MUTED, class: 'figure-subtitle' })));
     yy += lines.length * (FONT_PT.label + 2) + 1;
   }
   return yy + 6;

@@ -20,6 +20,19 @@ export function formatSigned(x: number | null | undefined, digits = 4): string {
   return x !== null && x !== undefined && x > 0 ? `+${s}` : s;
 }
 
+/**
+ * A change (a drift, a difference) beside the size of what changes: a change below `size` × 1e-6 is the
+ * round-off of single-precision data (about 7 significant digits) and reads 0; otherwise as formatNumber.
+ */
+export function formatChange(x: number | null | undefined, size: number, digits = 4): string {
+  if (x === null || x === undefined || !Number.isFinite(x)) return MISSING;
+  if (Number.isFinite(size) && size !== 0 && Math.abs(x) < Math.abs(size) * ROUND_OFF) return '0';
+  return formatNumber(x, digits);
+}
+
+/** relative size of single-precision round-off that a change must exceed to be shown (FLT_EPSILON ≈ 1.19e-7, IEEE 754) */
+const ROUND_OFF = 1e-6;
+
 export function formatCount(x: number | null | undefined): string {
   return x === null || x === undefined || !Number.isFinite(x) ? MISSING : String(x);
 }

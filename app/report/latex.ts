@@ -31,6 +31,14 @@ export function texUnits(u: string): string {
     .join('\\,');
 }
 
+/** A sentence with UDUNITS factors ("kg m-3"): each factor with an exponent or a micro prefix as TeX units. */
+function noteText(note: string): string {
+  return note
+    .split(' ')
+    .map((w) => (/^(?:[kmuµ]?(?:g|mol|L|l)|m|s|J|W|K)-?\d+$|^u(?:mol|g|M|L)$/.test(w) ? texUnits(w) : texEscape(w)))
+    .join(' ');
+}
+
 function num(x: number | null | undefined, digits = 4): string {
   const s = fmtNumber(x, digits);
   return s === MISSING ? '---' : `$${s.replace(/e([+-]?)(\d+)/, (_m, sign, d) => `\\times 10^{${sign === '-' ? '-' : ''}${d}}`)}$`;
@@ -57,7 +65,10 @@ export function skillLatex(result: ComparisonResult, caption = 'Skill of the mod
   ];
   result.variables.forEach((v, i) => {
     if (i > 0) out.push('\\midrule');
-    out.push(`\\multicolumn{${ncol}}{l}{\\textbf{${texEscape(v.variable)}} (${texUnits(v.units)})} \\\\`, '\\midrule');
+    out.push(`\\multicolumn{${ncol}}{l}{\\textbf{${texEscape(v.variable)}} (${texUnits(v.units)})} \\\\`);
+    // how units were brought together (a nominal density is an approximation the reader must know of)
+    for (const c of v.conversions) out.push(`\\multicolumn{${ncol}}{p{0.95\\linewidth}}{\\footnotesize ${texEscape(c.source)}: ${noteText(c.note)}} \\\\`);
+    out.push('\\midrule');
     for (const r of result.rows.filter((x) => x.variable === v.variable)) {
       out.push(
         [texEscape(r.run), texEscape(r.region), texEscape(r.layer), ...(withPeriod ? [r.period ?? 'annual'] : []), texEscape(fmtCount(r.n)), num(r.bias), num(r.rmse), num(r.crmse), num(r.corr, 3), num(r.std_ratio, 3), num(r.taylor_skill, 3)].join(' & ') +

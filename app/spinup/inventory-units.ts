@@ -1,3 +1,4 @@
+import { formatNumber } from '../output/number-format.js';
 import type { ParsedUnits } from '../cf/units.js';
 import type { InventoryUnits } from './types.js';
 
@@ -37,7 +38,7 @@ export function inventoryUnits(units: ParsedUnits, nominalDensity: number, weigh
         units: 'J',
         factor: nominalDensity * CP0 * units.factor,
         perVolume: nominalDensity * CP0 * units.offset,
-        note: `the inventory of ${units.text} is the heat content relative to 0 °C, ρ0·cp0·Σ T·V with a nominal density of ${nominalDensity} kg m-3 and the TEOS-10 heat capacity cp0 = ${CP0} J kg-1 K-1 (common practice)`,
+        note: `the inventory of ${units.text} is the heat content relative to 0 °C, ρ0·cp0·Σ T·V with a nominal density of ${nominalDensity} kg m-3 and the TEOS-10 heat capacity cp0 = ${formatNumber(CP0)} J kg-1 K-1 (common practice)`,
       };
     default:
       return { units: `${units.canonical} m3`, factor: 1, note: `${units.text} is not an amount: the inventory column is the volume integral Σ c·V` };

@@ -4,6 +4,8 @@ import { join } from 'node:path';
 import { writeOutputFile } from '../output/output-set.js';
 import type { SpinupResult } from './types.js';
 
+const RESULT_SHAPE = 2;
+
 /**
  * Spin-up results kept on disk between requests of the workbench (worker threads do not share memory):
  * keyed by the request and by the size and modification time of every file it reads, so a changed
@@ -11,6 +13,8 @@ import type { SpinupResult } from './types.js';
  */
 export async function cacheKey(request: unknown, files: string[]): Promise<string> {
   const h = createHash('sha256');
+  // the shape of a result: raised when what a result holds changes (2: skill of concentrations in the tracks' units)
+  h.update(`result ${RESULT_SHAPE}\n`);
   h.update(JSON.stringify(request));
   for (const f of [...new Set(files)].sort()) {
     try {

@@ -1,3 +1,4 @@
+import type { ParsedUnits } from '../cf/units.js';
 import { StillwaterError } from '../errors.js';
 import { loadRegions } from '../compare/load-regions.js';
 import type { Recipe, SourceSpec } from '../recipe/types.js';
@@ -66,6 +67,16 @@ async function chooseTracers(recipe: Recipe, run: SourceSpec, first: SnapshotSpe
   }
 }
 
+/**
+ * Units of the tracers that are concentrations (per volume or per mass): their skill is scored in them, as a
+ * per-volume run against a per-mass reference would otherwise show its drift and its skill in two units.
+ */
+function concentrationUnits(tracers: { spec: TracerSpec; field: { units: ParsedUnits } }[]): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const t of tracers) if (t.field.units.kind === 'amount_per_volume' || t.field.units.kind === 'amount_per_mass') out[t.spec.name] = t.field.units.canonical;
+  return out;
+}
+
 /** Follow one run of a recipe through its spin-up snapshots: series, drift, fits, verdicts, skill over time. */
 export async function spinupFromRecipe(recipe: Recipe, opts: SpinupOptions = {}): Promise<SpinupResult> {
   const settings: SpinupSettings = { ...DEFAULT_SETTINGS, nominalDensity: recipe.options.nominalDensity, ...opts.settings };
@@ -88,7 +99,7 @@ export async function spinupFromRecipe(recipe: Recipe, opts: SpinupOptions = {})
     signal: opts.signal,
   });
   const skill = wantSkill
-    ? await skillOverTime({ recipe, run, snapshots: series.snapshots, tracers, layers, cacheDir: opts.cacheDir, progress: stage(0.5, 1), signal: opts.signal })
+    ? await skillOverTime({ recipe, run, snapshots: series.snapshots, tracers, layers, trackUnits: concentrationUnits(series.tracers), cacheDir: opts.cacheDir, progress: stage(0.5, 1), signal: opts.signal })
     : [];
   const result = buildResult(run.label, series, settings, skill);
   if (skipped.length) result.notes.push(`Not followed (absent from the first snapshot): ${skipped.join(', ')}.`);

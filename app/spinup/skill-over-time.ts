@@ -11,6 +11,11 @@ export interface SkillOverTimeInput {
   tracers: TracerSpec[];
   /** layers to score (default: the recipe's) */
   layers?: LayerSpec[];
+  /**
+   * units of each followed tracer (by recipe key), as its snapshots hold it: skill of a concentration is given
+   * in these, so that the figure's deviation and skill axes of one tracer share units
+   */
+  trackUnits?: Record<string, string>;
   cacheDir?: string;
   progress?: (fraction: number, message: string) => void;
   signal?: AbortSignal;
@@ -40,7 +45,9 @@ export async function skillOverTime(input: SkillOverTimeInput): Promise<SkillPoi
     }
     return { label: labelOf(s, i), variables, path: s.origin ?? `${run.path}.snapshots[${i}]` };
   });
-  const derived: Recipe = { ...recipe, runs, layers: input.layers ?? recipe.layers, variables: scored.map((t) => t.name) };
+  const units = { ...recipe.options.units };
+  for (const t of scored) if (input.trackUnits?.[t.name]) units[t.name] = input.trackUnits[t.name];
+  const derived: Recipe = { ...recipe, runs, layers: input.layers ?? recipe.layers, variables: scored.map((t) => t.name), options: { ...recipe.options, units } };
   const result = await runComparison(derived, { cacheDir: input.cacheDir, onProgress: input.progress, signal: input.signal });
   const yearOf = new Map(runs.map((r, i) => [r.label, input.snapshots[i].year]));
   return result.rows.map((row) => ({ ...row, run: run.label, year: yearOf.get(row.run) ?? NaN }));

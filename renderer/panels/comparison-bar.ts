@@ -1,4 +1,5 @@
 /** The comparison bar: variable, run, region, depth and projection, and the choice of view. */
+import { typesetUnits } from '../../app/figures/typeset.js';
 import { PROJECTIONS, type ProjectionId } from '../../app/render/projections.js';
 import { h, select } from '../elements.js';
 import { VIEWS, choose, subscribe, type AppState, type ViewId } from '../state.js';
@@ -50,7 +51,7 @@ export function comparisonBar(el: HTMLElement, tabs: HTMLElement): void {
     }
     const variable = s.variables.find((v) => v.key === st.sel.variable);
     const controls: [BarControl, HTMLLabelElement][] = [
-      ['variable', select('Variable', s.variables.map((v) => ({ value: v.key, label: `${v.key} (${v.units})` })), st.sel.variable, (value) => {
+      ['variable', select('Variable', s.variables.map((v) => ({ value: v.key, label: `${v.key} (${typesetUnits(v.units)})` })), st.sel.variable, (value) => {
         const runs = s.variables.find((v) => v.key === value)?.runs ?? [];
         choose({ variable: value, run: runs.includes(st.sel.run) ? st.sel.run : (runs[0] ?? '') });
       }, 'choose-variable')],

@@ -2,6 +2,7 @@
  * The probe: model, reference and difference under the cursor (or at a typed position), with the
  * position, the depth of the cell and its volume.
  */
+import { typesetUnits } from '../../app/figures/typeset.js';
 import { cellAt } from '../../app/render/pixel-lookup.js';
 import type { LevelData } from '../../contract/view-types.js';
 import { getLevel } from '../service-client.js';
@@ -84,7 +85,7 @@ export function probePanel(el: HTMLElement): void {
     const volKm3 = (g.area[c] * data.thickness[c]) / 1e9;
     row('Cell area', `${fmt(areaKm2)} km²`, 'area', g.area[c]);
     row('Cell volume', data.thickness[c] > 0 ? `${fmt(volKm3)} km³` : '– (dry)', 'volume', g.area[c] * data.thickness[c]);
-    const u = data.units;
+    const u = typesetUnits(data.units);
     row(`Run: ${data.run}`, `${fmt(data.model[c])} ${u}`, 'model', data.model[c]);
     row(`Reference: ${session.reference.label}`, `${fmt(data.reference[c])} ${u}`, 'reference', data.reference[c]);
     row('Difference (run − ref.)', `${fmt(data.difference[c])} ${u}`, 'difference', data.difference[c]);

@@ -1,5 +1,6 @@
 /** One source of the recipe (the reference or a run): its variables with names and units, its snapshots. */
 import type { SourceInfo } from '../../contract/view-types.js';
+import { typesetUnits } from '../../app/figures/typeset.js';
 import { h } from '../elements.js';
 
 export function sourceBlock(src: SourceInfo, kind: 'reference' | 'run'): HTMLElement {
@@ -8,10 +9,10 @@ export function sourceBlock(src: SourceInfo, kind: 'reference' | 'run'): HTMLEle
     vars.append(
       h(
         'li',
-        { title: `${v.name} in ${v.file}${v.longName ? '\n' + v.longName : ''}` },
+        { title: `${v.name} in ${v.file}${v.longName ? '\n' + v.longName : ''}${v.units ? `\nunits in the file: ${v.units}` : ''}` },
         h('span', { class: 'var-key' }, v.key),
         h('span', { class: 'var-name' }, v.name),
-        h('span', { class: `var-units${v.units === '?' ? ' bad' : ''}` }, v.units || 'no units'),
+        h('span', { class: `var-units${v.units === '?' ? ' bad' : ''}` }, v.units === '?' ? '?' : v.units ? typesetUnits(v.units) : 'no units'),
       ),
     );
   }

@@ -40,7 +40,7 @@ export function logBottomAxis(g: SVGElement, r: Rect, domain: [number, number], 
     axis.append(s('line', { x1: x, x2: x, y1: y, y2: y + 5, stroke: INK, class: 'major-tick' }));
     axis.append(text(x, y + 17, logTickText(v), { 'text-anchor': 'middle', 'font-size': 11, class: 'tick-label', 'data-value': v }));
   }
-  axis.append(text(r.x + r.w / 2, y + 34, label, { 'text-anchor': 'middle', 'font-size': 12 }));
+  axis.append(text(r.x + r.w / 2, y + 34, label, { 'text-anchor': 'middle', 'font-size': 12, class: 'axis-label' }));
   g.append(axis);
   return sx;
 }

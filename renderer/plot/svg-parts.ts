@@ -3,6 +3,7 @@
  * with units, a title and a legend. Styling is written as SVG attributes, so an exported figure
  * looks the same outside the workbench.
  */
+import { typesetUnits } from '../../app/figures/typeset.js';
 import type { ColourScale } from '../../app/render/colour-scales.js';
 import { logTicks } from '../../app/render/colour-mapping.js';
 import { cssColour, formatTick, niceTicks } from '../../app/render/colour-scales.js';
@@ -87,7 +88,7 @@ export function bottomAxis(g: SVGElement, r: Rect, sc: Scale, label: string, opt
     g.append(s('line', { x1: x, x2: x, y1: y, y2: y + 4, stroke: INK }));
     g.append(text(x, y + 16, opts.format ? opts.format(t) : sc.tickText(t, n), { 'text-anchor': 'middle', 'font-size': 11 }));
   }
-  g.append(text(r.x + r.w / 2, y + 34, label, { 'text-anchor': 'middle', 'font-size': 12 }));
+  g.append(text(r.x + r.w / 2, y + 34, label, { 'text-anchor': 'middle', 'font-size': 12, class: 'axis-label' }));
 }
 
 /** A vertical axis along the left of `r`. */
@@ -103,7 +104,7 @@ export function leftAxis(g: SVGElement, r: Rect, sc: Scale, label: string, opts:
   }
   const cx = r.x - 48;
   const cy = r.y + r.h / 2;
-  g.append(text(cx, cy, label, { 'text-anchor': 'middle', 'font-size': 12, transform: `rotate(-90 ${cx} ${cy})` }));
+  g.append(text(cx, cy, label, { 'text-anchor': 'middle', 'font-size': 12, transform: `rotate(-90 ${cx} ${cy})`, class: 'axis-label' }));
 }
 
 export interface ColourBarOptions {
@@ -147,7 +148,7 @@ export function colourBar(g: SVGElement, r: Rect, scale: ColourScale, min: numbe
   }
   const cx = r.x + r.w + 58;
   const cy = r.y + r.h / 2;
-  g.append(text(cx, cy, `${caption} (${units})${opts.log ? ', log scale' : ''}`, { 'text-anchor': 'middle', 'font-size': 12, transform: `rotate(-90 ${cx} ${cy})` }));
+  g.append(text(cx, cy, `${caption} (${typesetUnits(units)})${opts.log ? ', log scale' : ''}`, { 'text-anchor': 'middle', 'font-size': 12, transform: `rotate(-90 ${cx} ${cy})` }));
 }
 
 export interface LegendItem {

@@ -1,12 +1,18 @@
-/** Diagram view: Taylor and target diagrams of every run × region of the chosen variable and layer. */
+/**
+ * Diagram view: Taylor and target diagrams of every run × region of the chosen variable and layer, drawn by
+ * app/figures (the figure the report and the export write), with a zoom on the reference point.
+ */
+import { typesetUnits } from '../../app/figures/typeset.js';
 import type { ComparisonResult } from '../../app/compare/run.js';
 import { getSkill } from '../service-client.js';
 import { h } from '../elements.js';
-import { taylorFigure, targetFigure, type DiagramRow, type DiagramSpec } from '../plot/diagrams.js';
+import { diagramsFigure, type DiagramKind, type DiagramRow, type DiagramsSpec } from '../../app/figures/diagrams.js';
+import type { Figure } from '../../app/figures/parts.js';
+import { figureElement, screenFigure } from '../plot/figure-element.js';
 import { choose, currentVariable, state, type AppState } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';
 import { figureFrame } from '../widgets/figure-frame.js';
-import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
+import { errorText, note, type ViewFactory } from './view.js';
 
 const num = (v: unknown): number => (typeof v === 'number' ? v : NaN);
 
@@ -17,7 +23,10 @@ export const diagramView: ViewFactory = (el) => {
   let layer = '';
   let token = 0;
 
-  const spec = (st: AppState, width: number, height: number): DiagramSpec | null => {
+  let zoom = false;
+  const kindsOf = (st: AppState): DiagramKind[] => (st.sel.diagram === 'target' ? ['target'] : ['taylor']);
+
+  const figure = (st: AppState): Figure | null => {
     if (!result || !st.session) return null;
     const rowsOfVar = result.rows.filter((r) => r.variable === st.sel.variable);
     const layers = [...new Set(rowsOfVar.map((r) => r.layer))];
@@ -25,18 +34,22 @@ export const diagramView: ViewFactory = (el) => {
     const rows: DiagramRow[] = rowsOfVar
       .filter((r) => r.layer === layer)
       .map((r) => ({ run: r.run, region: r.region, bias: num(r.bias), crmse: num(r.crmse), corr: num(r.corr), model_std: num(r.model_std), ref_std: num(r.ref_std) }));
+    if (!rows.length) return null;
     const v = currentVariable();
     const units = rowsOfVar[0]?.units ?? v?.units ?? '';
-    return {
-      width,
-      height,
-      title: `${v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : st.sel.variable}, ${layer}`,
-      subtitle: `Every run × region; statistics weighted by cell volume (area for the bottom layer), units ${units}`,
+    const spec: DiagramsSpec = {
+      name: `diagram-${st.sel.variable}-${layer}`,
+      width: 'double',
+      title: `${kindsOf(st)[0] === 'taylor' ? 'Taylor' : 'Target'} diagram: ${v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : st.sel.variable}, ${layer}`,
+      subtitle: `Every run × region; statistics weighted by cell volume (area for the bottom layer), units ${typesetUnits(units)}`,
       rows,
       runs: st.session.runs.map((r) => r.label),
       regions: [...new Set(rows.map((r) => r.region))],
       referenceLabel: st.session.reference.label,
+      kinds: kindsOf(st),
+      zoom: zoom && st.sel.diagram === 'taylor',
     };
+    return diagramsFigure(spec);
   };
 
   const drawToolbar = (st: AppState): void => {
@@ -52,7 +65,14 @@ export const diagramView: ViewFactory = (el) => {
       layer = sel.value;
       void draw(state);
     });
-    toolbar.replaceChildren(group, h('label', { class: 'toolbar-label' }, 'Layer ', sel), h('span', { class: 'toolbar-hint' }, 'Variable from the bar above; hover a point for its numbers.'));
+    const near = h('input', { type: 'checkbox', id: 'diagram-zoom', disabled: st.sel.diagram !== 'taylor' });
+    near.checked = zoom;
+    near.addEventListener('change', () => {
+      zoom = near.checked;
+      void draw(state);
+    });
+    const zoomLabel = h('label', { class: 'toolbar-label', title: st.sel.diagram === 'taylor' ? 'Show only the square around the reference point that holds every run' : 'Only the Taylor diagram has a reference point to zoom on' }, near, ' Zoom near the reference');
+    toolbar.replaceChildren(group, h('label', { class: 'toolbar-label' }, 'Layer ', sel), zoomLabel, h('span', { class: 'toolbar-hint' }, 'Variable from the bar above; hover a point for its numbers.'));
   };
 
   const draw = async (st: AppState): Promise<void> => {
@@ -71,13 +91,14 @@ export const diagramView: ViewFactory = (el) => {
       if (my === token) note(stage, errorText(e), 'error');
       return;
     }
-    const width = Math.max(520, Math.floor(stage.clientWidth || 900));
-    const height = Math.max(380, Math.min(Math.floor(stage.clientHeight || 600), Math.round(width * 0.68)));
-    const sp = spec(st, width, height);
+    const fig = figure(st);
     drawToolbar(st);
-    if (!sp || sp.rows.length === 0) return note(stage, `There are no skill rows for ${st.sel.variable}.`);
-    stage.replaceChildren(st.sel.diagram === 'taylor' ? taylorFigure(sp) : targetFigure(sp));
-    stage.dataset.drawn = `${st.sel.diagram}|${st.sel.variable}|${layer}`;
+    if (!fig) return note(stage, `There are no skill rows for ${st.sel.variable}.`);
+    // as wide as the stage allows while the whole figure stays in view
+    const w = Math.floor(stage.clientWidth || 900);
+    const hgt = Math.floor(stage.clientHeight || 600);
+    stage.replaceChildren(screenFigure(fig, Math.max(480, Math.min(w, (hgt * fig.widthPt) / fig.heightPt))));
+    stage.dataset.drawn = `${st.sel.diagram}|${st.sel.variable}|${layer}${zoom && st.sel.diagram === 'taylor' ? '|zoom' : ''}`;
   };
 
   return {
@@ -87,9 +108,8 @@ export const diagramView: ViewFactory = (el) => {
       void draw(st);
     },
     async figure() {
-      const sp = spec(state, EXPORT_WIDTH, Math.round(EXPORT_WIDTH * 0.66));
-      if (!sp) return null;
-      return state.sel.diagram === 'taylor' ? taylorFigure(sp) : targetFigure(sp);
+      const fig = figure(state);
+      return fig ? figureElement(fig) : null;
     },
     fileBase: () => `stillwater-${state.sel.diagram}-${state.sel.variable}-${layer}`.replace(/[^A-Za-z0-9._-]+/g, '_'),
     dispose() {

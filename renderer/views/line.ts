@@ -4,6 +4,7 @@
  * seafloor and the waypoints marked on the top axis, and the column means of the reference and every run below
  * it. The line, its spacing and the field shown are kept in the state for the session.
  */
+import { typesetUnits } from '../../app/figures/typeset.js';
 import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
 import type { LineData } from '../../app/services/lines.js';
 import { tracked } from '../service-client.js';
@@ -43,7 +44,7 @@ function columnMeanFigure(d: LineData, width: number, height: number): SVGSVGEle
   const sy = linear(padded(lo, hi), [plot.y + plot.h, plot.y]);
   const g = s('g', {});
   bottomAxis(g, plot, sx, 'Distance along the line (km)', { grid: true, ticks: 8 });
-  leftAxis(g, plot, sy, `${d.variable} (${d.units})`, { grid: true, ticks: 5 });
+  leftAxis(g, plot, sy, `${d.variable} (${typesetUnits(d.units)})`, { grid: true, ticks: 5 });
   svg.append(g);
   const items = series.map((f, i) => ({ label: f.role === 'reference' ? `${f.label} (reference)` : f.label, colour: f.role === 'reference' ? INK : RUN_COLOURS[(i - 1) % RUN_COLOURS.length], marker: f.role === 'reference' ? ('dash' as const) : ('line' as const) }));
   series.forEach((f, i) => {

@@ -4,6 +4,7 @@
  * and colour bar (plot/map-figure.ts), the probe, zoom and pan, and, on the Map view, station observations.
  * The pixel lookup is built once per projection, window, grid and canvas size; other changes only recolour.
  */
+import { typesetUnits } from '../../app/figures/typeset.js';
 import { windowed, zoomWindow, panWindow } from '../../app/render/map-window.js';
 import { buildPixelLookup, canvasHeightFor, cellAt, pixelToProjected } from '../../app/render/pixel-lookup.js';
 import type { MapProjection } from '../../app/render/projections.js';
@@ -228,9 +229,9 @@ export function mapView(difference: boolean): ViewFactory {
       regionStats.hidden = false;
       regionStats.replaceChildren(
         h('strong', {}, `${st.sel.region}, ${d.layer.label}: `),
-        h('span', { 'data-stat': 'bias' }, `bias ${fmt(k.bias)} ${d.units}`),
+        h('span', { 'data-stat': 'bias' }, `bias ${fmt(k.bias)} ${typesetUnits(d.units)}`),
         ' · ',
-        h('span', { 'data-stat': 'rmse' }, `RMSE ${fmt(k.rmse)} ${d.units}`),
+        h('span', { 'data-stat': 'rmse' }, `RMSE ${fmt(k.rmse)} ${typesetUnits(d.units)}`),
         ' · ',
         h('span', { 'data-stat': 'corr' }, `r ${k.corr === null ? '–' : k.corr.toFixed(3)}`),
         h('span', { class: 'muted' }, ` (${k.n} cells, weighted by cell volume, as the skill rows)`),

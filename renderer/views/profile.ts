@@ -1,4 +1,5 @@
 /** Profile view: the area-weighted mean profile of a region, the reference and every run, depth downwards. */
+import { typesetUnits } from '../../app/figures/typeset.js';
 import type { ProfileData } from '../../contract/view-types.js';
 import { getProfile } from '../service-client.js';
 import { h, s } from '../elements.js';
@@ -29,7 +30,7 @@ function profileFigure(data: ProfileData, width: number, height: number, depthMa
   const sx = linear(padded(lo, hi), [plot.x, plot.x + plot.w]);
   const sy = linear([0, depthMax], [plot.y, plot.y + plot.h]);
   const g = s('g', {});
-  bottomAxis(g, plot, sx, `${data.variable} (${data.units})`, { grid: true, ticks: 6 });
+  bottomAxis(g, plot, sx, `${data.variable} (${typesetUnits(data.units)})`, { grid: true, ticks: 6 });
   leftAxis(g, plot, sy, 'Depth (m)', { grid: true, ticks: 7 });
   svg.append(g);
   const line = (values: Float64Array, colour: string, widthPx: number, dash?: string): SVGElement => {

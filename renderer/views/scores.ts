@@ -2,6 +2,7 @@
 import type { ComparisonResult } from '../../app/compare/run.js';
 import type { SkillRow } from '../../app/compare/rows.js';
 import type { TableFormat } from '../../contract/view-types.js';
+import { typesetUnits } from '../../app/figures/typeset.js';
 import { getSkill, getTable } from '../service-client.js';
 import { fmt, h, MISSING, saveBlob } from '../elements.js';
 import { state, type AppState } from '../state.js';
@@ -25,7 +26,7 @@ const COLUMNS: Column<SkillRow, Key>[] = [
   text('variable', 'Variable', 'variable key of the recipe'),
   text('region', 'Region', 'region'),
   text('layer', 'Layer', 'depth layer'),
-  text('units', 'Units', 'units of means, bias, RMSE, E′ and standard deviations'),
+  { key: 'units', label: 'Units', title: 'units of means, bias, RMSE, E′ and standard deviations', text: true, value: (r) => r.units, cell: (r) => h('td', { class: 'text units' }, typesetUnits(r.units)) },
   num('n', 'n', 'number of compared cells', (v) => (v === null ? MISSING : String(v))),
   num('model_mean', 'Model mean', 'weighted mean of the run'),
   num('ref_mean', 'Ref. mean', 'weighted mean of the reference'),
@@ -39,13 +40,25 @@ const COLUMNS: Column<SkillRow, Key>[] = [
   num('compared_fraction', 'Compared', 'share of the reference weight that was compared', (v) => (v === null ? MISSING : `${(v * 100).toFixed(1)} %`)),
 ];
 
+/** "PO4, remin-short: mmol m-3 → umol kg-1 with a nominal density of 1025 kg m-3" with units typeset. */
+function conversionNote(variable: string, source: string, note: string): string {
+  // a note names units in UDUNITS spelling, one factor a word ("mmol m-3"): each factor typeset
+  const typeset = note
+    .split(' ')
+    .map((w) => (/^(?:[kmuµ]?(?:g|mol|L|l)|m|s|J|W|K)-?\d+$|^u(?:mol|g|M|L)$|^degC$/.test(w) ? typesetUnits(w) : w))
+    .join(' ');
+  return `${variable}, ${source}: ${typeset}`;
+}
+
 export const scoresView: ViewFactory = (el) => {
   const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Table options' });
   const wrap = h('div', { class: 'scores-table-wrap' });
   const count = h('span', { class: 'toolbar-hint', id: 'scores-count' });
   // whether the scored runs have settled: filled in the background, never holding up the table
   const settling = h('div', { class: 'scores-spinup-banner', id: 'scores-spinup-banner', role: 'status' });
-  el.append(toolbar, settling, wrap);
+  // how the units were brought together (a nominal density, a conversion): said above the numbers
+  const notes = h('ul', { class: 'scores-notes', id: 'scores-notes', 'aria-label': 'Unit conversions' });
+  el.append(toolbar, settling, notes, wrap);
   let result: ComparisonResult | null = null;
   let filterText = '';
   let onlyVariable = true;
@@ -67,6 +80,15 @@ export const scoresView: ViewFactory = (el) => {
     table.show(rows);
     if (table.el.parentElement !== wrap) wrap.replaceChildren(table.el);
     count.textContent = `${rows.length} of ${result?.rows.length ?? 0} rows`;
+    drawNotes(rows);
+  };
+
+  const drawNotes = (rows: SkillRow[]): void => {
+    const shownVariables = new Set(rows.map((r) => r.variable));
+    const items = (result?.variables ?? [])
+      .filter((v) => shownVariables.has(v.variable))
+      .flatMap((v) => v.conversions.map((c) => conversionNote(v.variable, c.source, c.note)));
+    notes.replaceChildren(...items.map((t) => h('li', {}, t)));
   };
 
   const exportAs = async (format: TableFormat): Promise<void> => {

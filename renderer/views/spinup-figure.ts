@@ -2,6 +2,7 @@
  * The spin-up figure: how a run's tracers move away from their first snapshot on a logarithmic axis of model
  * years (a panel per tracer, or one shared panel in per cent), and the skill of each snapshot below.
  */
+import { typesetUnits } from '../../app/figures/typeset.js';
 import type { SkillPoint, SpinupResult, SpinupTrack } from '../../app/spinup/types.js';
 import { s } from '../elements.js';
 import { logLinePanel, yearDomain, type LineSeries } from '../plot/log-lines.js';
@@ -101,7 +102,7 @@ export function spinupFigure(r: SpinupResult, c: Choice, width: number): SVGSVGE
   let y = top;
   for (const ts of groups.values()) {
     const rect: Rect = { x: left, y: y + 16, w: panelW, h: panelH - 16 };
-    const units = c.quantity === 'mean' ? ts[0].units : ts[0].inventoryUnits;
+    const units = typesetUnits(c.quantity === 'mean' ? ts[0].units : ts[0].inventoryUnits);
     const names = c.relative ? [...new Set(ts.map((t) => t.tracer))].join(', ') : `${ts[0].tracer} (${units})`;
     svg.append(text(rect.x, y + 10, names, { 'font-size': 12, 'font-weight': 600 }));
     const yLabel = c.relative ? `Deviation (% of ${what} at year ${first})` : `${c.quantity === 'mean' ? 'Mean' : 'Inventory'} deviation (${units})`;
@@ -116,7 +117,7 @@ export function spinupFigure(r: SpinupResult, c: Choice, width: number): SVGSVGE
     svg.append(text(12, skillTop + 8, `Skill of ${c.skillTracer} against the reference, layer ${c.layer}`, { 'font-size': 13, 'font-weight': 600 }));
     const shown = skillSeries(r, c, skillPanels[0]).map((sr) => sr.label.slice(c.skillTracer.length + 2));
     svg.append(text(12, skillTop + 24, `Each snapshot scored as the scores view scores a run; colour: region as above (${shown.join(', ')}).`, { 'font-size': 11.5, fill: MUTED }));
-    const units = r.skill.find((p) => p.variable === c.skillTracer)?.units ?? '';
+    const units = typesetUnits(r.skill.find((p) => p.variable === c.skillTracer)?.units ?? '');
     const gap = 96;
     const w = (width - left - 24 - gap * (skillPanels.length - 1)) / skillPanels.length;
     skillPanels.forEach((k, i) => {

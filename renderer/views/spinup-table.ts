@@ -1,5 +1,7 @@
 /** The spin-up's table of drift rates, fits and verdicts, one row a track, notes on a line under it. */
+import { typesetUnits } from '../../app/figures/typeset.js';
 import type { SpinupTrack } from '../../app/spinup/types.js';
+import { formatChange } from '../../app/output/number-format.js';
 import { fmt, h, MISSING } from '../elements.js';
 import { sortableTable, type Column, type SortableTable } from '../widgets/sortable-table.js';
 
@@ -55,13 +57,13 @@ function cellOf(t: SpinupTrack, key: SortKey): HTMLTableCellElement {
     case 'layer':
       return h('td', { class: 'text' }, t[key]);
     case 'perKyr':
-      return h('td', { title: d ? `model years ${d.fromYear}–${d.toYear}, ${d.window}` : '' }, d ? `${fmt(d.perKyr, 3)} ${t.units}` : MISSING);
+      return h('td', { title: d ? `model years ${d.fromYear}–${d.toYear}, ${d.window}` : '' }, d ? `${formatChange(d.perKyr, d.windowMean, 3)} ${typesetUnits(t.units)}` : MISSING);
     case 'percent':
-      return h('td', { title: d?.relativeTo ? `relative to ${d.relativeTo}` : '' }, d?.percentPerKyr !== null && d?.percentPerKyr !== undefined ? `${fmt(d.percentPerKyr, 3)} %` : MISSING);
+      return h('td', { title: d?.relativeTo ? `relative to ${d.relativeTo}` : '' }, d?.percentPerKyr !== null && d?.percentPerKyr !== undefined ? `${formatChange(d.percentPerKyr, 100, 3)} %` : MISSING);
     case 'fitPercent':
-      return h('td', {}, f?.constrained && f.driftPercentPerKyr !== null ? `${fmt(f.driftPercentPerKyr, 3)} %` : MISSING);
+      return h('td', {}, f?.constrained && f.driftPercentPerKyr !== null ? `${formatChange(f.driftPercentPerKyr, 100, 3)} %` : MISSING);
     case 'xInf':
-      return h('td', {}, f ? `${fmt(f.xInf, 4)} ${t.units}` : MISSING);
+      return h('td', {}, f ? `${fmt(f.xInf, 4)} ${typesetUnits(t.units)}` : MISSING);
     case 'tau':
       return h('td', {}, f ? String(Math.round(f.tau)) : MISSING);
     case 't90':

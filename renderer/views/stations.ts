@@ -6,6 +6,7 @@
  * (app/render/stations-on-slice.ts); how many are shown and hidden is said beside the control. The probe,
  * when near a station, gets its values.
  */
+import { typesetUnits } from '../../app/figures/typeset.js';
 import { stationsOnSlice, type SliceForStations } from '../../app/render/stations-on-slice.js';
 import { colourFor, type ColourScale } from '../../app/render/colour-scales.js';
 import type { PointsData } from '../../app/services/lines.js';
@@ -68,7 +69,7 @@ export function stationsOverlay(onChange: () => void): StationsOverlay {
       if (my !== token) return;
       data = r;
       const left = r.problems.length;
-      loaded = `${r.stations.id.length} stations (${r.units})${left ? `, ${left} not sampled by every source` : ''}`;
+      loaded = `${r.stations.id.length} stations (${typesetUnits(r.units)})${left ? `, ${left} not sampled by every source` : ''}`;
       summary = loaded;
       status.textContent = summary;
       onChange();
@@ -116,7 +117,7 @@ export function stationsOverlay(onChange: () => void): StationsOverlay {
       const source = data.sources.find((x) => x.label === run) ?? data.sources[0];
       const m = source.model[best];
       const depth = stn.seafloor[best] ? 'seafloor' : `${stn.depth[best]} m`;
-      return `station ${stn.id[best]} (${depth}): observed ${stn.value[best]} ${data.units}, ${source.label} ${Number.isFinite(m) ? m.toPrecision(4) : source.status[best].replace('_', ' ')}`;
+      return `station ${stn.id[best]} (${depth}): observed ${stn.value[best]} ${typesetUnits(data.units)}, ${source.label} ${Number.isFinite(m) ? m.toPrecision(4) : source.status[best].replace('_', ' ')}`;
     },
     showProbe(lon, lat, run) {
       if (!data) return;

@@ -69,8 +69,8 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     // the sources panel lists the reference and the three runs with units
     const text = await page.textContent('#sources-panel');
     expect(text).toContain('Demo climatology');
-    expect(text).toContain('umol kg-1');
-    expect(text).toContain('mmol m-3');
+    expect(text).toContain('µmol kg⁻¹');
+    expect(text).toContain('mmol m⁻³');
     const marks = await page.evaluate(() => performance.getEntriesByName('map-first-draw').length);
     expect(marks).toBe(1);
     await wb.shot('view-map');
@@ -156,7 +156,7 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     expect(check.error).toBe(0);
     expect(check.name).toBe('svg');
     expect(check.width).toBe('180mm');
-    expect(check.text).toContain('(umol kg-1)'); // the colour bar carries units
+    expect(check.text).toContain('(µmol kg⁻¹)'); // the colour bar carries units, typeset
     const png = await download(page, () => page.click('#export-png'));
     // PNG signature and IHDR width (ISO/IEC 15948): 180 mm at 300 dpi = 2126 pixels; pHYs 300 dpi = 11811 px/m
     expect([...png.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
@@ -180,7 +180,7 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     await drawn(page, 'section');
     const text = await page.textContent('.view-section svg');
     expect(text).toContain('Depth (m)');
-    expect(text).toContain('(umol kg-1)');
+    expect(text).toContain('(µmol kg⁻¹)');
     expect(await page.locator('.view-section path.seafloor').count()).toBe(1);
     await wb.shot('view-section');
     await page.click('.view-section button[data-value="zonal"]');
@@ -189,7 +189,7 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     await page.click('#tab-profile');
     await drawn(page, 'profile');
     const ptext = await page.textContent('.view-profile svg');
-    expect(ptext).toContain('PO4 (umol kg-1)');
+    expect(ptext).toContain('PO4 (µmol kg⁻¹)');
     expect(ptext).toContain('remin-short');
     await wb.shot('view-profile');
     expect(wb.consoleErrors).toEqual([]);
@@ -202,7 +202,7 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     expect(markers).toBeGreaterThanOrEqual(3 * 6 - 2);
     const text = await page.textContent('.view-diagram svg');
     expect(text).toContain('Run (colour)');
-    expect(text).toContain('Region (marker)');
+    expect(text).toContain('Region (shape)'); // the legend of app/figures, as the report draws it
     expect(text).toContain('atlantic');
     await wb.shot('view-diagram-taylor');
     await page.click('.view-diagram button[data-value="target"]');
@@ -210,7 +210,7 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     await wb.shot('view-diagram-target');
     const svg = (await download(page, () => page.click('#export-svg'))).toString('utf8');
     expect(svg).toMatch(/^<\?xml/);
-    expect(svg).toContain('Bias / σr');
+    expect(svg).toContain('Bias / σ reference (1)');
   }, SLOW);
 
   it('the scores table sorts, filters and exports CSV, Markdown, LaTeX and JSON', async () => {

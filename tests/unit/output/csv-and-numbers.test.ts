@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { csvCell, csvTable, csvText } from '../../../app/output/csv.js';
 import { camelKey, camelKeys, jsonText, snakeKey, snakeKeys } from '../../../app/output/json-keys.js';
-import { dataNumber, formatNumber, formatPercent, formatSigned, MISSING } from '../../../app/output/number-format.js';
+import { dataNumber, formatChange, formatNumber, formatPercent, formatSigned, MISSING } from '../../../app/output/number-format.js';
 
 describe('CSV', () => {
   it('quotes and doubles per RFC 4180 and ends every record with CRLF', () => {
@@ -42,6 +42,18 @@ describe('number format', () => {
     expect(formatSigned(0.5, 3)).toBe('+0.5');
     expect(formatPercent(0.1234)).toBe('12.3%');
     expect(dataNumber(1.23456789, 7)).toBe(1.234568);
+  });
+
+  it('a change below single-precision round-off of its size reads 0 (FLT_EPSILON = 2^-23 ≈ 1.19e-7, IEEE 754)', () => {
+    // a drift of -2.98e-9 per 1000 years of a mean near 2 °C is round-off, not a drift
+    expect(formatChange(-2.98e-9, 1.9)).toBe('0');
+    expect(formatChange(-2.98e-3, 1.9, 3)).toBe('-0.00298');
+    // one float32 step of 2 (2^-22 ≈ 2.4e-7) still counts as round-off; a millionth and more does not
+    expect(formatChange(2 * 2 ** -23, 2)).toBe('0');
+    expect(formatChange(3e-6, 2)).toBe('3.000e-6');
+    expect(formatChange(NaN, 2)).toBe(MISSING);
+    // with no size to measure against, the plain format
+    expect(formatChange(-2.98e-9, 0, 3)).toBe('-2.98e-9');
   });
 });
 

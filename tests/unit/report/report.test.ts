@@ -64,6 +64,21 @@ describe('skill tables', () => {
     expect(opens).toBe(closes);
   });
 
+  it('LaTeX: says when units were converted with a nominal density, as the Markdown does', () => {
+    const converted: ComparisonResult = {
+      ...result,
+      variables: [{ ...result.variables[0], conversions: [{ source: 'Run "A", v2', note: 'converted mmol m-3 to umol kg-1 with a nominal density of 1025 kg m-3' }] }],
+    };
+    const tex = skillLatex(converted);
+    const md = skillMarkdown(converted, prov);
+    expect(md).toContain('nominal density of 1025 kg m-3');
+    expect(tex).toContain('with a nominal density of 1025 kg m$^{-3}$');
+    expect(tex).toContain('converted mmol m$^{-3}$ to $\\mu$mol kg$^{-1}$');
+    // the note comes before the variable's rows, inside the table, and braces still balance
+    expect(tex.indexOf('nominal density')).toBeLessThan(tex.indexOf('arctic'));
+    expect((tex.match(/(?<!\\)\{/g) ?? []).length).toBe((tex.match(/(?<!\\)\}/g) ?? []).length);
+  });
+
   it('writes the four tables into a new folder', async () => {
     const dir = join(mkdtempSync(join(tmpdir(), 'sw-report-')), 'out');
     const files = await writeSkillTables(dir, result, prov);
