@@ -29,12 +29,14 @@ export interface SectionPanelsSpec {
   reference: { label: string; values: Float32Array };
   runs: { label: string; values: Float32Array; difference: Float32Array }[];
   fixedDifference?: number | null;
-  /** column means along the line (transects): reference first, then the runs in order */
+  /** column means along the line (transects): reference first, then the runs in order, each over the cells where all of them have values (app/lines/column-mean.ts comparedColumnMeans) */
   columnMeans?: { label: string; values: ArrayLike<number> }[];
 }
 
 const GAP = 10;
 const PANEL_TITLE = FONT_PT.panelTitle + 3;
+/** Which cells compared column means use (the screen's Line view says the same). */
+export const COLUMN_MEAN_CAPTION = 'only cells where the reference and every run have values';
 const X_AXIS = FONT_PT.tick * 2 + 10;
 
 function sectionWeights(g: SectionGrid): Float64Array {
@@ -130,7 +132,11 @@ export function sectionPanelsFigure(spec: SectionPanelsSpec): Figure {
   if (spec.columnMeans) {
     const r: Rect = { x: xL, y: meansY + PANEL_TITLE, w: W - xL - 110, h: panelH };
     const g = el('g', { class: 'panel column-means' });
-    g.append(text(r.x, r.y - 3, 'Column means along the line', { 'font-size': FONT_PT.panelTitle, 'font-weight': 'bold', class: 'panel-title' }));
+    // the caption says which cells the means use: a cell one source lacks (a seamount's flank) moves none of them
+    g.append(el('text', { x: r2(r.x), y: r2(r.y - 3), 'font-size': FONT_PT.panelTitle, class: 'panel-title' },
+      el('tspan', { 'font-weight': 'bold' }, 'Column means along the line'),
+      el('tspan', { class: 'panel-caption' }, ` (${COLUMN_MEAN_CAPTION})`),
+    ));
     let lo = Infinity;
     let hi = -Infinity;
     for (const c of spec.columnMeans) for (let s = 0; s < c.values.length; s++) if (Number.isFinite(c.values[s])) {

@@ -1,9 +1,11 @@
 /**
  * Files of a line: section.csv / section.json (every level at every sample) and
- * column-means.csv / column-means.json (one value per sample). NaN is an empty CSV field or JSON null.
+ * column-means.csv / column-means.json (one value per sample, over the cells where the reference and every run
+ * have values, said in a '# ' line and a `cells` field). NaN is an empty CSV field or JSON null.
  */
 import type { LineResult, SectionOf } from './line-report.js';
-import { csvTable, type CsvCell } from '../output/csv.js';
+import { CSV_EOL, csvTable, type CsvCell } from '../output/csv.js';
+import { COMPARED_CELLS } from './column-mean.js';
 import { dataNumber } from '../output/number-format.js';
 
 function columns(r: LineResult): { label: string; role: string; s: SectionOf }[] {
@@ -51,7 +53,8 @@ export function columnMeansCsv(r: LineResult): string {
       ...cols.map((c) => dataNumber(c.s.columnMean[s], 7)),
     ]);
   }
-  return csvTable(['distance_km', 'lon', 'lat', 'seafloor_m', 'wet_thickness_m', ...cols.map((c) => c.label)], rows);
+  // the comment line says which cells the means use (station CSVs carry '# ' lines the same way)
+  return `# ${COMPARED_CELLS}; wet_thickness_m is the thickness they use.${CSV_EOL}` + csvTable(['distance_km', 'lon', 'lat', 'seafloor_m', 'wet_thickness_m', ...cols.map((c) => c.label)], rows);
 }
 
 function lineHeader(r: LineResult): Record<string, unknown> {
@@ -90,6 +93,7 @@ export function columnMeansJson(r: LineResult): Record<string, unknown> {
   return {
     ...lineHeader(r),
     depth_range_m: [r.range.top, r.range.bottom],
+    cells: `${COMPARED_CELLS[0].toUpperCase()}${COMPARED_CELLS.slice(1)}.`,
     wet_thickness_m: Array.from(r.rangeThicknessM, (v) => dataNumber(v, 7)),
     fields: columns(r).map((c) => ({ label: c.label, role: c.role, values: Array.from(c.s.columnMean, (v) => dataNumber(v, 7)) })),
   };

@@ -7,7 +7,7 @@ import type { FieldSource } from '../cf/field-source.js';
 import { StillwaterError } from '../errors.js';
 import type { VerticalAxis } from '../grid/types.js';
 import { skillStats, type SkillNumbers } from '../stats/weighted.js';
-import { checkDepthRange, columnMeans, wholeColumn, type DepthRange } from './column-mean.js';
+import { checkDepthRange, comparedColumnMeans, wholeColumn, type DepthRange } from './column-mean.js';
 import { pointWeights, type PointMethod } from './location-weights.js';
 import type { SampledLine } from './sample-path.js';
 import { sampleSection, seafloorOutline } from './section.js';
@@ -30,7 +30,7 @@ export interface SectionOf {
   label: string;
   /** level-major, values[k * n + s] */
   values: Float32Array;
-  /** column mean over the range, per sample */
+  /** column mean over the range, per sample, over the cells where the reference and every run have values */
   columnMean: Float64Array;
 }
 
@@ -43,7 +43,7 @@ export interface LineResult {
   /** bottom edge of the deepest wet layer of the reference, per sample, m (0 on land) */
   seafloorM: Float64Array;
   range: DepthRange;
-  /** wet thickness inside the range per sample (reference), m */
+  /** thickness inside the range per sample where the reference and every run have values (what the column means use), m */
   rangeThicknessM: Float64Array;
   reference: SectionOf;
   runs: SectionOf[];
@@ -104,8 +104,11 @@ export async function lineReport(reference: NamedField, runs: NamedField[], line
       coverage: opts.coverage,
       progress: (x) => opts.progress?.((f + x) / all.length, `sampling ${all[f].label} along the line`),
     });
-    sections.push({ label: all[f].label, values, columnMean: columnMeans(values, n, axis, range).mean });
+    sections.push({ label: all[f].label, values, columnMean: new Float64Array(n) });
   }
+  // compared means: only the cells where the reference and every run have values (COMPARED_CELLS)
+  const compared = comparedColumnMeans(sections.map((s) => s.values), n, axis, range);
+  sections.forEach((s, f) => (s.columnMean = compared.means[f]));
   const ref = sections[0];
   const differences = sections.slice(1).map((s) => {
     const d = new Float32Array(s.values.length);
@@ -124,7 +127,7 @@ export async function lineReport(reference: NamedField, runs: NamedField[], line
     depth: { centres: axis.centres, edges: axis.edges },
     seafloorM: seafloorOutline(ref.values, n, axis),
     range,
-    rangeThicknessM: columnMeans(ref.values, n, axis, range).thickness,
+    rangeThicknessM: compared.thickness,
     reference: ref,
     runs: sections.slice(1),
     differences,

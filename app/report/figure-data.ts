@@ -6,7 +6,7 @@
  */
 import type { FieldSinkInfo, LevelSink } from '../compare/field-sink.js';
 import type { Grid, VerticalAxis } from '../grid/types.js';
-import { columnMeans } from '../lines/column-mean.js';
+import { comparedColumnMeans } from '../lines/column-mean.js';
 import { pointWeights } from '../lines/location-weights.js';
 import { sampleLine } from '../lines/run-line.js';
 import type { SampledLine } from '../lines/sample-path.js';
@@ -227,7 +227,10 @@ export class VariableCollector {
         reference: ref,
         runs,
         seafloor: seafloorOutline(ref, n, this.axis),
-        columnMeans: [{ label: 'reference', values: columnMeans(ref, n, this.axis).mean }, ...runs.map((r) => ({ label: r.label, values: columnMeans(r.values, n, this.axis).mean }))],
+        // compared means: over the cells where the reference and every run have values (COMPARED_CELLS)
+        columnMeans: ((m) => [{ label: 'reference', values: m[0] }, ...runs.map((r, f) => ({ label: r.label, values: m[f + 1] }))])(
+          comparedColumnMeans([ref, ...runs.map((r) => r.values)], n, this.axis).means,
+        ),
       };
     });
     return { variable: this.variable, units: this.units, grid: this.grid, maps, zonal, lines };

@@ -98,7 +98,7 @@ export function* variableFigures(data: VariableFigureData, rows: SkillRow[], ctx
       yield sectionPanelsFigure({
         name: `${slug(v)}-line-${slug(l.name)}`,
         title: `${v} along ${l.name}: section and column means`,
-        subtitle: `Sampled every ${l.line.spacingKm} km (bilinear between wet cell centres); column means thickness-weighted over the whole water column.`,
+        subtitle: `Sampled every ${l.line.spacingKm} km (bilinear between wet cell centres); column means thickness-weighted over the whole water column, over the cells where the reference and every run have values.`,
         quantity: v,
         units: data.units,
         width,

@@ -10,6 +10,7 @@ import type { LineData } from '../../app/services/lines.js';
 import { tracked } from '../service-client.js';
 import { h, s } from '../elements.js';
 import { linear, padded } from '../../app/figures/scale.js';
+import { COLUMN_MEAN_CAPTION } from '../../app/figures/section-panels.js';
 import { sectionFigure } from '../plot/section-figure.js';
 import { bottomAxis, figureRoot, INK, leftAxis, legend, RUN_COLOURS, title, type Rect } from '../plot/svg-parts.js';
 import { choose, state, type AppState, type LineChoice } from '../state.js';
@@ -29,7 +30,7 @@ function edgesOf(centres: Float64Array): Float64Array {
 
 function columnMeanFigure(d: LineData, width: number, height: number): SVGSVGElement {
   const svg = figureRoot(width, height, `Column means of ${d.variable} along the line`);
-  title(svg, 12, 18, `Column mean of ${d.variable}, ${d.depthRange[0]}–${d.depthRange[1]} m`, 'Thickness-weighted mean over the depth range, along the line');
+  title(svg, 12, 18, `Column mean of ${d.variable}, ${d.depthRange[0]}–${d.depthRange[1]} m`, `Thickness-weighted mean over the depth range, along the line; ${COLUMN_MEAN_CAPTION}`);
   const plot: Rect = { x: 76, y: 50, w: width - 76 - 220, h: height - 50 - 48 };
   const series = d.fields.filter((f) => f.role !== 'difference');
   let lo = Infinity;

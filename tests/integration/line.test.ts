@@ -14,7 +14,7 @@ beforeAll(() => {
 });
 
 function csv(path: string): Record<string, string>[] {
-  const [head, ...rows] = readFileSync(path, 'utf8').trim().split(/\r?\n/);
+  const [head, ...rows] = readFileSync(path, 'utf8').trim().split(/\r?\n/).filter((l) => !l.startsWith('# '));
   const names = head.split(',');
   return rows.map((r) => Object.fromEntries(r.split(',').map((v, i) => [names[i], v])));
 }
@@ -86,6 +86,42 @@ describe('stillwater line', () => {
     expect(Math.max(...rows.map((row) => Number(row.lat)))).toBeGreaterThan(89);
     // beyond the last latitude centre (85°N) the nearest row holds: the value at 85°N
     for (const row of rows) expect(Number(row.climatology)).toBeCloseTo(truth(Math.min(85, Number(row.lat)), 500), 4);
+  });
+});
+
+describe('stillwater line: compared column means over a seamount', () => {
+  // tests/fixtures/lines/make_seamount.py (netCDF4-python files, numpy means): along 15°E the run's seamount
+  // is dry below 300 m at 5°S where the reference is wet to 1000 m, and at 15°N the run has water below
+  // 600 m that the reference lacks. By hand at 5°S: both wet in 0-100 and 100-300 m, the reference
+  // 1 - 0.05 + 0.002·z gives (100·1.05 + 200·1.35)/300 = 1.25 (over its own cells it would be 1.95).
+  const fixtures = join(__dirname, '..', 'fixtures', 'lines');
+  const expected = JSON.parse(readFileSync(join(fixtures, 'expected_seamount.json'), 'utf8')) as {
+    rows: { lat: number; reference: number; run: number; difference: number; thickness_m: number; reference_own_cells: number; run_own_cells: number }[];
+  };
+
+  it('the reference, the run and their difference use only the cells where both have values (numpy reference)', () => {
+    const out = join(dir, 'seamount');
+    // one sample at each cell centre on 15°E: 10° of arc on the sphere of radius 6 371 008.8 m (Moritz 2000)
+    const spacing = (10 * Math.PI * 6371008.8) / 180 / 1000;
+    const r = stillwater(['line', '--recipe', join(fixtures, 'seamount_recipe.json'), '--var', 'PO4', '--meridian', '15', '--lat-range', '-25,25', '--spacing-km', String(spacing), '--out', out]);
+    expect(r.code, r.stderr).toBe(0);
+    const rows = csv(join(out, 'column-means.csv'));
+    expect(rows.map((row) => Math.round(Number(row.lat)))).toEqual(expected.rows.map((e) => e.lat));
+    rows.forEach((row, i) => {
+      const e = expected.rows[i];
+      expect(Number(row.reference), `lat ${e.lat}`).toBeCloseTo(e.reference, 5);
+      expect(Number(row.run), `lat ${e.lat}`).toBeCloseTo(e.run, 5);
+      expect(Number(row['run minus reference']), `lat ${e.lat}`).toBeCloseTo(e.difference, 5);
+      expect(Number(row.wet_thickness_m), `lat ${e.lat}`).toBeCloseTo(e.thickness_m, 6);
+    });
+    // the fixture has columns where each source's own wet cells give another mean: the check can fail
+    expect(expected.rows.filter((e) => Math.abs(e.reference_own_cells - e.reference) > 0.1).map((e) => e.lat)).toEqual([-5, 5]);
+    expect(expected.rows.filter((e) => Math.abs(e.run_own_cells - e.run) > 0.1).map((e) => e.lat)).toEqual([15]);
+    // the outputs say which cells the means use
+    expect(readFileSync(join(out, 'column-means.csv'), 'utf8').split('\r\n')[0]).toMatch(/^# column means use only the cells where the reference and every run have values/);
+    const json = JSON.parse(readFileSync(join(out, 'column-means.json'), 'utf8'));
+    expect(json.cells).toMatch(/^Column means use only the cells where the reference and every run have values/);
+    expect(json.fields[0].values[2]).toBeCloseTo(1.25, 5);
   });
 });
 
