@@ -9,7 +9,9 @@ import { openDataset } from '../io/open.js';
 import { attrString, findVariable, type RawDataset, type RawVariable } from '../io/types.js';
 import { findReferenced, missingVariableText } from '../io/variable-path.js';
 import { makeRectilinearGrid } from '../grid/rectilinear.js';
-import { makeCurvilinearGrid, type Corners } from '../grid/curvilinear.js';
+import { makeCurvilinearGrid, nearLongitude, type Corners } from '../grid/curvilinear.js';
+import type { CornerLattice } from '../grid/corners.js';
+import { LatticeBuilder } from '../grid/lattice-builder.js';
 import { edgesFromCentres, makeVerticalAxis } from '../grid/vertical.js';
 import type { HorizontalGrid, VerticalAxis } from '../grid/types.js';
 import type { FieldSource, TimeAxis } from './field-source.js';
@@ -233,7 +235,7 @@ async function horizontalLayout(ds: RawDataset, v: RawVariable, lon: RawVariable
         throw fileError('E_COORDS', file, `its 2-D coordinates '${lon.name}'/'${lat.name}' have a missing value at (${Math.floor(c / nx)}, ${c % nx}).`, v.name);
       }
     }
-    const corners = await cornersFromBounds(ds, lon, lat, ny, nx, yDim);
+    const corners = await cornersFromBounds(ds, lon, lat, lon2, ny, nx, yDim);
     const grid = makeCurvilinearGrid(lon2, lat2, nx, ny, corners ?? undefined);
     return { grid, yDim, xDim, rows: null, cols: null };
   }
@@ -259,19 +261,36 @@ function transpose(a: Float64Array, rows: number, cols: number): Float64Array {
   return out;
 }
 
-/** CF 2-D bounds (ny, nx, 4), vertices counter-clockwise from (j-½, i-½) (CF 1.10 §7.1). */
-async function cornersFromBounds(ds: RawDataset, lon: RawVariable, lat: RawVariable, ny: number, nx: number, yDim: string): Promise<Corners | null> {
+/**
+ * CF 2-D bounds (ny, nx, 4), vertices counter-clockwise from (j-½, i-½) (CF 1.10 §7.1), longitudes unwrapped
+ * next to each cell's centre. Read in bands of rows: when neighbouring cells share their corners (the same
+ * doubles once unwrapped), each corner is kept once, on the (ny + 1) × (nx + 1) lattice; else 4 per cell.
+ */
+async function cornersFromBounds(
+  ds: RawDataset, lon: RawVariable, lat: RawVariable, lon2: Float64Array, ny: number, nx: number, yDim: string,
+): Promise<Corners | { lattice: CornerLattice } | null> {
   const lonB = boundsVariable(ds, lon);
   const latB = boundsVariable(ds, lat);
   const fits = (b: RawVariable | undefined): b is RawVariable =>
     !!b && b.shape.length === 3 && b.shape[2] === 4 && b.dims[0] === yDim && b.shape[0] === ny && b.shape[1] === nx;
   if (!fits(lonB) || !fits(latB)) return null;
+  const lattice = new LatticeBuilder(lon2, nx, ny);
+  const band = Math.max(1, Math.floor(BOUNDS_BAND_VALUES / (4 * nx)));
+  for (let j0 = 0; j0 < ny && lattice.shared; j0 += band) {
+    const rows = Math.min(band, ny - j0);
+    const cLon = decodeCoordinate(lonB, await ds.read(lonB.name, [j0, 0, 0], [rows, nx, 4]));
+    const cLat = decodeCoordinate(latB, await ds.read(latB.name, [j0, 0, 0], [rows, nx, 4]));
+    lattice.addRows(j0, cLon, cLat);
+  }
+  if (lattice.shared) return { lattice: lattice.result() };
   const cLon = await readCoordinate(ds, lonB);
   const cLat = await readCoordinate(ds, latB);
-  const lon2 = await readCoordinate(ds, lon);
-  for (let c = 0; c < nx * ny; c++) for (let q = 0; q < 4; q++) cLon[c * 4 + q] -= 360 * Math.round((cLon[c * 4 + q] - lon2[c]) / 360);
+  for (let c = 0; c < nx * ny; c++) for (let q = 0; q < 4; q++) cLon[c * 4 + q] = nearLongitude(cLon[c * 4 + q], lon2[c]);
   return { lon: cLon, lat: cLat };
 }
+
+/** Bounds values read at a time (a band of rows of one bounds variable): 16 MB of doubles. */
+const BOUNDS_BAND_VALUES = 2 * 1024 * 1024;
 
 function lowerFirst(s: string): string {
   return s.charAt(0).toLowerCase() + s.slice(1);

@@ -5,6 +5,9 @@
 import { StillwaterError } from '../errors.js';
 import { EARTH_RADIUS_M, type HorizontalGrid } from './types.js';
 import { fromUnitVector, toUnitVector, triangleSolidAngle, type Vec3 } from './spherical-area.js';
+import { cellCorners, expandLattice, nearLongitude, type CornerLattice } from './corners.js';
+
+export { nearLongitude };
 
 export interface Corners {
   /** ny * nx * 4 corner longitudes, counter-clockwise: (i-, j-), (i+, j-), (i+, j+), (i-, j+) */
@@ -31,11 +34,6 @@ export function wrapsInI(lon: ArrayLike<number>, lat: ArrayLike<number>, nx: num
   return angle(row[nx - 1], row[0]) < 1.5 * mean;
 }
 
-/** Longitude `x` moved by whole turns to lie within 180° of `ref`. */
-export function nearLongitude(x: number, ref: number): number {
-  return x - 360 * Math.round((x - ref) / 360);
-}
-
 /**
  * Corners as averages of the four surrounding centres, in longitude and latitude (longitudes unwrapped
  * around the first of the four, so the 0/360 or ±180 seam needs no care); outside the grid the centres are
@@ -44,6 +42,11 @@ export function nearLongitude(x: number, ref: number): number {
  * averages mean nothing: there the corner is the normalised mean of the centres' unit vectors.
  */
 export function deriveCorners(lon2d: ArrayLike<number>, lat2d: ArrayLike<number>, nx: number, ny: number, periodic: boolean): Corners {
+  return expandLattice(deriveLattice(lon2d, lat2d, nx, ny, periodic), Float64Array.from(lon2d), nx, ny);
+}
+
+/** The derived corners once each, (ny + 1) × (nx + 1), before unwrapping next to each cell's centre. */
+export function deriveLattice(lon2d: ArrayLike<number>, lat2d: ArrayLike<number>, nx: number, ny: number, periodic: boolean): CornerLattice {
   if (nx < 2 || ny < 2) throw new StillwaterError('E_GRID', 'Deriving cell corners needs a curvilinear grid of at least 2 × 2 cells.');
   const W = nx + 2;
   const H = ny + 2;
@@ -106,20 +109,7 @@ export function deriveCorners(lon2d: ArrayLike<number>, lat2d: ArrayLike<number>
       cLat[jj * CW + ii] = Math.max(-90, Math.min(90, lat));
     }
   }
-  const lon = new Float64Array(nx * ny * 4);
-  const lat = new Float64Array(nx * ny * 4);
-  for (let j = 0; j < ny; j++) {
-    for (let i = 0; i < nx; i++) {
-      const c = (j * nx + i) * 4;
-      const idx = [j * CW + i, j * CW + i + 1, (j + 1) * CW + i + 1, (j + 1) * CW + i];
-      const ref = lon2d[j * nx + i];
-      for (let q = 0; q < 4; q++) {
-        lon[c + q] = nearLongitude(cLon[idx[q]], ref);
-        lat[c + q] = cLat[idx[q]];
-      }
-    }
-  }
-  return { lon, lat };
+  return { lon: cLon, lat: cLat };
 }
 
 /** Area of one quadrilateral cell with great-circle edges, m². */
@@ -132,36 +122,53 @@ export function quadArea(lon: ArrayLike<number>, lat: ArrayLike<number>, offset:
 }
 
 /**
- * A curvilinear grid from 2-D centres (ny * nx, i fastest). Corners from the file's bounds when given,
- * else derived (and the grid flagged boundsDerived).
+ * A curvilinear grid from 2-D centres (ny * nx, i fastest; Float64Arrays are kept, not copied). Corners
+ * from the file's bounds when given, 4 per cell or once each on the lattice of shared corners, else derived
+ * (and the grid flagged boundsDerived). Corners on a lattice are expanded to 4 per cell only when someone
+ * reads cornerLon/cornerLat.
  */
 export function makeCurvilinearGrid(
   lon2d: ArrayLike<number>,
   lat2d: ArrayLike<number>,
   nx: number,
   ny: number,
-  corners?: Corners,
+  corners?: Corners | { lattice: CornerLattice },
   radius = EARTH_RADIUS_M,
 ): HorizontalGrid {
   const n = nx * ny;
   if (lon2d.length !== n || lat2d.length !== n) throw new StillwaterError('E_GRID', `A curvilinear grid of ${ny} × ${nx} needs ${n} centre longitudes and latitudes.`);
-  const lon = Float64Array.from(lon2d);
-  const lat = Float64Array.from(lat2d);
+  const lon = lon2d instanceof Float64Array ? lon2d : Float64Array.from(lon2d);
+  const lat = lat2d instanceof Float64Array ? lat2d : Float64Array.from(lat2d);
   const periodic = wrapsInI(lon, lat, nx, ny);
-  const cs = corners ?? deriveCorners(lon, lat, nx, ny, periodic);
-  if (cs.lon.length !== n * 4 || cs.lat.length !== n * 4) throw new StillwaterError('E_GRID', `Cell corners of a ${ny} × ${nx} grid need ${n * 4} values.`);
-  const area = new Float64Array(n);
-  for (let c = 0; c < n; c++) area[c] = quadArea(cs.lon, cs.lat, c * 4, radius);
-  return {
+  const lattice = corners && 'lattice' in corners ? corners.lattice : corners ? undefined : deriveLattice(lon, lat, nx, ny, periodic);
+  const perCell = corners && !('lattice' in corners) ? corners : undefined;
+  if (lattice && (lattice.lon.length !== (nx + 1) * (ny + 1) || lattice.lat.length !== (nx + 1) * (ny + 1))) {
+    throw new StillwaterError('E_GRID', `Shared cell corners of a ${ny} × ${nx} grid need ${(nx + 1) * (ny + 1)} values.`);
+  }
+  if (perCell && (perCell.lon.length !== n * 4 || perCell.lat.length !== n * 4)) throw new StillwaterError('E_GRID', `Cell corners of a ${ny} × ${nx} grid need ${n * 4} values.`);
+  let expanded: Corners | undefined = perCell;
+  const expand = (): Corners => (expanded ??= expandLattice(lattice!, lon, nx, ny));
+  const grid: HorizontalGrid = {
     kind: 'curvilinear',
     nx,
     ny,
     lon,
     lat,
-    cornerLon: cs.lon,
-    cornerLat: cs.lat,
+    get cornerLon() {
+      return expand().lon;
+    },
+    get cornerLat() {
+      return expand().lat;
+    },
+    ...(lattice ? { lattice } : {}),
     boundsDerived: !corners,
     periodic,
-    area,
+    area: new Float64Array(n),
   };
+  const cl = new Float64Array(4), ca = new Float64Array(4);
+  for (let c = 0; c < n; c++) {
+    cellCorners(grid, c, cl, ca);
+    grid.area[c] = quadArea(cl, ca, 0, radius);
+  }
+  return grid;
 }

@@ -1,3 +1,5 @@
+import type { CornerLattice } from './corners.js';
+
 /**
  * The grid model. Index order is always row-major with longitude fastest:
  * cell (j, i) is at j * nx + i; a 3-D cell (k, j, i) at (k * ny + j) * nx + i; k = 0 is the top layer.
@@ -31,6 +33,11 @@ export interface HorizontalGrid {
    */
   cornerLon: Float64Array;
   cornerLat: Float64Array;
+  /**
+   * Curvilinear grids whose cells share their corners keep each corner once (grid/corners.ts); cornerLon
+   * and cornerLat are then made when first asked for. Read corners through cellCorners where cost matters.
+   */
+  lattice?: CornerLattice;
   /** present for rectilinear grids only */
   axes?: RectilinearAxes;
   /** true when bounds were derived from centres rather than read from the file */

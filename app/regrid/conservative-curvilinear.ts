@@ -1,3 +1,4 @@
+import { cellCorners } from '../grid/corners.js';
 import { EARTH_RADIUS_M, type HorizontalGrid } from '../grid/types.js';
 import { ascendingEdges, cellRange } from './edge-search.js';
 import { TripletBuilder, type SparseWeights } from './csr.js';
@@ -29,10 +30,7 @@ export function conservativeCurvilinear(source: HorizontalGrid, target: Horizont
   const cLon = new Float64Array(4), cLat = new Float64Array(4);
   const scale = RAD * radius * radius;
   for (let s = 0; s < nSrc; s++) {
-    for (let c = 0; c < 4; c++) {
-      cLon[c] = source.cornerLon[4 * s + c];
-      cLat[c] = source.cornerLat[4 * s + c];
-    }
+    cellCorners(source, s, cLon, cLat);
     if (!cellToFrame(cLon, cLat, poly, arcs)) continue;
     const [px0, px1, py0, py1] = bbox(poly);
     const [r0, r1] = cellRange(ySin, py0, py1);
@@ -62,8 +60,10 @@ export function frameCellAreas(grid: HorizontalGrid, radius = EARTH_RADIUS_M): F
   const out = new Float64Array(n);
   const poly = new PolyBuffer(64);
   const arcs = new ArcTable();
+  const cLon = new Float64Array(4), cLat = new Float64Array(4);
   for (let s = 0; s < n; s++) {
-    const ok = cellToFrame(grid.cornerLon.subarray(4 * s, 4 * s + 4), grid.cornerLat.subarray(4 * s, 4 * s + 4), poly, arcs);
+    cellCorners(grid, s, cLon, cLat);
+    const ok = cellToFrame(cLon, cLat, poly, arcs);
     out[s] = ok ? Math.abs(polygonArea(poly, arcs)) * RAD * radius * radius : NaN;
   }
   return out;

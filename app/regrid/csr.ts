@@ -16,50 +16,71 @@ export interface SparseWeights {
 
 export type RemapMethod = 'conservative' | 'bilinear' | 'nearest';
 
-/** Triplets collected while building, turned into CSR by a counting sort on the row. */
+/**
+ * Triplets collected while building, in blocks (growing never copies, and never holds twice what is needed:
+ * a 0.1° source has 8 M of them), turned into CSR by a counting sort on the row; each block is let go as
+ * soon as it has been sorted in.
+ */
 export class TripletBuilder {
+  private blocks: { rows: Int32Array; cols: Int32Array; vals: Float64Array }[] = [];
   private rows: Int32Array;
   private cols: Int32Array;
   private vals: Float64Array;
+  private fill = 0;
   n = 0;
-  constructor(capacity = 1024) {
-    this.rows = new Int32Array(capacity);
-    this.cols = new Int32Array(capacity);
-    this.vals = new Float64Array(capacity);
+  constructor(private readonly blockSize = 1024) {
+    this.rows = new Int32Array(blockSize);
+    this.cols = new Int32Array(blockSize);
+    this.vals = new Float64Array(blockSize);
+    this.blocks.push({ rows: this.rows, cols: this.cols, vals: this.vals });
   }
   push(row: number, col: number, w: number): void {
-    if (this.n === this.rows.length) this.grow();
-    this.rows[this.n] = row;
-    this.cols[this.n] = col;
-    this.vals[this.n] = w;
+    if (this.fill === this.rows.length) this.grow();
+    const f = this.fill++;
+    this.rows[f] = row;
+    this.cols[f] = col;
+    this.vals[f] = w;
     this.n++;
   }
   private grow(): void {
-    const cap = this.rows.length * 2;
-    const r = new Int32Array(cap), c = new Int32Array(cap), v = new Float64Array(cap);
-    r.set(this.rows);
-    c.set(this.cols);
-    v.set(this.vals);
-    this.rows = r;
-    this.cols = c;
-    this.vals = v;
+    // blocks double up to 1 M entries (16 MB), then stay at that size
+    const size = Math.min(Math.max(this.blockSize, this.rows.length * 2), Math.max(this.blockSize, 1 << 20));
+    this.rows = new Int32Array(size);
+    this.cols = new Int32Array(size);
+    this.vals = new Float64Array(size);
+    this.fill = 0;
+    this.blocks.push({ rows: this.rows, cols: this.cols, vals: this.vals });
   }
-  /** CSR with entries of a row in the order they were pushed (stable). */
+  /** CSR with entries of a row in the order they were pushed (stable). The builder is empty afterwards. */
   toCsr(method: RemapMethod, nRows: number, nCols: number): SparseWeights {
     const rowPtr = new Int32Array(nRows + 1);
-    for (let p = 0; p < this.n; p++) rowPtr[this.rows[p] + 1]++;
+    const used = (b: number): number => (b === this.blocks.length - 1 ? this.fill : this.blocks[b].rows.length);
+    for (let b = 0; b < this.blocks.length; b++) {
+      const rows = this.blocks[b].rows;
+      for (let p = 0, e = used(b); p < e; p++) rowPtr[rows[p] + 1]++;
+    }
     for (let r = 0; r < nRows; r++) rowPtr[r + 1] += rowPtr[r];
-    const fill = rowPtr.slice(0, nRows);
+    const next = rowPtr.slice(0, nRows);
     const col = new Int32Array(this.n);
     const w = new Float64Array(this.n);
-    for (let p = 0; p < this.n; p++) {
-      const q = fill[this.rows[p]]++;
-      col[q] = this.cols[p];
-      w[q] = this.vals[p];
+    for (let b = 0; b < this.blocks.length; b++) {
+      const { rows, cols, vals } = this.blocks[b];
+      for (let p = 0, e = used(b); p < e; p++) {
+        const q = next[rows[p]]++;
+        col[q] = cols[p];
+        w[q] = vals[p];
+      }
+      this.blocks[b] = EMPTY_BLOCK;
     }
+    this.blocks = [];
+    this.n = 0;
+    this.fill = 0;
+    ({ rows: this.rows, cols: this.cols, vals: this.vals } = EMPTY_BLOCK);
     return { method, nRows, nCols, rowPtr, col, w };
   }
 }
+
+const EMPTY_BLOCK = { rows: new Int32Array(0), cols: new Int32Array(0), vals: new Float64Array(0) };
 
 /** Σ over a row of the weights: the overlap area of a target cell with the whole source grid. */
 export function rowSums(m: SparseWeights): Float64Array {

@@ -70,6 +70,12 @@ export abstract class KernelLevel<R extends string> implements LevelEngine {
     }
   }
 
+  /** A region of the memory as an array (the memory never grows, so the view stays valid). */
+  protected region<T extends Int32Array | Float64Array>(name: R, like: T): T {
+    const C = like.constructor as new (b: ArrayBuffer, o: number, n: number) => T;
+    return new C(this.mem.buffer, this.p[name], like.length);
+  }
+
   get workBytes(): number {
     return this.mem.buffer.byteLength;
   }

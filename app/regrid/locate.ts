@@ -1,3 +1,4 @@
+import { cellCorners } from '../grid/corners.js';
 import type { HorizontalGrid } from '../grid/types.js';
 import { lowerEdge } from './edge-search.js';
 import { SphereKdTree, toXyz } from './kdtree.js';
@@ -151,11 +152,13 @@ export class PointLocator {
     const g = this.grid;
     const n = g.nx * g.ny;
     const r = new Float64Array(n);
+    const cl = new Float64Array(4), ca = new Float64Array(4);
     for (let s = 0; s < n; s++) {
       const [x, y, z] = toXyz(g.lon[s], g.lat[s]);
       let m = 0;
+      cellCorners(g, s, cl, ca);
       for (let c = 0; c < 4; c++) {
-        const [a, b, d] = toXyz(g.cornerLon[4 * s + c], g.cornerLat[4 * s + c]);
+        const [a, b, d] = toXyz(cl[c], ca[c]);
         const q = (a - x) ** 2 + (b - y) ** 2 + (d - z) ** 2;
         if (q > m) m = q;
       }

@@ -1,5 +1,6 @@
 import type { FieldSource } from '../cf/field-source.js';
 import { StillwaterError } from '../errors.js';
+import { cellCorners } from '../grid/corners.js';
 import type { Grid, HorizontalGrid } from '../grid/types.js';
 import { rowSums, type RemapMethod, type SparseWeights } from './csr.js';
 import type { SeparableWeights } from './conservative-rectilinear.js';
@@ -181,11 +182,13 @@ function matrixBytes(w: SparseWeights): number {
 function checkBounds(g: HorizontalGrid, sentence: string): void {
   const n = g.nx * g.ny;
   let bad = 0;
+  const cl = new Float64Array(4), ca = new Float64Array(4);
   for (let c = 0; c < n; c++) {
     if (!(g.area[c] > 0)) bad++;
     else {
-      for (let q = 4 * c; q < 4 * c + 4; q++) {
-        if (!Number.isFinite(g.cornerLon[q]) || !Number.isFinite(g.cornerLat[q])) {
+      cellCorners(g, c, cl, ca);
+      for (let q = 0; q < 4; q++) {
+        if (!Number.isFinite(cl[q]) || !Number.isFinite(ca[q])) {
           bad++;
           break;
         }

@@ -1,7 +1,8 @@
 import { createHash } from 'node:crypto';
-import { mkdirSync, readFileSync, renameSync, writeFileSync, unlinkSync } from 'node:fs';
+import { closeSync, fstatSync, mkdirSync, openSync, readSync, renameSync, unlinkSync, writeSync } from 'node:fs';
 import { homedir } from 'node:os';
 import { join } from 'node:path';
+import { cornerRow } from '../grid/corners.js';
 import type { HorizontalGrid } from '../grid/types.js';
 import type { RemapMethod, SparseWeights } from './csr.js';
 
@@ -27,8 +28,9 @@ export function weightKey(source: HorizontalGrid, target: HorizontalGrid, method
       h.update(bytes(g.axes.latEdges));
       continue;
     }
-    h.update(bytes(g.cornerLon));
-    h.update(bytes(g.cornerLat));
+    // row by row: the same bytes as the 4-per-cell arrays, without making them for a grid that keeps a lattice
+    const row = new Float64Array(4 * g.nx);
+    for (const which of ['lon', 'lat'] as const) for (let j = 0; j < g.ny; j++) h.update(bytes(cornerRow(g, j, which, row)));
     if (method !== 'conservative') {
       h.update(bytes(g.lon));
       h.update(bytes(g.lat));
@@ -43,26 +45,46 @@ function bytes(a: Float64Array): Uint8Array {
 
 /** Read cached weights; undefined when absent or damaged (then they are simply rebuilt). */
 export function readCachedWeights(dir: string, key: string, method: RemapMethod): SparseWeights | undefined {
-  let buf: Buffer;
+  let fd: number;
   try {
-    buf = readFileSync(join(dir, `weights-${key}.bin`));
+    fd = openSync(join(dir, `weights-${key}.bin`), 'r');
   } catch {
     return undefined;
   }
-  if (buf.byteLength < 32) return undefined;
-  const head = new DataView(buf.buffer, buf.byteOffset, 32);
-  if (head.getUint32(0, true) !== MAGIC || head.getUint32(4, true) !== FORMAT_VERSION) return undefined;
-  const nRows = head.getUint32(8, true), nCols = head.getUint32(12, true), nnz = head.getUint32(16, true);
-  const expected = 32 + 4 * (nRows + 1) + 4 * nnz + 8 * nnz;
-  if (buf.byteLength !== expected) return undefined;
-  // copy into aligned typed arrays
-  const body = buf.buffer.slice(buf.byteOffset + 32, buf.byteOffset + expected);
-  const rowPtr = new Int32Array(body, 0, nRows + 1);
-  const col = new Int32Array(body, 4 * (nRows + 1), nnz);
-  const wOff = 4 * (nRows + 1) + 4 * nnz;
-  const w = wOff % 8 === 0 ? new Float64Array(body, wOff, nnz) : new Float64Array(body.slice(wOff));
-  if (rowPtr[0] !== 0 || rowPtr[nRows] !== nnz) return undefined;
-  return { method, nRows, nCols, rowPtr, col, w };
+  try {
+    // straight into the arrays: no whole-file buffer beside them (a 0.1° source's weights are 100 MB)
+    const size = fstatSync(fd).size;
+    const headBytes = new Uint8Array(32);
+    if (size < 32 || readSync(fd, headBytes, 0, 32, 0) !== 32) return undefined;
+    const head = new DataView(headBytes.buffer);
+    if (head.getUint32(0, true) !== MAGIC || head.getUint32(4, true) !== FORMAT_VERSION) return undefined;
+    const nRows = head.getUint32(8, true), nCols = head.getUint32(12, true), nnz = head.getUint32(16, true);
+    if (size !== 32 + 4 * (nRows + 1) + 4 * nnz + 8 * nnz) return undefined;
+    const rowPtr = new Int32Array(nRows + 1);
+    const col = new Int32Array(nnz);
+    const w = new Float64Array(nnz);
+    let at = 32;
+    for (const a of [rowPtr, col, w]) {
+      if (readFully(fd, u8(a), at) !== a.byteLength) return undefined;
+      at += a.byteLength;
+    }
+    if (rowPtr[0] !== 0 || rowPtr[nRows] !== nnz) return undefined;
+    return { method, nRows, nCols, rowPtr, col, w };
+  } catch {
+    return undefined;
+  } finally {
+    closeSync(fd);
+  }
+}
+
+function readFully(fd: number, into: Uint8Array, position: number): number {
+  let done = 0;
+  while (done < into.byteLength) {
+    const got = readSync(fd, into, done, Math.min(into.byteLength - done, 1 << 30), position + done);
+    if (got === 0) break;
+    done += got;
+  }
+  return done;
 }
 
 /** Write weights to the cache: a temporary file renamed into place, so readers never see half a file. */
@@ -77,7 +99,13 @@ export function writeCachedWeights(dir: string, key: string, m: SparseWeights): 
   const final = join(dir, `weights-${key}.bin`);
   const tmp = `${final}.${process.pid}.${Date.now()}.tmp`;
   try {
-    writeFileSync(tmp, Buffer.concat([new Uint8Array(head.buffer), u8(m.rowPtr), u8(m.col), u8(m.w)]));
+    // piece by piece: no copy of the whole matrix in one buffer
+    const fd = openSync(tmp, 'w');
+    try {
+      for (const piece of [new Uint8Array(head.buffer), u8(m.rowPtr), u8(m.col), u8(m.w)]) writeSync(fd, piece);
+    } finally {
+      closeSync(fd);
+    }
     renameSync(tmp, final);
   } catch {
     // a cache that cannot be written only costs time later
