@@ -13,6 +13,7 @@ import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { StillwaterError, type ErrorCode } from '../app/errors.js';
+import { addressSpaceLimit } from './address-space.mjs';
 import type { HeavyJob, HeavyRunner } from './dispatch.js';
 import { cancelled } from './dispatch.js';
 import { projectRoot } from './static-files.js';
@@ -21,12 +22,32 @@ import type { FromWorker, ToWorker } from './worker-protocol.js';
 /** How long a cancelled job may take to stop by itself before its thread is terminated. */
 const GRACE_MS = 1500;
 
+const GIB = 1024 ** 3;
+/**
+ * Address space one pooled thread may take: its own V8 isolate (about 0.6 GiB) and the HDF5 library's thread
+ * below it (about 0.6 GiB more, and 2.3 GiB of WebAssembly memory that V8 reserves whole when the trap handler
+ * is off, as it is under a limit). Measured as VmSize in /proc/PID/status with Node 20: the server alone
+ * 0.73 GiB, with two pooled threads that had read NetCDF-4 files 7.57 GiB.
+ */
+const THREAD_ADDRESS_SPACE = 3.75 * GIB;
+/** The serving process itself, with room for a stopped thread's successor while it starts. */
+const PROCESS_ADDRESS_SPACE = 1.25 * GIB;
+
+/**
+ * Threads for the pool: the cores of this machine, but no more than fit under an address-space limit
+ * (`ulimit -v`, common on batch schedulers), where one thread too many aborts the whole process; at least one.
+ */
+export function poolSize(cores = availableParallelism(), limit = addressSpaceLimit()): number {
+  if (limit === undefined) return Math.max(1, cores);
+  return Math.max(1, Math.min(cores, Math.floor((limit - PROCESS_ADDRESS_SPACE) / THREAD_ADDRESS_SPACE)));
+}
+
 export function defaultWorkerFile(): string {
   return join(projectRoot(), 'dist', 'worker.mjs');
 }
 
 export interface PoolOptions {
-  /** threads at most (default: the cores of this machine) */
+  /** threads at most (default: poolSize(), the cores of this machine as far as the address space allows) */
   size?: number;
   /** jobs waiting at most beyond those running (default 64) */
   queueLimit?: number;
@@ -75,7 +96,7 @@ export class WorkerPool {
   private readonly queueLimit: number;
 
   constructor(private readonly workerFile: string = defaultWorkerFile(), opts: PoolOptions = {}) {
-    const size = Math.max(1, Math.floor(opts.size ?? availableParallelism()));
+    const size = Math.max(1, Math.floor(opts.size ?? poolSize()));
     this.slots = Array.from({ length: size }, () => ({ worker: null, current: null, sessions: new Set<string>() }));
     this.queueLimit = opts.queueLimit ?? 64;
   }
@@ -83,6 +104,11 @@ export class WorkerPool {
   /** The runner the dispatcher calls for heavy entries. */
   get runner(): HeavyRunner {
     return (job, hooks) => this.run(job, hooks);
+  }
+
+  /** threads it may run at once */
+  get size(): number {
+    return this.slots.length;
   }
 
   get threads(): number {

@@ -4,6 +4,7 @@
  * mode, saying so; both open the demo recipe, generating the demo scenario first when it is missing.
  */
 import { spawn } from 'node:child_process';
+import { availableParallelism } from 'node:os';
 import { existsSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { ensureDemo } from '../../sample-data/generator/generate.js';
@@ -61,6 +62,7 @@ async function serveBrowser(s: ShellSettings, root: string, openBrowser: boolean
   // the address carries the token: printed once, on stdout, for whoever started us
   err(`${who}: serving on ${BIND_ADDRESS}:${server.port}; the address to open (with its token) is on stdout.`);
   err(`${who}: files readable under ${guard.roots.join(', ')}; press Ctrl+C to stop.`);
+  if (pool.size < availableParallelism()) err(`${who}: ${pool.size} worker thread${pool.size === 1 ? '' : 's'} for ${availableParallelism()} cores, as many as fit under this process's address-space limit.`);
   out(server.url);
   if (openBrowser) {
     const opener = browserOpener();
