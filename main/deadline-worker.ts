@@ -2,7 +2,7 @@
  * Run work on a worker thread that can be stopped: each call has a deadline, and a call that passes it
  * terminates the thread (code inside WebAssembly, such as the HDF5 library, cannot be interrupted any other
  * way) and is refused with one sentence. The next call starts a fresh thread, but only once the stopped one
- * has exited: a thread holding the HDF5 library keeps about 2.9 GB of address space reserved until then, and
+ * has exited: a thread holding the HDF5 library keeps about 2.6 GiB of address space reserved until then, and
  * under `ulimit -v` two such threads at once do not fit (V8 then aborts the whole process).
  *
  * Reusable by anything that hands untrusted parsing off the calling thread: the command line's HDF5 library

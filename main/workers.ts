@@ -24,14 +24,14 @@ const GRACE_MS = 1500;
 
 const GIB = 1024 ** 3;
 /**
- * Address space one pooled thread may take: its own V8 isolate (about 0.6 GiB) and the HDF5 library's thread
- * below it (about 0.6 GiB more, and 2.3 GiB of WebAssembly memory that V8 reserves whole when the trap handler
- * is off, as it is under a limit). Measured as VmSize in /proc/PID/status with Node 20: the server alone
- * 0.73 GiB, with two pooled threads that had read NetCDF-4 files 7.57 GiB.
+ * Address space one pooled thread may take: its own V8 isolate and the HDF5 library's thread below it, whose
+ * WebAssembly memory V8 reserves whole when the trap handler is off (as it is under a limit). Measured as
+ * VmSize in /proc/PID/status, Node 20, `stillwater serve` under `ulimit -v 8000000`: 1.17 GiB alone, +0.60 GiB
+ * for a pooled thread, +0.01 GiB for its regridding kernels, +2.60 GiB for its HDF5 thread.
  */
-const THREAD_ADDRESS_SPACE = 3.75 * GIB;
+const THREAD_ADDRESS_SPACE = 3.5 * GIB;
 /** The serving process itself, with room for a stopped thread's successor while it starts. */
-const PROCESS_ADDRESS_SPACE = 1.25 * GIB;
+const PROCESS_ADDRESS_SPACE = 1.5 * GIB;
 
 /**
  * Threads for the pool: the cores of this machine, but no more than fit under an address-space limit

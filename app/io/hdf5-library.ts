@@ -6,8 +6,9 @@
  * code inside WebAssembly cannot be interrupted.
  */
 import { resolve } from 'node:path';
-import h5wasm, { type Dataset, type File as H5File } from 'h5wasm/node';
+import type { Dataset, File as H5File } from 'h5wasm/node';
 import { fileError, StillwaterError } from '../errors.js';
+import { loadH5wasm, type H5wasm } from './h5wasm-module.js';
 import { readNetcdf4Metadata, type Netcdf4Metadata } from './netcdf4-metadata.js';
 
 export interface Hdf5Opened {
@@ -44,6 +45,7 @@ export class InProcessHdf5 implements Hdf5Library {
   private next = 1;
 
   async open(path: string): Promise<Hdf5Opened> {
+    const h5wasm = await loadH5wasm();
     const Module = await h5wasm.ready;
     // HDF5 errors become exceptions (never a trace printed on stderr); their text is the library's
     // diagnostic stack, which no message repeats
@@ -92,11 +94,11 @@ export class InProcessHdf5 implements Hdf5Library {
 
   /** Bytes of the library's WebAssembly memory: it grows with what a file needed and never shrinks. */
   async heapBytes(): Promise<number> {
-    return (await h5wasm.ready).HEAPU8.length;
+    return (await (await loadH5wasm()).ready).HEAPU8.length;
   }
 }
 
-type H5Module = Awaited<typeof h5wasm.ready>;
+type H5Module = Awaited<H5wasm['ready']>;
 
 /** An HDF5 object reference (H5R_OBJECT) is the object header's address, 8 bytes little-endian. */
 function objectAddress(Module: H5Module, file: H5File, h5path: string): number | undefined {

@@ -7,7 +7,8 @@
  * dimensions are the scales its DIMENSION_LIST references, so a dimension of a parent group resolves
  * to that group's scale, as netCDF-4 itself does.
  */
-import h5wasm, { type Dataset, type File as H5File, type Group } from 'h5wasm/node';
+import type { Dataset, File as H5File, Group } from 'h5wasm/node';
+import { h5wasmLoaded } from './h5wasm-module.js';
 import { toNumbers } from './dtype.js';
 import type { Attributes, AttrValue, DType, RawArray, RawDimension, RawVariable } from './types.js';
 import { baseName, nameOfPath } from './variable-path.js';
@@ -56,6 +57,7 @@ interface Scale {
 }
 
 export function readNetcdf4Metadata(file: H5File): Netcdf4Metadata {
+  const h5wasm = h5wasmLoaded();
   const notes: string[] = [];
   const scales: Scale[] = [];
   const datasets: { path: string; ds: Dataset }[] = [];

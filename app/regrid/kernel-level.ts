@@ -61,7 +61,10 @@ export abstract class KernelLevel<R extends string> implements LevelEngine {
       top += Math.ceil((typeof what === 'number' ? what : what.byteLength) / 16) * 16; // 16-byte aligned, for the two-lane loads
     }
     this.p = p;
-    this.mem = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(top / 65536)) });
+    // never grown: a maximum as large as the start keeps V8 from reserving 4 GiB of address space for it
+    // when the trap handler is off (as under `ulimit -v`)
+    const pages = Math.max(1, Math.ceil(top / 65536));
+    this.mem = new WebAssembly.Memory({ initial: pages, maximum: pages });
     this.k = new WebAssembly.Instance(kernelModule(), { env: { memory: this.mem } }).exports as unknown as RemapKernel;
     for (const [name, what] of Object.entries(all) as [R | Common, Int32Array | Float64Array | number][]) {
       if (typeof what === 'number') continue;

@@ -49,7 +49,7 @@ describe('DeadlineWorker', () => {
       expect(await w.call({ op: 'echo', value: 7 }, { deadlineMs: LONG })).toBe(7);
       expect(w.generation).toBe(2);
       // ... started only once the stopped one had exited: a thread holding the HDF5 library reserves about
-      // 2.9 GB of address space, and under `ulimit -v 4000000` two at once abort the process
+      // 2.6 GiB of address space, and under `ulimit -v 4000000` two at once abort the process
       expect(w.peakThreads).toBe(1);
     } finally {
       await w.close();

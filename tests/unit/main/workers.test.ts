@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { threadId } from 'node:worker_threads';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { HeavyJob } from '../../../main/dispatch.js';
-import { WorkerPool } from '../../../main/workers.js';
+import { poolSize, WorkerPool } from '../../../main/workers.js';
 
 let workerFile: string;
 let top: string;
@@ -123,5 +123,19 @@ describe('the pool of worker threads (issue 16, items 1 and 11)', () => {
     const a = (await pool.run(job('open', { name: 'b' }, { session: { mode: 'open' } }), free())) as { session: string };
     await expect(pool.run(job('hang', { path: 'x.nc' }, { deadlineMs: 200 }), free())).rejects.toMatchObject({ code: 'E_FORMAT' });
     await expect(pool.run(job('use', { session: a.session }, { session: { mode: 'use', id: a.session } }), free())).rejects.toThrow(/no longer open; open the recipe again/);
+  });
+});
+
+describe('the pool size (issue 16, item 10)', () => {
+  const KIB = 1024;
+  it('is the cores without an address-space limit', () => {
+    expect(poolSize(8, undefined)).toBe(8);
+  });
+  it('takes no more threads than fit under a limit, and at least one', () => {
+    // measured per thread: 0.6 GiB for its isolate, 2.6 GiB for its HDF5 thread (see main/workers.ts)
+    expect(poolSize(32, 8_000_000 * KIB)).toBe(1);
+    expect(poolSize(32, 16_000_000 * KIB)).toBe(3);
+    expect(poolSize(2, 16_000_000 * KIB)).toBe(2);
+    expect(poolSize(8, 1_000_000 * KIB)).toBe(1);
   });
 });
