@@ -216,3 +216,11 @@ export interface ScreenSection {
   profileCycle?: boolean;
   line?: { points: [number, number][]; spacingKm: number; field: number; stretch: boolean };
 }
+
+/** What `report.write` answers: where the report was written. */
+export interface ReportWritten {
+  outDir: string;
+  /** the report page itself, outDir/report.html */
+  html: string;
+  figures: number;
+}

@@ -1,28 +1,8 @@
-import { existsSync, readFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
+import { packageRoot } from '../app/package-root.js';
 
-/** The folder holding Stillwater's package.json, found from this file whether bundled (dist/) or not. */
-export function packageRoot(): string {
-  let dir = dirname(fileURLToPath(import.meta.url));
-  for (;;) {
-    const pkg = join(dir, 'package.json');
-    if (existsSync(pkg) && (JSON.parse(readFileSync(pkg, 'utf8')) as { name?: string }).name === 'stillwater') return dir;
-    const up = dirname(dir);
-    if (up === dir) throw new Error('Stillwater package root not found above ' + fileURLToPath(import.meta.url));
-    dir = up;
-  }
-}
+export { packageRoot, toolVersion } from '../app/package-root.js';
 
 export function sampleDataDir(): string {
   return join(packageRoot(), 'sample-data');
-}
-
-/** The version in package.json, for provenance. */
-export function toolVersion(): string {
-  try {
-    return (JSON.parse(readFileSync(join(packageRoot(), 'package.json'), 'utf8')) as { version: string }).version;
-  } catch {
-    return 'unknown';
-  }
 }

@@ -1,35 +1,11 @@
-import { readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import { Resvg } from '@resvg/resvg-js';
-import { feature } from 'topojson-client';
-import type { Topology } from 'topojson-specification';
-import type { MultiPolygon, Polygon } from 'geojson';
 import { loadRecipe } from '../../app/recipe/load.js';
-import type { Ring } from '../../app/render/coastline.js';
 import { runReport } from '../../app/report/run-report.js';
 import { allowOnly, optional, parseArgs, required } from '../args.js';
 import type { Command } from '../command.js';
 import { err, out } from '../command.js';
-import { packageRoot, toolVersion } from '../package-paths.js';
-
-/** Natural Earth land (1:110m: finer than a printed global panel can show) from the world-atlas package. */
-function landRings(): Ring[] {
-  const topo = JSON.parse(readFileSync(join(packageRoot(), 'node_modules', 'world-atlas', 'land-110m.json'), 'utf8')) as Topology;
-  const land = feature(topo, topo.objects.land) as unknown as { features?: { geometry: Polygon | MultiPolygon }[]; geometry?: Polygon | MultiPolygon };
-  const geoms = land.features ? land.features.map((f) => f.geometry) : land.geometry ? [land.geometry] : [];
-  const rings: Ring[] = [];
-  for (const g of geoms) {
-    if (g.type === 'Polygon') rings.push(...g.coordinates);
-    else for (const p of g.coordinates) rings.push(...p);
-  }
-  return rings;
-}
-
-/** resvg with the system's fonts (DejaVu Sans first, the family the figures ask for). */
-export function svgToPng(svg: string, widthPx: number): Uint8Array {
-  const r = new Resvg(svg, { fitTo: { mode: 'width', value: widthPx }, background: '#ffffff', font: { loadSystemFonts: true, defaultFontFamily: 'DejaVu Sans' } });
-  return r.render().asPng();
-}
+import { toolVersion } from '../package-paths.js';
+import { landRings, svgToPng } from '../../app/report/report-tools.js';
 
 export const reportCommand: Command = {
   name: 'report',

@@ -7,6 +7,7 @@ import { h } from '../elements.js';
 import { setSession, state, subscribe } from '../state.js';
 import { pickFile } from './file-picker.js';
 import { pairForm, type Say } from './pair-form.js';
+import { reportForm } from './report-form.js';
 import { saveForm } from './save-form.js';
 import { sourceBlock } from './source-block.js';
 
@@ -36,6 +37,7 @@ export function sourcesPanel(el: HTMLElement, say: Say): void {
     }
     const pairToggle = h('details', { class: 'pair' }, h('summary', {}, 'Pair a variable or add a run…'), pairForm(s, say));
     const saveToggle = h('details', { class: 'save' }, h('summary', {}, 'Save as recipe…'), saveForm(s, say));
+    const reportToggle = h('details', { class: 'report', id: 'report-toggle' }, h('summary', {}, 'Report…'), reportForm(s, say));
     el.replaceChildren(
       h('h2', {}, 'Sources'),
       h('div', { class: 'recipe-line' }, h('strong', {}, s.title), s.modified ? h('span', { class: 'badge' }, 'changed') : null),
@@ -54,6 +56,7 @@ export function sourcesPanel(el: HTMLElement, say: Say): void {
       h('p', { class: 'muted small' }, `Common grid: ${s.grid.nx} × ${s.grid.ny} cells, ${s.grid.nz} levels to ${Math.round(s.grid.depthEdges[s.grid.nz])} m.`),
       pairToggle,
       saveToggle,
+      reportToggle,
     );
   };
   subscribe((_st, changed) => {

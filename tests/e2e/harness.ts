@@ -184,9 +184,9 @@ export function callInPage<T>(page: Page, name: string, input: unknown): Promise
   ) as Promise<T>;
 }
 
-/** The workbench at 1600 × 1000, once the page says it is ready and `view` (a selector) has drawn. */
-export async function readyWorkbench(view: string, timeout: number): Promise<{ wb: Workbench; page: Page }> {
-  const wb = await openWorkbench({ viewport: { width: 1600, height: 1000 } });
+/** The workbench at 1600 × 1000 (serving the demo, or `serveArgs`), once the page says it is ready and `view` (a selector) has drawn. */
+export async function readyWorkbench(view: string, timeout: number, serveArgs?: string[]): Promise<{ wb: Workbench; page: Page }> {
+  const wb = await openWorkbench({ viewport: { width: 1600, height: 1000 }, serveArgs });
   await wb.page.waitForSelector('body[data-ready="true"]', { timeout });
   await wb.page.waitForSelector(view, { timeout });
   return { wb, page: wb.page };
