@@ -121,7 +121,7 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
       const cycleAccs = monthly ? runs.map(() => new CycleCorrelationAccumulator(regions, recipe.layers, grid.vertical, area)) : [];
       const sinks: (LevelSink | null)[] = [];
       try {
-        for (const r of runs) sinks.push(opts.keepFields ? await opts.keepFields({ run: r.label, variable, units: info.units, grid }) : null);
+        for (const r of runs) sinks.push(opts.keepFields ? await opts.keepFields({ run: r.label, variable, units: info.units, grid, periods: asked }) : null);
         const nz = grid.vertical?.nz ?? 1;
         for (let k = 0; k < nz; k++) {
           if (opts.signal?.aborted) throw new StillwaterError('E_CANCELLED', 'The comparison was cancelled.');
@@ -134,14 +134,15 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
               if (wantLog) logAccs[q][p].addLevel(k, log10Values(modelLevels.levels[p]), refLogs[p]);
             });
             if (monthly) cycleAccs[q].addLevel(k, modelLevels.months!, refLevels.months!);
-            // the fields written are the year's
-            const model = modelLevels.levels[0];
-            const refLevel = refLevels.levels[0];
+            // the fields kept: every period asked where the sink keeps periods, else the year's
             const sink = sinks[q];
-            if (sink) {
-              const diff = new Float32Array(model.length);
-              for (let c = 0; c < diff.length; c++) diff[c] = model[c] - refLevel[c];
-              await sink.write(k, model, diff, refLevel);
+            if (sink?.writePeriod) {
+              for (let a = 0; a < asked.length; a++) {
+                const p = periods.indexOf(asked[a]);
+                await sink.writePeriod(k, a, modelLevels.levels[p], difference(modelLevels.levels[p], refLevels.levels[p]));
+              }
+            } else if (sink) {
+              await sink.write(k, modelLevels.levels[0], difference(modelLevels.levels[0], refLevels.levels[0]), refLevels.levels[0]);
             }
           }
           opts.onProgress?.((vi + (k + 1) / nz) / recipe.variables.length, `${variable}: level ${k + 1} of ${nz}`);
@@ -197,6 +198,12 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
   }
   const costs = recipe.runs.map((run, i) => ({ run: run.label, ...multiTracerCost(costTerms[i]) }));
   return { rows, ...(monthly ? { cycles } : {}), costs, variables, inputs: [...inputs.values()] };
+}
+
+function difference(model: Float32Array, reference: Float32Array): Float32Array {
+  const d = new Float32Array(model.length);
+  for (let c = 0; c < d.length; c++) d[c] = model[c] - reference[c];
+  return d;
 }
 
 /** One level of a source for each period: the year alone, or (monthly) its 12 months and every period from them. */

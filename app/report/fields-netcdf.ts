@@ -1,6 +1,7 @@
 /**
  * Kept fields as CF NetCDF (classic 64-bit offset, via app/io/netcdf-writer.ts): for each run × variable the
- * model on the common grid and the difference model − reference. The files are staged in an output set
+ * model on the common grid and the difference model − reference; when the recipe asks for months or seasons,
+ * every period reported (a `period` dimension first, labelled by `period_name`). The files are staged in an output set
  * (app/output) and placed with the tables only when the whole comparison has succeeded.
  */
 import { encodeValues, encodingAttributes, floatEncoding } from '../cf/encode.js';
@@ -23,15 +24,24 @@ function header(info: FieldSinkInfo): WriteHeader {
   const v = info.grid.vertical;
   const rect = h.kind === 'rectilinear' && h.axes;
   const yx = rect ? ['lat', 'lon'] : ['y', 'x'];
+  const periods = keptPeriods(info);
   const dims = [
+    ...(periods ? [{ name: 'period', size: periods.length }, { name: 'period_strlen', size: PERIOD_STRLEN }] : []),
     ...(v ? [{ name: 'depth', size: v.nz }] : []),
     { name: yx[0], size: h.ny },
     { name: yx[1], size: h.nx },
     { name: 'nv', size: 2 },
   ];
-  const dataDims = [...(v ? ['depth'] : []), ...yx];
-  const coords = dataDims.length === 3 ? 'depth lat lon' : 'lat lon';
+  const dataDims = [...(periods ? ['period'] : []), ...(v ? ['depth'] : []), ...yx];
+  // labels of the periods are an auxiliary coordinate (CF 1.10 §6.1)
+  const coords = [periods ? 'period_name' : '', rect ? '' : v ? 'depth lat lon' : 'lat lon'].filter(Boolean).join(' ');
   const variables: WriteHeader['variables'] = [];
+  if (periods) {
+    variables.push({
+      name: 'period_name', dims: ['period', 'period_strlen'], dtype: 'char',
+      attrs: { long_name: 'period of the year: annual, a month (JAN..DEC) or a season (DJF, MAM, JJA, SON), averaged with month-length weights' },
+    });
+  }
   if (rect) {
     variables.push(
       { name: 'lon', dims: ['lon'], dtype: 'f8', attrs: { standard_name: 'longitude', units: 'degrees_east', axis: 'X', bounds: 'lon_bnds' } },
@@ -53,11 +63,24 @@ function header(info: FieldSinkInfo): WriteHeader {
   }
   const name = slug(info.variable);
   variables.push(
-    { name, dims: dataDims, dtype: 'f4', attrs: { long_name: `${info.variable} of ${info.run} on the common grid`, units: info.units, ...encodingAttributes(ENCODING), coordinates: rect ? '' : coords } },
-    { name: `${name}_minus_reference`, dims: dataDims, dtype: 'f4', attrs: { long_name: `${info.variable}: ${info.run} minus the reference`, units: info.units, ...encodingAttributes(ENCODING), coordinates: rect ? '' : coords } },
+    { name, dims: dataDims, dtype: 'f4', attrs: { long_name: `${info.variable} of ${info.run} on the common grid`, units: info.units, ...encodingAttributes(ENCODING), coordinates: coords } },
+    { name: `${name}_minus_reference`, dims: dataDims, dtype: 'f4', attrs: { long_name: `${info.variable}: ${info.run} minus the reference`, units: info.units, ...encodingAttributes(ENCODING), coordinates: coords } },
   );
   for (const x of variables) if (x.attrs && x.attrs.coordinates === '') delete x.attrs.coordinates;
   return { dimensions: dims, attrs: { Conventions: 'CF-1.10', title: `${info.variable}: ${info.run} on the common grid`, source: 'stillwater compare' }, variables };
+}
+
+const PERIOD_STRLEN = 8;
+
+/** The periods a file keeps: those the comparison reports when there is more than the year, else none (no period dimension). */
+function keptPeriods(info: FieldSinkInfo): readonly string[] | null {
+  return info.periods && info.periods.length > 1 ? info.periods : null;
+}
+
+function periodNames(periods: readonly string[]): Uint8Array {
+  const out = new Uint8Array(periods.length * PERIOD_STRLEN);
+  periods.forEach((p, i) => out.set(new TextEncoder().encode(p.slice(0, PERIOD_STRLEN)), i * PERIOD_STRLEN));
+  return out;
 }
 
 function bounds(edges: Float64Array): Float64Array {
@@ -86,6 +109,7 @@ export function netcdfFieldSinks(set: OutputSet): FieldSinkFactory {
     const w = await createNetcdf(file, header(info));
     const h = info.grid.horizontal;
     const v = info.grid.vertical;
+    const periods = keptPeriods(info);
     try {
       if (h.kind === 'rectilinear' && h.axes) {
         await w.write('lon', h.axes.lon);
@@ -100,6 +124,7 @@ export function netcdfFieldSinks(set: OutputSet): FieldSinkFactory {
         await w.write('depth', v.centres);
         await w.write('depth_bnds', bounds(v.edges));
       }
+      if (periods) await w.write('period_name', periodNames(periods));
     } catch (e) {
       await w.abort();
       throw e;
@@ -111,6 +136,15 @@ export function netcdfFieldSinks(set: OutputSet): FieldSinkFactory {
         await w.write(name, filled(model), start);
         await w.write(`${name}_minus_reference`, filled(difference), start);
       },
+      ...(periods
+        ? {
+            async writePeriod(k: number, p: number, model: Float32Array, difference: Float32Array) {
+              const start = v ? [p, k, 0, 0] : [p, 0, 0];
+              await w.write(name, filled(model), start);
+              await w.write(`${name}_minus_reference`, filled(difference), start);
+            },
+          }
+        : {}),
       close: () => w.close(),
       abort: () => w.abort(),
     };

@@ -245,6 +245,8 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     await page.click('#tab-line');
     await drawn(page, 'line');
     expect(await page.textContent('.view-line .figure-stage svg')).toContain('Distance along the line (km)');
+    // the column-mean panel says which cells its means use (issue 13 item 9)
+    expect(await page.textContent('.view-line')).toContain('only cells where the reference and every run have values');
     await wb.shot('view-line', { fullPage: true });
   }, SLOW);
 
