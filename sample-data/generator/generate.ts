@@ -3,7 +3,7 @@
  * umol/kg), three runs on a ~2° curvilinear grid (20 levels, mmol/m3), the spin-up snapshots of one run,
  * and a CSV of station observations. Deterministic: the same files every time.
  */
-import { existsSync, mkdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { makeRegularGrid } from '../../app/grid/rectilinear.js';
 import { edgesFromCentres } from '../../app/grid/vertical.js';
@@ -272,12 +272,45 @@ export function snapshotName(year: number): string {
   return `year-${String(year).padStart(5, '0')}.nc`;
 }
 
-/** Generate the scenario unless an up-to-date copy is already there. */
+function demoIsCurrent(dir: string): boolean {
+  const version = join(dir, 'VERSION');
+  return existsSync(version) && readFileSync(version, 'utf8').trim() === SCENARIO_VERSION;
+}
+
+/** How long a lock may stand before it is taken to belong to a process that died (generation takes ~1 min). */
+const STALE_LOCK_MS = 5 * 60_000;
+
+/**
+ * Generate the scenario unless an up-to-date copy is already there. Test files run in parallel processes and
+ * each may ask for the scenario: one generates at a time (a lock folder beside it), the others wait and then
+ * find it current.
+ */
 export async function ensureDemo(sampleDir: string, log: (s: string) => void = () => undefined): Promise<DemoPaths> {
   const dir = join(sampleDir, 'generated');
-  const version = join(dir, 'VERSION');
-  if (existsSync(version) && readFileSync(version, 'utf8').trim() === SCENARIO_VERSION) {
-    return { dir, recipe: join(sampleDir, 'demo-recipe.json') };
+  const paths = { dir, recipe: join(sampleDir, 'demo-recipe.json') };
+  if (demoIsCurrent(dir)) return paths;
+  const lock = join(sampleDir, 'generated.lock');
+  for (;;) {
+    try {
+      mkdirSync(lock);
+      break;
+    } catch {
+      const age = lockAge(lock);
+      if (age !== null && age > STALE_LOCK_MS) rmSync(lock, { recursive: true, force: true });
+      await new Promise((r) => setTimeout(r, 250));
+    }
   }
-  return generateDemo(sampleDir, log);
+  try {
+    return demoIsCurrent(dir) ? paths : await generateDemo(sampleDir, log);
+  } finally {
+    rmSync(lock, { recursive: true, force: true });
+  }
+}
+
+function lockAge(lock: string): number | null {
+  try {
+    return Date.now() - statSync(lock).mtimeMs;
+  } catch {
+    return null;
+  }
 }
