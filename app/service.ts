@@ -8,12 +8,11 @@ import { filesServices } from './services/files.js';
 import { viewExportServices } from './services/view-export.js';
 import { viewsServices } from './services/views.js';
 import { linesServices } from './services/lines.js';
-import { compareServices } from './services/compare.js';
 import { spinupServices } from './services/spinup.js';
 import { cfServices } from './services/cf.js';
 import { reportServices } from './services/report.js';
 
-export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...viewExportServices, ...linesServices, ...compareServices, ...cfServices, ...spinupServices, ...reportServices];
+export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...viewExportServices, ...linesServices, ...cfServices, ...spinupServices, ...reportServices];
 
 export function findService(name: string): ServiceEntry | undefined {
   return serviceTable.find((e) => e.name === name);

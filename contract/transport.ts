@@ -7,7 +7,7 @@
 /** Progress of a long job, sent while a heavy service entry runs. */
 export interface ProgressEvent {
   jobId: string;
-  /** service entry name, e.g. "compare.run" */
+  /** service entry name, e.g. "view.level" */
   service: string;
   /** 0..1 */
   fraction: number;

@@ -5,7 +5,7 @@
  *   const info = await call<FileInfo>('files.describe', { path });
  *   const off = onProgress((e) => status(e.message, e.fraction));
  *   const jobId = newJobId();
- *   const rows = call<SkillRow[]>('compare.run', { recipe }, { jobId, onProgress: show });
+ *   const rows = call<SkillRow[]>('view.skill', { session, variable }, { jobId, onProgress: show });
  *   cancel(jobId);                      // rejects the call with code E_CANCELLED
  *
  * Results keep typed arrays (Float32Array, ...) and NaN in both transports.

@@ -8,7 +8,7 @@ import { z } from 'zod';
 import { StillwaterError } from '../errors.js';
 import { openDataset } from '../io/open.js';
 import { attrString, type AttrValue, type DType } from '../io/types.js';
-import { entry, type ServiceEntry } from './types.js';
+import { entry, type ServiceContext, type ServiceEntry } from './types.js';
 
 /** What kind of thing a file is, by its name; the readers still check the bytes. */
 const KINDS: Record<string, FileKind> = {
@@ -90,18 +90,19 @@ async function describeEntry(path: string, name: string): Promise<FolderEntry | 
   }
 }
 
+/** The allowed folders that exist, as entries (the picker's first page). */
+async function rootEntries(ctx: ServiceContext): Promise<FolderEntry[]> {
+  const roots = await Promise.all(ctx.roots.map((r) => describeEntry(r, basename(r) || r)));
+  return roots.filter((e): e is FolderEntry => e !== undefined);
+}
+
 export const filesServices: ServiceEntry[] = [
   entry({
     name: 'files.roots',
     summary: 'The folders this workbench may read.',
     input: z.object({}).optional(),
     async run(_input, ctx): Promise<FolderEntry[]> {
-      const out: FolderEntry[] = [];
-      for (const r of ctx.roots) {
-        const e = await describeEntry(r, basename(r) || r);
-        if (e) out.push(e);
-      }
-      return out;
+      return rootEntries(ctx);
     },
   }),
   entry({
@@ -150,8 +151,7 @@ export const filesServices: ServiceEntry[] = [
     input: listInput,
     async run(input, ctx): Promise<FolderListing> {
       if (!input.folder) {
-        const roots = await Promise.all(ctx.roots.map((r) => describeEntry(r, basename(r) || r)));
-        return { folder: '', parent: null, entries: roots.filter((e): e is FolderEntry => e !== undefined) };
+        return { folder: '', parent: null, entries: await rootEntries(ctx) };
       }
       const folder = ctx.resolvePath(input.folder);
       let names: string[];

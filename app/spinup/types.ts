@@ -5,7 +5,7 @@ import type { LayerSpec } from '../regions/layers.js';
  * Spin-up analysis: what it takes and what it returns. The output types are the contract with the
  * workbench views (renderer/views) and with spinup.json; extra fields are welcome, renames are not.
  *
- * Services (app/services/spinup.ts), all with input { recipe, baseDir, run?, ... } like compare.run:
+ * Services (app/services/spinup.ts), all with input { session } or { recipe, baseDir }, and run?, ...:
  * - 'spinup.run' (heavy)      -> SpinupResult: tracks (series, drift, fit, verdict), skill per snapshot, summary
  *                               options: variables?: string[], threshold?: number, tailYears?: number, skill?: boolean
  * - 'spinup.verdict' (heavy)  -> SpinupSummary | null (null: the run lists no snapshots; no banner)

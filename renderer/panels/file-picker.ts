@@ -29,7 +29,7 @@ export async function pickFile(title: string, accept: (e: FolderEntry) => boolea
     const show = async (folder?: string): Promise<void> => {
       let listing: FolderListing;
       try {
-        listing = await call<FolderListing>('files.list', folder ? { folder } : {});
+        listing = folder ? await call<FolderListing>('files.list', { folder }) : { folder: '', parent: null, entries: await call<FolderEntry[]>('files.roots', {}) };
       } catch (e) {
         where.textContent = e instanceof Error ? e.message : String(e);
         return;

@@ -1,11 +1,12 @@
 /**
  * Spin-up view: the figure of how a run's tracers drift over its snapshots (spinup-figure.ts) with the choice of
  * run, quantity, layer, tracers and regions above it, and the table of drift rates and verdicts below
- * (spinup-table.ts); service 'spinup.run'.
+ * (spinup-table.ts); service 'spinup.run', or 'spinup.open' for a spinup.json written by `stillwater spinup`.
  */
 import type { SpinupResult } from '../../app/spinup/types.js';
 import { tracked } from '../service-client.js';
 import { h } from '../elements.js';
+import { pickFile } from '../panels/file-picker.js';
 import { state, type AppState } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';
 import { spinupFigure, type Choice, type Quantity } from './spinup-figure.js';
@@ -21,7 +22,9 @@ export const spinupView: ViewFactory = (el) => {
   const tableHead = h('div', { class: 'view-toolbar spinup-table-head' });
   const tableWrap = h('div', { class: 'spinup-table-wrap' });
   scroll.append(stage, tableHead, tableWrap);
-  el.append(toolbar, pickers, banner, scroll);
+  const openResults = h('button', { type: 'button', id: 'spinup-open-results', title: 'Show a spinup.json written by the command line (stillwater spinup), e.g. on a cluster' }, 'Open spinup.json…');
+  const fileRow = h('div', { class: 'view-toolbar spinup-file-row' }, openResults);
+  el.append(fileRow, toolbar, pickers, banner, scroll);
   let result: SpinupResult | null = null;
   let resultKey = '';
   let token = 0;
@@ -131,6 +134,38 @@ export const spinupView: ViewFactory = (el) => {
     drawTable(r);
   };
 
+  /** First look: the chosen variable and the tracer that drifts most, the chosen region and where it drifts most. */
+  const firstLook = (r: SpinupResult, st: AppState): void => {
+    const names = r.tracers.map((t) => t.name);
+    const worst = r.summary.worst[0];
+    c.tracers = [...new Set([st.sel.variable, worst?.tracer].filter((v): v is string => !!v && names.includes(v)))];
+    if (!c.tracers.length) c.tracers = names.slice(0, 1);
+    c.regions = [...new Set([st.sel.region, worst?.region].filter((v): v is string => !!v && r.regions.includes(v)))];
+    if (!c.regions.length) c.regions = r.regions.slice(0, 1);
+    c.layer = worst && r.layers.includes(worst.layer) ? worst.layer : (r.layers[0] ?? 'all');
+    c.skillTracer = c.tracers.find((t) => r.skill.some((p) => p.variable === t)) ?? r.skill[0]?.variable ?? '';
+  };
+
+  openResults.addEventListener('click', () => {
+    void (async () => {
+      const path = await pickFile('Open spin-up results (spinup.json)', (e) => e.name.toLowerCase().endsWith('.json'), ['json']);
+      if (!path) return;
+      const my = ++token;
+      try {
+        const r = await tracked<SpinupResult>('Reading spin-up results', 'spinup.open', { path });
+        if (my !== token) return;
+        result = r;
+        resultKey = `file:${path}`;
+        c.run = r.run;
+        firstLook(r, state);
+        drawControls(r, [r.run]);
+        render(r);
+      } catch (e) {
+        if (my === token) note(stage, errorText(e), 'error');
+      }
+    })();
+  });
+
   const draw = async (st: AppState): Promise<void> => {
     const session = st.session;
     if (!session) return note(stage, 'Open a recipe to follow its spin-up.');
@@ -150,15 +185,7 @@ export const spinupView: ViewFactory = (el) => {
         if (my === token) note(stage, /no service/i.test(errorText(e)) ? 'The spin-up analysis is not part of this build yet.' : errorText(e), 'error');
         return;
       }
-      // first look: the chosen variable and the tracer that drifts most, the chosen region and where it drifts most
-      const names = result.tracers.map((t) => t.name);
-      const worst = result.summary.worst[0];
-      c.tracers = [...new Set([st.sel.variable, worst?.tracer].filter((v): v is string => !!v && names.includes(v)))];
-      if (!c.tracers.length) c.tracers = names.slice(0, 1);
-      c.regions = [...new Set([st.sel.region, worst?.region].filter((v): v is string => !!v && result!.regions.includes(v)))];
-      if (!c.regions.length) c.regions = result.regions.slice(0, 1);
-      c.layer = worst && result.layers.includes(worst.layer) ? worst.layer : (result.layers[0] ?? 'all');
-      c.skillTracer = c.tracers.find((t) => result!.skill.some((p) => p.variable === t)) ?? result.skill[0]?.variable ?? '';
+      firstLook(result, st);
     }
     drawControls(result, runs);
     render(result);

@@ -3,7 +3,7 @@
  * heavy requests arrive at once. The real `stillwater serve` on the demo recipe (its real pool of worker
  * threads, sized to the cores): a client process of its own sends 100 map levels (view.level of one session,
  * every depth) and 100 whole-file statistics (cf.inspect --stats of the demo runs) at once; meanwhile this
- * process times light requests one after the other (the page, files.roots, regions.list), which never wait on
+ * process times light requests one after the other (the page, files.roots, the list of allowed folders), which never wait on
  * the pool. The peer is the same light requests to the same server when idle, timed the same way just before.
  * Bar: every light request under load answered within 100 ms (the maximum, not only the median).
  * The machine is shared: both columns come from the same run; repeat the run before drawing conclusions.
@@ -42,7 +42,7 @@ function send(s: Served, method: string, path: string, body?: unknown): Promise<
 const LIGHT: { label: string; call: (s: Served) => Promise<{ status: number }> }[] = [
   { label: 'GET /', call: (s) => send(s, 'GET', '/') },
   { label: 'files.roots', call: (s) => send(s, 'POST', '/api/files.roots', { input: {} }) },
-  { label: 'regions.list', call: (s) => send(s, 'POST', '/api/regions.list', { input: {} }) },
+  { label: 'files.list', call: (s) => send(s, 'POST', '/api/files.list', { input: {} }) },
 ];
 
 /** One light request after another, cycling through LIGHT, while `more()` says so; milliseconds each. */

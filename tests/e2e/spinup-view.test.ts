@@ -2,10 +2,13 @@
 // deviation of the chosen tracers and regions is drawn against model year on a logarithmic axis, with the
 // skill of each snapshot on the same axis and a table of drift rates and verdicts; the scores view carries a
 // banner when a scored run has not settled. Screenshots go to tests/e2e/screenshots/ for a person to look at.
-import { readFileSync } from 'node:fs';
+import { readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
 import type { Download, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { canRunBrowser, openWorkbench, type Workbench } from './harness.js';
+import { canRunBrowser, callInPage, openWorkbench, SAMPLE_DATA, type Workbench } from './harness.js';
+import { spinupJson } from '../../app/spinup/write-output.js';
+import type { SpinupResult } from '../../app/spinup/types.js';
 
 // following thirteen snapshots of three runs' worth of tracers takes minutes on a loaded machine
 const SLOW = 1_200_000;
@@ -140,6 +143,38 @@ describe.skipIf(!canRunBrowser)('spin-up view in Chromium', () => {
     await page.keyboard.press('Space');
     await page.waitForFunction((t) => document.querySelector('.view-spinup [data-drawn]')?.getAttribute('data-drawn')?.split('|')[4].split(',').includes(t), tracer, { timeout: 60_000 });
     expect(await page.isChecked(`#spinup-tracers input[value="${tracer}"]`)).toBe(true);
+  }, SLOW);
+
+  it('shows a spinup.json written by the command line, chosen in the file picker', async () => {
+    // the same result the view computed, written as `stillwater spinup` writes it (app/spinup/write-output.ts)
+    const recipe = JSON.parse(readFileSync(join(SAMPLE_DATA, 'demo-recipe.json'), 'utf8')) as unknown;
+    const from = await callInPage<SpinupResult>(page, 'spinup.run', { recipe, baseDir: SAMPLE_DATA, run: 'remin-mid (L = 350 m)' });
+    const file = join(SAMPLE_DATA, 'generated', 'e2e-cli-spinup.json');
+    writeFileSync(file, spinupJson({ ...from, run: 'from-the-command-line' }));
+    try {
+      await page.click('#tab-spinup');
+      await page.click('#spinup-open-results');
+      // walk the picker down to the file: the folder on the way to it, until the file itself shows
+      let clicked = '';
+      for (let i = 0; i < 8; i++) {
+        const next = await page.waitForFunction(
+          ([target, last]) => {
+            const paths = [...document.querySelectorAll('.picker-entry[data-path]')].map((e) => e.getAttribute('data-path') ?? '');
+            if (paths.includes(target)) return target;
+            return paths.find((p) => p !== last && target.startsWith(p + '/')) ?? false;
+          },
+          [file, clicked] as const,
+          { timeout: 30_000 },
+        );
+        clicked = (await next.jsonValue()) as string;
+        await page.click(`.picker-entry[data-path="${clicked}"]`);
+        if (clicked === file) break;
+      }
+      await page.waitForFunction(() => document.querySelector('.view-spinup [data-drawn]')?.getAttribute('data-drawn')?.startsWith('from-the-command-line|'), null, { timeout: 60_000 });
+      expect(await page.textContent('.view-spinup .spinup-banner')).toBe([from.summary.sentence, ...from.notes].join(' '));
+    } finally {
+      rmSync(file, { force: true });
+    }
   }, SLOW);
 
   it('made no request beyond 127.0.0.1 and logged no console errors', () => {

@@ -32,11 +32,11 @@ let stations: string;
 let pool: WorkerPool;
 const onThisThread = new Map<string, CallReply>();
 
-/** files.describe and view.variables of every dataset, recipe.load and points.stations, as calls. */
+/** files.describe and view.variables of every dataset, and points.stations, as calls. */
 function calls(): [string, unknown][] {
   const out: [string, unknown][] = [];
   for (const file of Object.values(DATASETS)) out.push(['files.describe', { path: file }], ['view.variables', { file }]);
-  out.push(['recipe.load', { path: recipe }], ['points.stations', { file: stations }]);
+  out.push(['points.stations', { file: stations }]);
   return out;
 }
 
@@ -87,7 +87,7 @@ describe('a thread that serves the screen', () => {
   }, 120_000);
 
   it('leaves no file-reading service light: each of those goes to the pool', () => {
-    const reads = ['files.describe', 'view.variables', 'view.open', 'view.pair', 'recipe.load', 'points.stations', 'points.compare', 'spinup.open', 'spinup.run', 'spinup.verdict', 'cf.inspect', 'compare.run', 'line.sample'];
+    const reads = ['files.describe', 'view.variables', 'view.open', 'view.pair', 'points.stations', 'points.compare', 'spinup.open', 'spinup.run', 'spinup.verdict', 'cf.inspect', 'line.sample'];
     for (const name of reads) expect(serviceTable.find((e) => e.name === name)?.heavy, name).toBe(true);
   });
 });
