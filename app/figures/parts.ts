@@ -3,8 +3,6 @@
  * colour bar with units, legends and markers. Styling is written as SVG attributes so that a figure looks the
  * same in the report, in a standalone file and on the screen.
  */
-import { cssColour, type ColourScale } from '../render/colour-scales.js';
-import { formatTick, niceTicks } from '../render/colour-scales.js';
 import { FONT_FAMILY, FONT_PT, GRIDLINE, INK, MM_PER_PT, MUTED } from './page.js';
 import type { Scale } from './scale.js';
 import { el, type SvgNode } from './svg-tree.js';
@@ -122,29 +120,8 @@ export function leftAxis(g: SvgNode, r: Rect, sc: Scale, label: string, opts: { 
   g.append(text(cx, cy, label, { 'text-anchor': 'middle', 'font-size': FONT_PT.label, transform: `rotate(-90 ${r2(cx)} ${r2(cy)})`, class: 'axis-label' }));
 }
 
-let gradientCounter = 0;
-
-/** A horizontal colour bar in `r`, ticks below and the label (with units) under them. Height used: r.h + 22. */
-export function colourBarH(g: SvgNode, r: Rect, scale: ColourScale, min: number, max: number, label: string): void {
-  const n = scale.packed.length;
-  const id = `cbar${++gradientCounter}`;
-  const grad = el('linearGradient', { id, x1: 0, y1: 0, x2: 1, y2: 0 });
-  const stops = 32;
-  for (let i = 0; i <= stops; i++) {
-    const k = Math.min(n - 1, Math.round((i / stops) * (n - 1)));
-    grad.append(el('stop', { offset: (i / stops).toFixed(4), 'stop-color': cssColour(scale, k) }));
-  }
-  g.append(el('defs', {}, grad));
-  g.append(el('rect', { x: r2(r.x), y: r2(r.y), width: r2(r.w), height: r2(r.h), fill: `url(#${id})`, stroke: INK, 'stroke-width': 0.4 }));
-  const ticks = niceTicks(min, max, 5);
-  const step = ticks.length > 1 ? ticks[1] - ticks[0] : 1;
-  for (const t of ticks) {
-    const x = r.x + ((t - min) / (max - min)) * r.w;
-    g.append(el('line', { x1: r2(x), x2: r2(x), y1: r2(r.y + r.h), y2: r2(r.y + r.h + 2), stroke: INK, 'stroke-width': 0.5 }));
-    g.append(text(x, r.y + r.h + 2 + FONT_PT.tick + 0.5, formatTick(t, step).replace(/^-/, '−'), { 'text-anchor': 'middle', 'font-size': FONT_PT.tick }));
-  }
-  g.append(text(r.x + r.w / 2, r.y + r.h + 2 + FONT_PT.tick * 2 + 3.5, label, { 'text-anchor': 'middle', 'font-size': FONT_PT.label, class: 'colour-bar-label' }));
-}
+/** Colour bars live in colour-bar.ts (log stretch, clip arrows, horizontal and vertical); re-exported for the figures that import them from here. */
+export { colourBarH, colourBarV } from './colour-bar.js';
 
 export type MarkerKind = 'circle' | 'square' | 'triangle' | 'down' | 'diamond' | 'line' | 'dash' | 'star';
 
