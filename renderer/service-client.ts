@@ -3,7 +3,7 @@
  * cancel it) and results that are asked for again are kept (a bounded cache, newest last).
  */
 import type { ComparisonResult } from '../app/compare/run.js';
-import type { LevelData, ProfileData, SectionData, SectionKind, SessionInfo, TableFormat, TableText } from '../contract/view-types.js';
+import type { LevelData, ProfileCycleData, ProfileData, ViewPeriod, SectionData, SectionKind, SessionInfo, TableFormat, TableText } from '../contract/view-types.js';
 import { PromiseCache } from '../app/promise-cache.js';
 import { call, cancel, newJobId, type ProgressEvent } from './bridge.js';
 
@@ -63,6 +63,7 @@ export function clearCaches(): void {
   levels.clear();
   sections.clear();
   profiles.clear();
+  cycles.clear();
   skills.clear();
 }
 
@@ -83,21 +84,30 @@ export async function openSession(recipePath: string): Promise<SessionInfo> {
   return info;
 }
 
-export function getLevel(session: string, variable: string, run: string, layer: string): Promise<LevelData> {
-  return levels.get(JSON.stringify([session, variable, run, layer]), () =>
-    tracked(`Loading ${variable}, ${run}`, 'view.level', { session, variable, run, layer }),
+export function getLevel(session: string, variable: string, run: string, layer: string, period: ViewPeriod = 'annual'): Promise<LevelData> {
+  return levels.get(JSON.stringify([session, variable, run, layer, period]), () =>
+    tracked(`Loading ${variable}, ${run}${period === 'annual' ? '' : `, ${period}`}`, 'view.level', { session, variable, run, layer, period }),
   );
 }
 
-export function getSection(session: string, variable: string, run: string, kind: SectionKind, at: number, region: string): Promise<SectionData> {
-  return sections.get(JSON.stringify([session, variable, run, kind, at, region]), () =>
-    tracked(`Section of ${variable}`, 'view.section', { session, variable, run, kind, at, region }),
+export function getSection(session: string, variable: string, run: string, kind: SectionKind, at: number, region: string, period: ViewPeriod = 'annual'): Promise<SectionData> {
+  return sections.get(JSON.stringify([session, variable, run, kind, at, region, period]), () =>
+    tracked(`Section of ${variable}`, 'view.section', { session, variable, run, kind, at, region, period }),
   );
 }
 
-export function getProfile(session: string, variable: string, region: string): Promise<ProfileData> {
-  return profiles.get(JSON.stringify([session, variable, region]), () =>
-    tracked(`Profile of ${variable}`, 'view.profile', { session, variable, region }),
+export function getProfile(session: string, variable: string, region: string, period: ViewPeriod = 'annual'): Promise<ProfileData> {
+  return profiles.get(JSON.stringify([session, variable, region, period]), () =>
+    tracked(`Profile of ${variable}`, 'view.profile', { session, variable, region, period }),
+  );
+}
+
+const cycles = new PromiseCache<ProfileCycleData>(12);
+
+/** The monthly cycle of a region's mean over a depth choice (month × depth), of one run and the reference. */
+export function getProfileCycle(session: string, variable: string, run: string, region: string, layer: string): Promise<ProfileCycleData> {
+  return cycles.get(JSON.stringify([session, variable, run, region, layer]), () =>
+    tracked(`Monthly cycle of ${variable}`, 'view.profileCycle', { session, variable, run, region, layer }),
   );
 }
 

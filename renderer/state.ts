@@ -4,7 +4,8 @@
  */
 import type { ProjectionId } from '../app/render/projections.js';
 import { DEFAULT_DIFF_SCALE, DEFAULT_FIELD_SCALE } from '../app/render/named-scales.js';
-import type { ScreenSection, SectionKind, SessionInfo } from '../contract/view-types.js';
+import { periodLabel } from '../app/render/period-labels.js';
+import type { ScreenSection, SectionKind, SessionInfo, ViewPeriod } from '../contract/view-types.js';
 
 export type ViewId = 'map' | 'difference' | 'section' | 'profile' | 'diagram' | 'scores' | 'spinup' | 'line';
 
@@ -36,6 +37,10 @@ export interface Selection {
   sectionField: 'model' | 'reference' | 'difference';
   sectionDepth: number | null;
   diagram: 'taylor' | 'target';
+  /** the period of the year the views show (annual, a month, a season) */
+  period: ViewPeriod;
+  /** the Profile view shows the monthly cycle of the region (month × depth) instead of the mean profile */
+  profileCycle: boolean;
   /** fixed colour range (null: automatic) per view kind */
   fieldRange: [number, number] | null;
   diffRange: [number, number] | null;
@@ -84,6 +89,8 @@ export interface AppState {
   session: SessionInfo | null;
   sel: Selection;
   probe: ProbePoint | null;
+  /** the sentence saying why a period was refused (a saved view asked for a period the recipe has no data for) */
+  periodRefused: string | null;
 }
 
 type Listener = (state: AppState, changed: Set<string>) => void;
@@ -105,6 +112,8 @@ export const state: AppState = {
     sectionField: 'model',
     sectionDepth: null,
     diagram: 'taylor',
+    period: 'annual',
+    profileCycle: false,
     fieldRange: null,
     diffRange: null,
     fieldScale: DEFAULT_FIELD_SCALE,
@@ -117,6 +126,7 @@ export const state: AppState = {
     line: { points: [[-30, -60], [-30, 0], [-20, 60]], spacingKm: 100, field: 1, stretch: false },
   },
   probe: null,
+  periodRefused: null,
 };
 
 export function subscribe(l: Listener): () => void {
@@ -129,7 +139,7 @@ function notify(changed: Set<string>): void {
 }
 
 /** Changes of these keys can be undone (Ctrl+Z) and redone (Ctrl+Y or Ctrl+Shift+Z). */
-const UNDOABLE: (keyof Selection)[] = ['variable', 'run', 'layer', 'region', 'projection', 'mapField', 'fieldRange', 'diffRange', 'fieldScale', 'diffScale', 'logColour', 'lockRange', 'contours', 'mapWindow', 'cropToRegion', 'line', 'sectionKind', 'sectionAt', 'sectionField', 'sectionDepth', 'diagram'];
+const UNDOABLE: (keyof Selection)[] = ['variable', 'run', 'layer', 'region', 'period', 'profileCycle', 'projection', 'mapField', 'fieldRange', 'diffRange', 'fieldScale', 'diffScale', 'logColour', 'lockRange', 'contours', 'mapWindow', 'cropToRegion', 'line', 'sectionKind', 'sectionAt', 'sectionField', 'sectionDepth', 'diagram'];
 const HISTORY_LIMIT = 100;
 const undoStack: Selection[] = [];
 const redoStack: Selection[] = [];
@@ -151,6 +161,8 @@ export function choose(patch: Partial<Selection>): void {
     state.sel.fieldRange = null;
     state.sel.diffRange = null;
   }
+  // a period chosen by hand answers an earlier refusal
+  if (changed.has('period')) state.periodRefused = null;
   // another projection has other metres: the zoom starts again
   if (changed.has('projection') && !('mapWindow' in patch)) state.sel.mapWindow = null;
   if (!changed.size) return;
@@ -226,13 +238,23 @@ export function setSession(session: SessionInfo): void {
   const layer = session.layers.some((l) => l.id === previous.layer) ? previous.layer : (session.layers[0]?.id ?? 'k:0');
   const region = session.regions.includes(previous.region) ? previous.region : (session.regions[0] ?? 'global');
   const keepRanges = previous !== state.sel;
-  state.sel = { ...previous, variable, run, layer, region, fieldRange: keepRanges ? previous.fieldRange : null, diffRange: keepRanges ? previous.diffRange : null };
+  // a period the recipe has no data for is refused with a sentence, and the views show the year
+  const periods = session.periods ?? ['annual'];
+  const period = periods.includes(previous.period) ? previous.period : 'annual';
+  state.periodRefused = period === previous.period ? null : periodRefusal(previous.period, session);
+  state.sel = { ...previous, variable, run, layer, region, period, fieldRange: keepRanges ? previous.fieldRange : null, diffRange: keepRanges ? previous.diffRange : null };
   // another recipe starts a new history; a saved or extended session keeps it
   if (previousSession !== session.session) {
     undoStack.length = 0;
     redoStack.length = 0;
   }
-  notify(new Set(['session', 'variable', 'run', 'layer', 'region', ...(keepRanges ? ['view'] : [])]));
+  notify(new Set(['session', 'variable', 'run', 'layer', 'region', 'period', ...(keepRanges ? ['view'] : [])]));
+}
+
+/** Why the session cannot show a period: one sentence. */
+export function periodRefusal(p: ViewPeriod, session: SessionInfo): string {
+  if (session.periodsNote) return `${periodLabel(p)} cannot be shown because ${session.periodsNote.charAt(0).toLowerCase()}${session.periodsNote.slice(1)}`;
+  return `${periodLabel(p)} cannot be shown because the recipe's options.periods gives ${session.periods.filter((x) => x !== 'annual').join(', ')} besides the year.`;
 }
 
 export function setProbe(p: ProbePoint | null): void {
@@ -250,7 +272,7 @@ export function currentVariable(): SessionInfo['variables'][number] | undefined 
 }
 
 /** The keys of the selection that the recipe's `screen` section keeps. */
-const SCREEN_KEYS = ['view', 'variable', 'run', 'region', 'layer', 'projection', 'mapField', 'fieldRange', 'diffRange', 'fieldScale', 'diffScale', 'logColour', 'lockRange', 'contours', 'mapWindow', 'cropToRegion', 'sectionKind', 'sectionAt', 'sectionField', 'sectionDepth', 'diagram', 'line'] as const satisfies readonly (keyof Selection & keyof ScreenSection)[];
+const SCREEN_KEYS = ['view', 'variable', 'run', 'region', 'layer', 'projection', 'mapField', 'fieldRange', 'diffRange', 'fieldScale', 'diffScale', 'logColour', 'lockRange', 'contours', 'mapWindow', 'cropToRegion', 'sectionKind', 'sectionAt', 'sectionField', 'sectionDepth', 'diagram', 'period', 'profileCycle', 'line'] as const satisfies readonly (keyof Selection & keyof ScreenSection)[];
 
 /** What the recipe keeps of the view (saved with the session). */
 export function screenOf(sel: Selection): ScreenSection {

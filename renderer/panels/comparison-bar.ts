@@ -1,6 +1,8 @@
-/** The comparison bar: variable, run, region, depth and projection, and the choice of view. */
+/** The comparison bar: variable, run, region, depth, period of the year and projection, and the choice of view. */
 import { typesetUnits } from '../../app/figures/typeset.js';
 import { PROJECTIONS, type ProjectionId } from '../../app/render/projections.js';
+import { VIEW_PERIODS, periodLabel } from '../../app/render/period-labels.js';
+import type { ViewPeriod } from '../../contract/view-types.js';
 import { h, select } from '../elements.js';
 import { VIEWS, choose, subscribe, type AppState, type ViewId } from '../state.js';
 import { keepFocus } from '../widgets/keep-focus.js';
@@ -58,21 +60,41 @@ export function comparisonBar(el: HTMLElement, tabs: HTMLElement): void {
       ['run', select('Run', (variable?.runs ?? []).map((r) => ({ value: r, label: r })), st.sel.run, (value) => choose({ run: value }), 'choose-run')],
       ['region', select('Region', s.regions.map((r) => ({ value: r, label: r })), st.sel.region, (value) => choose({ region: value }), 'choose-region')],
       ['layer', select('Depth', s.layers.map((l) => ({ value: l.id, label: l.label })), st.sel.layer, (value) => choose({ layer: value }), 'choose-layer')],
+      ['period', periodControl(st)],
       ['projection', select('Projection', PROJECTIONS.map((p) => ({ value: p.id, label: p.label })), st.sel.projection, (value) => choose({ projection: value as ProjectionId }), 'choose-projection')],
     ];
     const why = NOT_HERE[st.sel.view];
     for (const [name, label] of controls) {
       let reason = name === 'region' && st.sel.cropToRegion && (st.sel.view === 'map' || st.sel.view === 'difference') ? undefined : why[name];
       if (name === 'region' && st.sel.view === 'section' && st.sel.sectionKind !== 'zonal') reason = 'Only the zonal-mean section uses the region.';
+      if (st.sel.view === 'profile' && st.sel.profileCycle) {
+        // the monthly cycle is one run's, over the levels of the chosen depth, for every month
+        if (name === 'run' || name === 'layer') reason = undefined;
+        if (name === 'period') reason = 'The monthly cycle shows every month.';
+      }
+      if (name === 'period' && !reason && s.periods.length < 2) reason = s.periodsNote ?? 'The recipe has no months or seasons.';
       const control = label.querySelector('select')!;
       control.disabled = !!reason;
       label.classList.toggle('not-here', !!reason);
       label.title = reason ?? '';
     }
-    keepFocus(el, () => el.replaceChildren(...controls.map(([, label]) => label)));
+    const refused = st.periodRefused ? [h('p', { class: 'bar-refusal', role: 'alert', id: 'period-refused' }, st.periodRefused)] : [];
+    keepFocus(el, () => el.replaceChildren(...controls.map(([, label]) => label), ...refused));
   };
   subscribe((st, changed) => {
     if (changed.has('probe')) return;
     render(st);
   });
+}
+
+/** The period menu: every period, those the recipe has no data for disabled with the reason on hover. */
+function periodControl(st: AppState): HTMLLabelElement {
+  const s = st.session!;
+  const label = select('Period', VIEW_PERIODS.map((p) => ({ value: p, label: p === 'annual' ? 'Year (annual mean)' : periodLabel(p) })), st.sel.period, (value) => choose({ period: value as ViewPeriod }), 'choose-period');
+  for (const o of label.querySelectorAll('option')) {
+    if (s.periods.includes(o.value as ViewPeriod)) continue;
+    o.disabled = true;
+    o.title = s.periodsNote ?? `The recipe's options.periods gives no ${o.value}.`;
+  }
+  return label;
 }

@@ -54,7 +54,7 @@ export function probePanel(el: HTMLElement): void {
     }
     let data: LevelData;
     try {
-      data = await getLevel(session.session, st.sel.variable, st.sel.run, st.sel.layer);
+      data = await getLevel(session.session, st.sel.variable, st.sel.run, st.sel.layer, st.sel.period);
     } catch {
       return;
     }
@@ -92,7 +92,7 @@ export function probePanel(el: HTMLElement): void {
   };
 
   subscribe((st, changed) => {
-    if (changed.has('probe') || changed.has('variable') || changed.has('run') || changed.has('layer') || changed.has('session')) void show(st);
+    if (changed.has('probe') || changed.has('variable') || changed.has('run') || changed.has('layer') || changed.has('period') || changed.has('session')) void show(st);
   });
   table.replaceChildren(h('p', { class: 'muted' }, 'Point at the map, or type a position.'));
 }

@@ -4,6 +4,7 @@
  */
 import { typesetUnits } from '../../app/figures/typeset.js';
 import type { ComparisonResult } from '../../app/compare/run.js';
+import { periodLabel } from '../../app/render/period-labels.js';
 import { getSkill } from '../service-client.js';
 import { h } from '../elements.js';
 import { diagramsFigure, type DiagramKind, type DiagramRow, type DiagramsSpec } from '../../app/figures/diagrams.js';
@@ -28,7 +29,7 @@ export const diagramView: ViewFactory = (el) => {
 
   const figure = (st: AppState): Figure | null => {
     if (!result || !st.session) return null;
-    const rowsOfVar = result.rows.filter((r) => r.variable === st.sel.variable);
+    const rowsOfVar = result.rows.filter((r) => r.variable === st.sel.variable && (r.period ?? 'annual') === st.sel.period);
     const layers = [...new Set(rowsOfVar.map((r) => r.layer))];
     if (!layers.includes(layer)) layer = layers[0] ?? '';
     const rows: DiagramRow[] = rowsOfVar
@@ -40,7 +41,7 @@ export const diagramView: ViewFactory = (el) => {
     const spec: DiagramsSpec = {
       name: `diagram-${st.sel.variable}-${layer}`,
       width: 'double',
-      title: `${kindsOf(st)[0] === 'taylor' ? 'Taylor' : 'Target'} diagram: ${v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : st.sel.variable}, ${layer}`,
+      title: `${kindsOf(st)[0] === 'taylor' ? 'Taylor' : 'Target'} diagram: ${v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : st.sel.variable}, ${layer}${st.sel.period === 'annual' ? '' : `, ${periodLabel(st.sel.period)}`}`,
       subtitle: `Every run × region; statistics weighted by cell volume (area for the bottom layer), units ${typesetUnits(units)}`,
       rows,
       runs: st.session.runs.map((r) => r.label),
@@ -98,7 +99,7 @@ export const diagramView: ViewFactory = (el) => {
     const w = Math.floor(stage.clientWidth || 900);
     const hgt = Math.floor(stage.clientHeight || 600);
     stage.replaceChildren(screenFigure(fig, Math.max(480, Math.min(w, (hgt * fig.widthPt) / fig.heightPt))));
-    stage.dataset.drawn = `${st.sel.diagram}|${st.sel.variable}|${layer}${zoom && st.sel.diagram === 'taylor' ? '|zoom' : ''}`;
+    stage.dataset.drawn = `${st.sel.diagram}|${st.sel.variable}|${layer}${zoom && st.sel.diagram === 'taylor' ? '|zoom' : ''}|${st.sel.period}`;
   };
 
   return {
@@ -111,7 +112,7 @@ export const diagramView: ViewFactory = (el) => {
       const fig = figure(state);
       return fig ? figureElement(fig) : null;
     },
-    fileBase: () => `stillwater-${state.sel.diagram}-${state.sel.variable}-${layer}`.replace(/[^A-Za-z0-9._-]+/g, '_'),
+    fileBase: () => `stillwater-${state.sel.diagram}-${state.sel.variable}-${layer}${state.sel.period === 'annual' ? '' : `-${state.sel.period}`}`.replace(/[^A-Za-z0-9._-]+/g, '_'),
     dispose() {
       token++;
     },

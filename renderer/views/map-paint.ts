@@ -3,6 +3,7 @@
  * lookup is built once per projection, grid and canvas size, so a change of depth, variable or range only
  * recolours.
  */
+import { periodLabel } from '../../app/render/period-labels.js';
 import { clipped, log10Values, positiveRange } from '../../app/render/colour-mapping.js';
 import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange, type ColourScale } from '../../app/render/colour-scales.js';
 import { DIFF_SCALES, FIELD_SCALES, namedScale } from '../../app/render/named-scales.js';
@@ -139,7 +140,8 @@ export function mapChoice(st: AppState, data: LevelData, difference: boolean, lo
   const session = st.session!;
   const v = currentVariable();
   const name = v?.longName && v.longName !== v.key ? `${v.longName} (${v.key})` : data.variable;
-  const where = `${data.layer.label}; ${projectionOf(st.sel.projection).info.label}${st.sel.lockRange ? '; colour range shared by every run' : ''}`;
+  const when = data.period !== 'annual' || session.periods.length > 1 ? `${periodLabel(data.period)}; ` : '';
+  const where = `${when}${data.layer.label}; ${projectionOf(st.sel.projection).info.label}${st.sel.lockRange ? '; colour range shared by every run' : ''}`;
   const values = difference ? data.difference : st.sel.mapField === 'model' ? data.model : data.reference;
   let r = (difference ? st.sel.diffRange : st.sel.fieldRange) ?? (st.sel.lockRange ? locked : null) ?? autoRange(data, difference);
   if (!r) return null;

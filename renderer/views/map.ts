@@ -245,7 +245,7 @@ export function mapView(difference: boolean): ViewFactory {
         return;
       }
       const my = ++token;
-      const needData = !data || changed.has('session') || data.variable !== st.sel.variable || data.run !== st.sel.run || data.layer.id !== st.sel.layer;
+      const needData = !data || changed.has('session') || data.variable !== st.sel.variable || data.run !== st.sel.run || data.layer.id !== st.sel.layer || data.period !== st.sel.period;
       const width = Math.max(360, Math.floor(stage.clientWidth || el.clientWidth || 900));
       const maxHeight = Math.max(260, Math.floor(stage.clientHeight || 600));
       const dpr = Math.min(2, window.devicePixelRatio || 1);
@@ -254,17 +254,17 @@ export function mapView(difference: boolean): ViewFactory {
       try {
         if (needData) {
           if (!fig) frame.say('Loading the field…', 'busy');
-          const pending = getLevel(session.session, st.sel.variable, st.sel.run, st.sel.layer);
+          const pending = getLevel(session.session, st.sel.variable, st.sel.run, st.sel.layer, st.sel.period);
           // while the server reads the level, build the pixel lookup this drawing will need
           lookupFor(proj, session.grid, canvasWidth, canvasHeightFor(proj, canvasWidth));
           const d = await pending;
           if (my !== token) return;
           data = d;
         }
-        const key = `${session.session}|${st.sel.variable}|${st.sel.layer}`;
+        const key = `${session.session}|${st.sel.variable}|${st.sel.layer}|${st.sel.period}`;
         if (st.sel.lockRange && lockedKey !== key) {
           const variable = session.variables.find((v) => v.key === st.sel.variable);
-          const all = await Promise.all((variable?.runs ?? [st.sel.run]).map((run) => getLevel(session.session, st.sel.variable, run, st.sel.layer)));
+          const all = await Promise.all((variable?.runs ?? [st.sel.run]).map((run) => getLevel(session.session, st.sel.variable, run, st.sel.layer, st.sel.period)));
           if (my !== token) return;
           locked = sharedRange(all, difference);
           lockedKey = key;
@@ -354,7 +354,7 @@ export function mapView(difference: boolean): ViewFactory {
         performance.mark('map-first-draw');
       }
       const w = st.sel.mapWindow;
-      stage.dataset.drawn = `${data.variable}|${data.run}|${data.layer.id}|${st.sel.projection}|${difference ? 'diff' : st.sel.mapField}`;
+      stage.dataset.drawn = `${data.variable}|${data.run}|${data.layer.id}|${st.sel.projection}|${difference ? 'diff' : st.sel.mapField}|${data.period}`;
       stage.dataset.look = `${scaleOf(choice).name}|${choice.log ? 'log' : 'linear'}|${w ? [w.xmin, w.xmax, w.ymin, w.ymax].map((v) => Math.round(v)).join(',') : 'whole'}|${cells ? st.sel.region : 'all'}|${st.sel.contours ? 'contours' : ''}`;
       showRegionStats(st, data);
       if (stations && stationsMark && fig) {
@@ -404,7 +404,7 @@ export function mapView(difference: boolean): ViewFactory {
       },
       fileBase() {
         const sel = state.sel;
-        return `stillwater-${difference ? 'difference' : sel.mapField === 'model' ? 'map' : 'reference'}-${sel.variable}-${difference || sel.mapField === 'model' ? sel.run : 'ref'}-${sel.layer}-${sel.projection}`.replace(/[^A-Za-z0-9._-]+/g, '_');
+        return `stillwater-${difference ? 'difference' : sel.mapField === 'model' ? 'map' : 'reference'}-${sel.variable}-${difference || sel.mapField === 'model' ? sel.run : 'ref'}-${sel.layer}${sel.period === 'annual' ? '' : `-${sel.period}`}-${sel.projection}`.replace(/[^A-Za-z0-9._-]+/g, '_');
       },
       dispose() {
         token++;

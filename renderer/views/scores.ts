@@ -3,6 +3,7 @@ import type { ComparisonResult } from '../../app/compare/run.js';
 import type { SkillRow } from '../../app/compare/rows.js';
 import type { TableFormat } from '../../contract/view-types.js';
 import { typesetUnits } from '../../app/figures/typeset.js';
+import { periodLabel } from '../../app/render/period-labels.js';
 import { getSkill, getTable } from '../service-client.js';
 import { fmt, h, MISSING, saveBlob } from '../elements.js';
 import { state, type AppState } from '../state.js';
@@ -26,6 +27,7 @@ const COLUMNS: Column<SkillRow, Key>[] = [
   text('variable', 'Variable', 'variable key of the recipe'),
   text('region', 'Region', 'region'),
   text('layer', 'Layer', 'depth layer'),
+  text('period', 'Period', 'period of the year: annual, a month or a season (the Period menu above chooses)'),
   { key: 'units', label: 'Units', title: 'units of means, bias, RMSE, E′ and standard deviations', text: true, value: (r) => r.units, cell: (r) => h('td', { class: 'text units' }, typesetUnits(r.units)) },
   num('n', 'n', 'number of compared cells', (v) => (v === null ? MISSING : String(v))),
   num('model_mean', 'Model mean', 'weighted mean of the run'),
@@ -70,6 +72,8 @@ export const scoresView: ViewFactory = (el) => {
     const words = filterText.toLowerCase().split(/\s+/).filter(Boolean);
     return result.rows.filter((r) => {
       if (onlyVariable && r.variable !== state.sel.variable) return false;
+      // rows written before periods existed are the year's
+      if ((r.period ?? 'annual') !== state.sel.period) return false;
       const hay = `${r.run} ${r.variable} ${r.region} ${r.layer}`.toLowerCase();
       return words.every((w) => hay.includes(w));
     });
@@ -79,7 +83,7 @@ export const scoresView: ViewFactory = (el) => {
     const rows = shown();
     table.show(rows);
     if (table.el.parentElement !== wrap) wrap.replaceChildren(table.el);
-    count.textContent = `${rows.length} of ${result?.rows.length ?? 0} rows`;
+    count.textContent = `${rows.length} of ${result?.rows.length ?? 0} rows (${periodLabel(state.sel.period)})`;
     drawNotes(rows);
   };
 

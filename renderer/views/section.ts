@@ -2,6 +2,7 @@
  * Section view: a meridian or a parallel through the common grid, or the zonal mean of a region, with
  * depth downwards and the seafloor drawn; the run, the reference or their difference.
  */
+import { periodLabel } from '../../app/render/period-labels.js';
 import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
 import type { SectionData } from '../../contract/view-types.js';
 import { getSection } from '../service-client.js';
@@ -59,9 +60,10 @@ function describe(st: AppState, whole: SectionData): Built['spec'] | null {
   let deepest = 0;
   for (const f of data.seafloor) if (Number.isFinite(f) && f > deepest) deepest = f;
   const depthMax = st.sel.sectionDepth ?? (deepest > 0 ? deepest : data.depthEdges[data.depthEdges.length - 1]);
+  const when = data.period !== 'annual' || st.session!.periods.length > 1 ? `${periodLabel(data.period)}. ` : '';
   return {
     title: `${name}: ${who}`,
-    subtitle: where,
+    subtitle: `${when}${where}`,
     edges: data.edges,
     axisLabel: data.axis === 'latitude' ? 'Latitude (degrees north)' : 'Longitude (degrees east)',
     formatX: data.axis === 'latitude' ? latText : lonText,
@@ -131,7 +133,7 @@ export const sectionView: ViewFactory = (el) => {
     if (!built) note(stage, 'Reading all levels for the section…', 'busy');
     let data: SectionData;
     try {
-      data = await getSection(session.session, st.sel.variable, st.sel.run, st.sel.sectionKind, st.sel.sectionAt, st.sel.region);
+      data = await getSection(session.session, st.sel.variable, st.sel.run, st.sel.sectionKind, st.sel.sectionAt, st.sel.region, st.sel.period);
     } catch (e) {
       if (my === token) note(stage, errorText(e), 'error');
       return;
@@ -144,7 +146,7 @@ export const sectionView: ViewFactory = (el) => {
     const height = Math.max(300, Math.min(Math.floor(stage.clientHeight || 520), Math.round(width * 0.62)));
     const { svg } = sectionFigure({ ...spec, width, height });
     stage.replaceChildren(svg);
-    stage.dataset.drawn = `${data.variable}|${data.run}|${data.kind}|${data.at ?? data.region}`;
+    stage.dataset.drawn = `${data.variable}|${data.run}|${data.kind}|${data.at ?? data.region}|${data.period}`;
   };
 
   return {
