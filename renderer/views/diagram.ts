@@ -99,7 +99,8 @@ export const diagramView: ViewFactory = (el) => {
     const w = Math.floor(stage.clientWidth || 900);
     const hgt = Math.floor(stage.clientHeight || 600);
     stage.replaceChildren(screenFigure(fig, Math.max(480, Math.min(w, (hgt * fig.widthPt) / fig.heightPt))));
-    stage.dataset.drawn = `${st.sel.diagram}|${st.sel.variable}|${layer}${zoom && st.sel.diagram === 'taylor' ? '|zoom' : ''}|${st.sel.period}`;
+    stage.dataset.drawn = `${st.sel.diagram}|${st.sel.variable}|${layer}${zoom && st.sel.diagram === 'taylor' ? '|zoom' : ''}`;
+    stage.dataset.period = st.sel.period;
   };
 
   return {

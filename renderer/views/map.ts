@@ -354,7 +354,8 @@ export function mapView(difference: boolean): ViewFactory {
         performance.mark('map-first-draw');
       }
       const w = st.sel.mapWindow;
-      stage.dataset.drawn = `${data.variable}|${data.run}|${data.layer.id}|${st.sel.projection}|${difference ? 'diff' : st.sel.mapField}|${data.period}`;
+      stage.dataset.drawn = `${data.variable}|${data.run}|${data.layer.id}|${st.sel.projection}|${difference ? 'diff' : st.sel.mapField}`;
+      stage.dataset.period = data.period;
       stage.dataset.look = `${scaleOf(choice).name}|${choice.log ? 'log' : 'linear'}|${w ? [w.xmin, w.xmax, w.ymin, w.ymax].map((v) => Math.round(v)).join(',') : 'whole'}|${cells ? st.sel.region : 'all'}|${st.sel.contours ? 'contours' : ''}`;
       showRegionStats(st, data);
       if (stations && stationsMark && fig) {

@@ -134,6 +134,7 @@ export const profileView: ViewFactory = (el) => {
     const hgt = Math.floor(stage.clientHeight || 600);
     stage.replaceChildren(screenFigure(fig, Math.max(480, Math.min(w, (hgt * fig.widthPt) / fig.heightPt))));
     stage.dataset.drawn = `cycle|${d.variable}|${d.run}|${d.region}|${d.layer.id}`;
+    delete stage.dataset.period;
   };
 
   const draw = async (st: AppState): Promise<void> => {
@@ -155,7 +156,8 @@ export const profileView: ViewFactory = (el) => {
     const width = Math.max(480, Math.floor(stage.clientWidth || 900));
     const height = Math.max(320, Math.min(Math.floor(stage.clientHeight || 560), Math.round(width * 0.7)));
     stage.replaceChildren(profileFigure(last, width, height, depthMax ?? fullDepth(last), session.reference.label, name()));
-    stage.dataset.drawn = `${last.variable}|${last.region}|${last.period}`;
+    stage.dataset.drawn = `${last.variable}|${last.region}`;
+    stage.dataset.period = last.period;
   };
   return {
     update(st, changed) {

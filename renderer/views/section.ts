@@ -146,7 +146,8 @@ export const sectionView: ViewFactory = (el) => {
     const height = Math.max(300, Math.min(Math.floor(stage.clientHeight || 520), Math.round(width * 0.62)));
     const { svg } = sectionFigure({ ...spec, width, height });
     stage.replaceChildren(svg);
-    stage.dataset.drawn = `${data.variable}|${data.run}|${data.kind}|${data.at ?? data.region}|${data.period}`;
+    stage.dataset.drawn = `${data.variable}|${data.run}|${data.kind}|${data.at ?? data.region}`;
+    stage.dataset.period = data.period;
   };
 
   return {

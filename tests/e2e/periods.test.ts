@@ -17,15 +17,19 @@ const HERE = join(FX, 'views-periods');
 const expected = JSON.parse(readFileSync(join(HERE, 'expected.json'), 'utf8'));
 const MONTHS = ['JAN', 'FEB', 'MAR', 'APR', 'MAY', 'JUN', 'JUL', 'AUG', 'SEP', 'OCT', 'NOV', 'DEC'];
 
-/** Wait until a view has drawn what `data-drawn` says (ending with `end`, or starting with `start`). */
-async function drawnAs(page: Page, view: string, want: { end?: string; start?: string }): Promise<string> {
+/**
+ * Wait until a view has drawn: `data-drawn` ending with `end` or starting with `start`, and `data-period` (the
+ * period drawn) equal to `period`.
+ */
+async function drawnAs(page: Page, view: string, want: { end?: string; start?: string; period?: string }): Promise<string> {
   const sel = `.view-${view} [data-drawn]`;
   await page.waitForFunction(
-    ([s, end, start]) => {
-      const d = document.querySelector(s)?.getAttribute('data-drawn');
-      return typeof d === 'string' && d.endsWith(end) && d.startsWith(start);
+    ([s, end, start, period]) => {
+      const e = document.querySelector(s);
+      const d = e?.getAttribute('data-drawn');
+      return typeof d === 'string' && d.endsWith(end) && d.startsWith(start) && (period === '' || e?.getAttribute('data-period') === period);
     },
-    [sel, want.end ?? '', want.start ?? ''] as const,
+    [sel, want.end ?? '', want.start ?? '', want.period ?? ''] as const,
     { timeout: SLOW },
   );
   return (await page.getAttribute(sel, 'data-drawn')) ?? '';
@@ -74,13 +78,13 @@ describe.skipIf(!canRunBrowser)('the period of the year in the workbench', () =>
   });
 
   it("choosing January changes the map to January's values (xarray's monthly grouping of the fixture)", async () => {
-    await drawnAs(page, 'map', { end: '|annual' });
+    await drawnAs(page, 'map', { period: 'annual' });
     const before = await canvasDigest(page);
     // 135° E, 0° N is the cell (row 1, column 1) of the 4 × 3 fixture grid, level 0 (5 m)
     const annual = await probeAt(page, 135, 0);
     expect(annual.cell).toBe(5);
     await page.selectOption('#choose-period', 'JAN');
-    await drawnAs(page, 'map', { end: '|JAN' });
+    await drawnAs(page, 'map', { period: 'JAN' });
     await page.waitForFunction((old) => Number((document.querySelector('#probe-values dd[data-probe="model"]') as HTMLElement | null)?.dataset.value) !== old, annual.model, { timeout: SLOW });
     const jan = await probeAt(page, 135, 0);
     expect(jan.model).toBeCloseTo(expected.run.months[0][5], 5);
@@ -90,25 +94,25 @@ describe.skipIf(!canRunBrowser)('the period of the year in the workbench', () =>
     await wb.shot('periods-map-january');
     // April, the peak of the fixture's cycle
     await page.selectOption('#choose-period', 'APR');
-    await drawnAs(page, 'map', { end: '|APR' });
+    await drawnAs(page, 'map', { period: 'APR' });
     const apr = await probeAt(page, 135, 0);
     expect(apr.model).toBeCloseTo(expected.run.months[3][5], 5);
     await page.selectOption('#choose-period', 'JAN');
-    await drawnAs(page, 'map', { end: '|JAN' });
+    await drawnAs(page, 'map', { period: 'JAN' });
   }, SLOW);
 
   it('Difference, Section, Profile, Diagram and Scores follow the period', async () => {
     await page.click('#tab-difference');
-    await drawnAs(page, 'difference', { end: '|diff|JAN' });
+    await drawnAs(page, 'difference', { end: '|diff', period: 'JAN' });
     await wb.shot('periods-difference-january');
     await page.click('#tab-section');
     await page.fill('#section-at', '135').catch(() => undefined);
-    await drawnAs(page, 'section', { end: '|JAN' });
+    await drawnAs(page, 'section', { period: 'JAN' });
     await page.click('#tab-profile');
-    await drawnAs(page, 'profile', { end: '|JAN' });
+    await drawnAs(page, 'profile', { period: 'JAN' });
     expect(await page.textContent('.view-profile svg')).toContain('January');
     await page.click('#tab-diagram');
-    await drawnAs(page, 'diagram', { end: '|JAN' });
+    await drawnAs(page, 'diagram', { period: 'JAN' });
     await page.click('#tab-scores');
     await page.waitForSelector('#scores-table tbody tr', { timeout: SLOW });
     await page.waitForFunction(() => /January/.test(document.querySelector('#scores-count')?.textContent ?? ''), undefined, { timeout: SLOW });
@@ -164,11 +168,11 @@ describe.skipIf(!canRunBrowser)('a period the recipe has no data for', () => {
       expect(await page.inputValue('#choose-period')).toBe('annual');
       expect(await page.$eval('#choose-period option[value="JAN"]', (o) => (o as HTMLOptionElement).disabled)).toBe(true);
       expect(await page.$eval('#choose-period option[value="DJF"]', (o) => (o as HTMLOptionElement).disabled)).toBe(false);
-      await drawnAs(page, 'map', { end: '|annual' });
+      await drawnAs(page, 'map', { period: 'annual' });
       await wb.shot('periods-refused-january');
       // a season it has is taken, and the sentence goes
       await page.selectOption('#choose-period', 'DJF');
-      await drawnAs(page, 'map', { end: '|DJF' });
+      await drawnAs(page, 'map', { period: 'DJF' });
       expect(await page.$('#period-refused')).toBeNull();
       expect(wb.consoleErrors).toEqual([]);
     } finally {
