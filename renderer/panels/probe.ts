@@ -62,6 +62,9 @@ export function probePanel(el: HTMLElement): void {
     const g = session.grid;
     const c = cellAt(g.lonEdges, g.latEdges, p.lon, p.lat);
     table.replaceChildren();
+    // what the values are of, so that a reader (a person's script, a test) can wait for the right ones
+    table.dataset.period = data.period;
+    table.dataset.at = `${p.lon},${p.lat}`;
     row('Position', `${fmtLon(p.lon)}, ${fmtLat(p.lat)}`, 'position');
     if (c < 0) {
       row('Cell', 'outside the common grid', 'cell');

@@ -35,12 +35,23 @@ async function drawnAs(page: Page, view: string, want: { end?: string; start?: s
   return (await page.getAttribute(sel, 'data-drawn')) ?? '';
 }
 
-/** The probe's numbers at a place (as the probe panel shows them, data-value attributes). */
-async function probeAt(page: Page, lon: number, lat: number): Promise<{ model: number; reference: number; cell: number }> {
+/**
+ * The probe's numbers at a place for a period (as the probe panel shows them, data-value attributes), once the
+ * panel says it shows that place and period (its data-at and data-period): values of an earlier request may
+ * still be on screen when a new one is on its way.
+ */
+async function probeAt(page: Page, lon: number, lat: number, period: string): Promise<{ model: number; reference: number; cell: number }> {
   await page.fill('#probe-lon', String(lon));
   await page.fill('#probe-lat', String(lat));
   await page.click('#probe-go');
-  await page.waitForSelector('#probe-values dd[data-probe="model"]', { timeout: SLOW });
+  await page.waitForFunction(
+    ([at, p]) => {
+      const t = document.querySelector('#probe-values') as HTMLElement | null;
+      return t?.dataset.at === at && t.dataset.period === p && t.querySelector('dd[data-probe="model"]') !== null;
+    },
+    [`${lon},${lat}`, period] as const,
+    { timeout: SLOW },
+  );
   return page.evaluate(() => {
     const get = (k: string) => Number((document.querySelector(`#probe-values dd[data-probe="${k}"]`) as HTMLElement).dataset.value);
     return { model: get('model'), reference: get('reference'), cell: get('cell') };
@@ -81,12 +92,12 @@ describe.skipIf(!canRunBrowser)('the period of the year in the workbench', () =>
     await drawnAs(page, 'map', { period: 'annual' });
     const before = await canvasDigest(page);
     // 135° E, 0° N is the cell (row 1, column 1) of the 4 × 3 fixture grid, level 0 (5 m)
-    const annual = await probeAt(page, 135, 0);
+    const annual = await probeAt(page, 135, 0, 'annual');
     expect(annual.cell).toBe(5);
     await page.selectOption('#choose-period', 'JAN');
     await drawnAs(page, 'map', { period: 'JAN' });
-    await page.waitForFunction((old) => Number((document.querySelector('#probe-values dd[data-probe="model"]') as HTMLElement | null)?.dataset.value) !== old, annual.model, { timeout: SLOW });
-    const jan = await probeAt(page, 135, 0);
+    const jan = await probeAt(page, 135, 0, 'JAN');
+    expect(jan.model).not.toBe(annual.model);
     expect(jan.model).toBeCloseTo(expected.run.months[0][5], 5);
     expect(jan.reference).toBeCloseTo(expected.reference.months[0][5], 5);
     expect(await canvasDigest(page)).not.toBe(before);
@@ -95,7 +106,7 @@ describe.skipIf(!canRunBrowser)('the period of the year in the workbench', () =>
     // April, the peak of the fixture's cycle
     await page.selectOption('#choose-period', 'APR');
     await drawnAs(page, 'map', { period: 'APR' });
-    const apr = await probeAt(page, 135, 0);
+    const apr = await probeAt(page, 135, 0, 'APR');
     expect(apr.model).toBeCloseTo(expected.run.months[3][5], 5);
     await page.selectOption('#choose-period', 'JAN');
     await drawnAs(page, 'map', { period: 'JAN' });
@@ -130,7 +141,9 @@ describe.skipIf(!canRunBrowser)('the period of the year in the workbench', () =>
     await page.click('#tab-profile');
     await page.click('#profile-mode button:has-text("Monthly cycle")');
     await page.selectOption('#choose-layer', 'all');
-    const drawn = await drawnAs(page, 'profile', { start: 'cycle|' });
+    // wait for the cycle of the layer chosen: the cycle of the layer before it (the map's level) may be drawn
+    // first when it comes back before the layer changes
+    const drawn = await drawnAs(page, 'profile', { start: 'cycle|', end: '|all' });
     expect(drawn).toBe('cycle|X|Run|global|all');
     const text = await page.textContent('.view-profile svg');
     expect(text).toContain('monthly cycle');

@@ -90,7 +90,8 @@ describe.skipIf(!canRunBrowser)('workbench views in Chromium', () => {
     await page.fill('#probe-lon', String(lon));
     await page.fill('#probe-lat', String(lat));
     await page.click('#probe-go');
-    await page.waitForSelector('#probe-values dd[data-probe="model"]', { timeout: SLOW });
+    // the panel says which position it shows (data-at) once that position's values are in
+    await page.waitForFunction((at) => (document.querySelector('#probe-values') as HTMLElement | null)?.dataset.at === at, `${lon},${lat}`, { timeout: SLOW });
     const shown = await page.evaluate(() => {
       const get = (k: string) => Number((document.querySelector(`#probe-values dd[data-probe="${k}"]`) as HTMLElement).dataset.value);
       return { model: get('model'), reference: get('reference'), difference: get('difference'), volume: get('volume'), cell: get('cell') };
