@@ -13,6 +13,7 @@ const nodeEntries = [
   { in: 'main/cli.ts', out: 'cli.mjs', format: 'esm' },
   { in: 'main/worker.ts', out: 'worker.mjs', format: 'esm' },
   { in: 'main/hdf5-worker.ts', out: 'hdf5-worker.mjs', format: 'esm' },
+  { in: 'main/png-worker.ts', out: 'png-worker.mjs', format: 'esm' },
   { in: 'main/electron-main.ts', out: 'electron-main.cjs', format: 'cjs', external: ['electron'] },
   { in: 'main/preload.ts', out: 'preload.cjs', format: 'cjs', external: ['electron'] },
 ];

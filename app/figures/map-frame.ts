@@ -15,7 +15,113 @@ export function panelTransform(p: MapProjection, r: Rect): ToPanel {
   return (x, y) => [r.x + ((x - e.xmin) / (e.xmax - e.xmin)) * r.w, r.y + ((e.ymax - y) / (e.ymax - e.ymin)) * r.h];
 }
 
-function pathOf(p: MapProjection, lines: [number, number][][], to: ToPanel): string {
+/**
+ * Polylines cut to a rectangle as they are drawn (Liang–Barsky clipping of each segment), so a panel needs no
+ * SVG clip path: a rasteriser draws every clip path as a layer the size of the whole figure, which made each
+ * map figure several times slower and heavier to rasterise.
+ */
+export class ClippedPath {
+  private readonly parts: string[] = [];
+  private x = NaN;
+  private y = NaN;
+  /** where the pen is in the output (after the last point drawn), NaN when lifted */
+  private penX = NaN;
+  private penY = NaN;
+
+  constructor(private readonly r: Rect, private readonly round: (v: number) => number = r2) {}
+
+  moveTo(x: number, y: number): void {
+    this.x = x;
+    this.y = y;
+    this.penX = NaN;
+    if (this.inside(x, y)) this.emit('M', x, y);
+  }
+
+  lineTo(x: number, y: number): void {
+    const x0 = this.x;
+    const y0 = this.y;
+    this.x = x;
+    this.y = y;
+    if (x0 !== x0) return this.moveTo(x, y);
+    const c = this.clip(x0, y0, x, y);
+    if (!c) {
+      this.penX = NaN;
+      return;
+    }
+    const [ax, ay, bx, by] = c;
+    if (this.penX !== ax || this.penY !== ay) this.emit('M', ax, ay);
+    this.emit('L', bx, by);
+    if (bx !== x || by !== y) this.penX = NaN;
+  }
+
+  /** lift the pen: the next point starts a new piece */
+  lift(): void {
+    this.x = NaN;
+    this.penX = NaN;
+  }
+
+  toString(): string {
+    return this.parts.join('');
+  }
+
+  private inside(x: number, y: number): boolean {
+    const r = this.r;
+    return x >= r.x && x <= r.x + r.w && y >= r.y && y <= r.y + r.h;
+  }
+
+  private emit(cmd: 'M' | 'L', x: number, y: number): void {
+    this.parts.push(`${cmd}${this.round(x)},${this.round(y)}`);
+    this.penX = x;
+    this.penY = y;
+  }
+
+  private clip(x0: number, y0: number, x1: number, y1: number): [number, number, number, number] | null {
+    const r = this.r;
+    const dx = x1 - x0;
+    const dy = y1 - y0;
+    let t0 = 0;
+    let t1 = 1;
+    const edges: [number, number][] = [
+      [-dx, x0 - r.x],
+      [dx, r.x + r.w - x0],
+      [-dy, y0 - r.y],
+      [dy, r.y + r.h - y0],
+    ];
+    for (const [p, q] of edges) {
+      if (p === 0) {
+        if (q < 0) return null;
+      } else {
+        const t = q / p;
+        if (p < 0) {
+          if (t > t1) return null;
+          if (t > t0) t0 = t;
+        } else {
+          if (t < t0) return null;
+          if (t < t1) t1 = t;
+        }
+      }
+    }
+    return [t0 === 0 ? x0 : x0 + t0 * dx, t0 === 0 ? y0 : y0 + t0 * dy, t1 === 1 ? x1 : x0 + t1 * dx, t1 === 1 ? y1 : y0 + t1 * dy];
+  }
+}
+
+function pathOf(p: MapProjection, lines: [number, number][][], to: ToPanel, clipTo?: Rect): string {
+  if (clipTo) {
+    const path = new ClippedPath(clipTo);
+    for (const line of lines) {
+      path.lift();
+      for (const [lon, lat] of line) {
+        const q = p.forward(lon, lat);
+        if (!q) {
+          path.lift();
+          continue;
+        }
+        const [fx, fy] = to(q[0], q[1]);
+        path.lineTo(fx, fy);
+      }
+    }
+    return path.toString();
+  }
   let d = '';
   for (const line of lines) {
     let pen = false;
@@ -35,7 +141,7 @@ function pathOf(p: MapProjection, lines: [number, number][][], to: ToPanel): str
 
 const clampLon = (lon: number): number => Math.max(-179.999, Math.min(179.999, lon));
 
-export function graticulePath(p: MapProjection, to: ToPanel): string {
+export function graticulePath(p: MapProjection, to: ToPanel, clipTo?: Rect): string {
   const lines: [number, number][][] = [];
   for (let lon = -180; lon <= 180; lon += 60) {
     const pts: [number, number][] = [];
@@ -49,7 +155,7 @@ export function graticulePath(p: MapProjection, to: ToPanel): string {
     for (let lon = -180; lon <= 180; lon += 2) pts.push([clampLon(lon), lat]);
     lines.push(pts);
   }
-  return pathOf(p, lines, to);
+  return pathOf(p, lines, to, clipTo);
 }
 
 export function outlinePath(p: MapProjection, to: ToPanel): string {
@@ -66,34 +172,34 @@ export function outlinePath(p: MapProjection, to: ToPanel): string {
   return pathOf(p, [pts], to) + 'Z';
 }
 
-/** Coastlines as one path; points closer than `minStep` (pt) to the last one kept are dropped, as print cannot show them. */
-export function coastPath(coast: Float64Array[], to: ToPanel, minStep = 0.35): string {
-  const parts: string[] = [];
+/**
+ * Coastlines as one path cut to the panel `clipTo`; points closer than `minStep` (pt) to the last one kept are
+ * dropped, as print cannot show them.
+ */
+export function coastPath(coast: Float64Array[], to: ToPanel, clipTo: Rect, minStep = 0.35): string {
+  const path = new ClippedPath(clipTo, (v) => Math.round(v * 10) / 10);
   for (const line of coast) {
     let lx = NaN;
     let ly = NaN;
     const n = line.length / 2;
+    path.lift();
     for (let i = 0; i < n; i++) {
       const [fx, fy] = to(line[2 * i], line[2 * i + 1]);
       if (i > 0 && i < n - 1 && Math.abs(fx - lx) < minStep && Math.abs(fy - ly) < minStep) continue;
-      parts.push(`${i === 0 ? 'M' : 'L'}${Math.round(fx * 10) / 10},${Math.round(fy * 10) / 10}`);
+      path.lineTo(fx, fy);
       lx = fx;
       ly = fy;
     }
   }
-  return parts.join('');
+  return path.toString();
 }
 
-let clipCounter = 0;
-
-/** Graticule, coastlines and outline over a panel, clipped to it; labels when asked (equirectangular only). */
+/** Graticule, coastlines and outline over a panel, cut to it; labels when asked (equirectangular only). */
 export function mapOverlay(p: MapProjection, r: Rect, coast: Float64Array[], labels: { lat: boolean; lon: boolean }): SvgNode {
   const to = panelTransform(p, r);
-  const id = `mclip${++clipCounter}`;
   const g = el('g', { class: 'map-frame' });
-  g.append(el('defs', {}, el('clipPath', { id }, el('rect', { x: r2(r.x), y: r2(r.y), width: r2(r.w), height: r2(r.h) }))));
-  g.append(el('path', { d: graticulePath(p, to), fill: 'none', stroke: '#ffffff', 'stroke-opacity': 0.6, 'stroke-width': 0.3, 'clip-path': `url(#${id})` }));
-  g.append(el('path', { d: coastPath(coast, to), fill: 'none', stroke: '#2b2f33', 'stroke-width': 0.35, 'stroke-linejoin': 'round', 'clip-path': `url(#${id})`, class: 'coastline' }));
+  g.append(el('path', { d: graticulePath(p, to, r), fill: 'none', stroke: '#ffffff', 'stroke-opacity': 0.6, 'stroke-width': 0.3 }));
+  g.append(el('path', { d: coastPath(coast, to, r), fill: 'none', stroke: '#2b2f33', 'stroke-width': 0.35, 'stroke-linejoin': 'round', class: 'coastline' }));
   g.append(el('path', { d: outlinePath(p, to), fill: 'none', stroke: INK, 'stroke-width': 0.5 }));
   if (p.info.id === 'plate') {
     if (labels.lon) {

@@ -102,7 +102,8 @@ export function mapPanelsFigure(spec: MapPanelsSpec): Figure {
       noDataNote(g, r, 'No compared cells here: nothing to draw for this layer');
     } else {
       const raster = paintMap(p, spec.grid, values, diverging ? DIVERGING : SEQUENTIAL, lim[0], lim[1], pxW);
-      g.append(el('image', { x: r2(r.x), y: r2(r.y), width: r2(r.w), height: r2(r.h), preserveAspectRatio: 'none', href: raster.url }));
+      // cells stay blocks (no smoothing across their edges), and rasterisers draw it several times faster
+      g.append(el('image', { x: r2(r.x), y: r2(r.y), width: r2(r.w), height: r2(r.h), preserveAspectRatio: 'none', 'image-rendering': 'optimizeSpeed', href: raster.url }));
     }
     g.append(mapOverlay(p, r, spec.coast, { lat: left, lon: lastRow }));
     return g;

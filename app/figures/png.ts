@@ -5,6 +5,19 @@
  */
 import { zlibSync } from 'fflate';
 
+/** zlib (RFC 1950) compression of a PNG's filtered rows. */
+export type ZlibDeflate = (data: Uint8Array) => Uint8Array;
+
+let deflate: ZlibDeflate = (data) => zlibSync(data, { level: 6 });
+
+/**
+ * Use another zlib compressor, e.g. Node's native one on the command line (about 3.5× faster than fflate on a
+ * map raster); the screen keeps fflate. The bytes differ, the pixels do not.
+ */
+export function useDeflate(fn: ZlibDeflate): void {
+  deflate = fn;
+}
+
 const CRC_TABLE = (() => {
   const t = new Uint32Array(256);
   for (let n = 0; n < 256; n++) {
@@ -66,7 +79,7 @@ export function encodePng(rgba: Uint8Array, width: number, height: number, dpi?:
   ihdr[9] = 6; // colour type: truecolour with alpha
   const parts = [new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr)];
   if (dpi !== undefined) parts.push(chunk('pHYs', physData(dpi)));
-  parts.push(chunk('IDAT', zlibSync(raw, { level: 6 })), chunk('IEND', new Uint8Array(0)));
+  parts.push(chunk('IDAT', deflate(raw)), chunk('IEND', new Uint8Array(0)));
   const total = parts.reduce((n, p) => n + p.length, 0);
   const out = new Uint8Array(total);
   let o = 0;

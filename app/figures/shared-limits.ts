@@ -5,43 +5,78 @@
  * stretch the scale.
  */
 
+/** Bins of the first pass: only the cells of the bin where a quantile falls are sorted. */
+const BINS = 4096;
+
 /**
- * The q-quantile (0..1) of values with weights, the inverted empirical distribution function: the smallest
- * value whose cumulative weight reaches q of the total (numpy's percentile, method "inverted_cdf", on a
- * sample where every value appears in proportion to its weight). NaN values and non-positive weights are
- * skipped; null when nothing is left.
+ * The q-quantiles (0..1) of values with weights, the inverted empirical distribution function: for each q the
+ * smallest value whose cumulative weight reaches q of the total (numpy's percentile, method "inverted_cdf", on
+ * a sample where every value appears in proportion to its weight). NaN values and non-positive weights are
+ * skipped; null when nothing is left. A histogram of the weights finds the bin where each quantile falls, and
+ * only that bin's cells are sorted (the result is the full sort's; sorting a whole level took most of a figure).
  */
-export function weightedQuantile(values: ArrayLike<number>[], weights: ArrayLike<number>[], q: number): number | null {
+export function weightedQuantiles(values: ArrayLike<number>[], weights: ArrayLike<number>[], qs: number[]): (number | null)[] {
   let n = 0;
-  for (let a = 0; a < values.length; a++) for (let i = 0; i < values[a].length; i++) if (values[a][i] === values[a][i] && weights[a][i] > 0) n++;
-  if (n === 0) return null;
-  const v = new Float64Array(n);
-  const w = new Float64Array(n);
-  let p = 0;
+  let lo = Infinity;
+  let hi = -Infinity;
   let total = 0;
   for (let a = 0; a < values.length; a++) {
     const va = values[a];
     const wa = weights[a];
     for (let i = 0; i < va.length; i++) {
-      if (va[i] === va[i] && wa[i] > 0) {
-        v[p] = va[i];
-        w[p] = wa[i];
+      const x = va[i];
+      if (x === x && wa[i] > 0) {
+        n++;
         total += wa[i];
-        p++;
+        if (x < lo) lo = x;
+        if (x > hi) hi = x;
       }
     }
   }
-  const order = new Uint32Array(n);
-  for (let i = 0; i < n; i++) order[i] = i;
-  order.sort((a, b) => v[a] - v[b]);
-  const target = Math.min(1, Math.max(0, q)) * total;
-  let cum = 0;
-  for (let i = 0; i < n; i++) {
-    cum += w[order[i]];
-    // relative tolerance: the running sum differs from numpy's normalised cumulative sum by round-off only
-    if (cum >= target * (1 - 1e-12)) return v[order[i]];
+  if (n === 0) return qs.map(() => null);
+  if (!(hi > lo)) return qs.map(() => lo);
+  const scale = BINS / (hi - lo);
+  const binOf = (x: number): number => Math.min(BINS - 1, Math.floor((x - lo) * scale));
+  const binWeight = new Float64Array(BINS);
+  for (let a = 0; a < values.length; a++) {
+    const va = values[a];
+    const wa = weights[a];
+    for (let i = 0; i < va.length; i++) if (va[i] === va[i] && wa[i] > 0) binWeight[binOf(va[i])] += wa[i];
   }
-  return v[order[n - 1]];
+  return qs.map((q) => {
+    // relative tolerance: the running sum differs from numpy's normalised cumulative sum by round-off only
+    const target = Math.min(1, Math.max(0, q)) * total * (1 - 1e-12);
+    let cum = 0;
+    for (let b = 0; b < BINS; b++) {
+      if (binWeight[b] === 0 || cum + binWeight[b] < target) {
+        cum += binWeight[b];
+        continue;
+      }
+      const v: number[] = [];
+      const w: number[] = [];
+      for (let a = 0; a < values.length; a++) {
+        const va = values[a];
+        const wa = weights[a];
+        for (let i = 0; i < va.length; i++) {
+          if (va[i] === va[i] && wa[i] > 0 && binOf(va[i]) === b) {
+            v.push(va[i]);
+            w.push(wa[i]);
+          }
+        }
+      }
+      const order = v.map((_, i) => i).sort((x, y) => v[x] - v[y]);
+      for (const i of order) {
+        cum += w[i];
+        if (cum >= target) return v[i];
+      }
+    }
+    return hi;
+  });
+}
+
+/** One weighted quantile (see weightedQuantiles). */
+export function weightedQuantile(values: ArrayLike<number>[], weights: ArrayLike<number>[], q: number): number | null {
+  return weightedQuantiles(values, weights, [q])[0];
 }
 
 export interface SharedLimits {
@@ -60,8 +95,7 @@ export interface SharedLimits {
  */
 export function sharedLimits(fields: ArrayLike<number>[], differences: ArrayLike<number>[], area: ArrayLike<number>, fixed?: number | null): SharedLimits {
   const fw = fields.map(() => area);
-  const lo = weightedQuantile(fields, fw, 0.02);
-  const hi = weightedQuantile(fields, fw, 0.98);
+  const [lo, hi] = weightedQuantiles(fields, fw, [0.02, 0.98]);
   let field: [number, number] | null = null;
   if (lo !== null && hi !== null) {
     if (hi > lo) field = [lo, hi];

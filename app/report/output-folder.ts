@@ -4,7 +4,7 @@
  * discard() removes it. A report folder is complete or absent. The one place to switch to a shared output
  * layer once there is one.
  */
-import { mkdir, rename, rm, stat, writeFile } from 'node:fs/promises';
+import { appendFile, mkdir, readFile, rename, rm, stat, writeFile } from 'node:fs/promises';
 import { basename, dirname, join } from 'node:path';
 import { StillwaterError } from '../errors.js';
 
@@ -12,6 +12,10 @@ export interface OutputFolder {
   /** where files go until commit */
   readonly staging: string;
   write(relativePath: string, data: string | Uint8Array): Promise<void>;
+  /** add to a file written before (or start it) */
+  append(relativePath: string, data: string): Promise<void>;
+  /** read back a text file written before commit */
+  readText(relativePath: string): Promise<string>;
   commit(): Promise<void>;
   discard(): Promise<void>;
 }
@@ -35,6 +39,14 @@ export async function openOutputFolder(target: string): Promise<OutputFolder> {
       const path = join(staging, rel);
       await mkdir(dirname(path), { recursive: true });
       await writeFile(path, data);
+    },
+    async append(rel, data) {
+      const path = join(staging, rel);
+      await mkdir(dirname(path), { recursive: true });
+      await appendFile(path, data);
+    },
+    async readText(rel) {
+      return readFile(join(staging, rel), 'utf8');
     },
     async commit() {
       const before = await stat(target).catch(() => null);

@@ -10,8 +10,8 @@ import { shortNumber, typesetUnits } from '../figures/typeset.js';
 export interface HtmlFigure {
   name: string;
   title: string;
-  /** the SVG text of the figure */
-  svg: string;
+  /** the SVG text of the figure; without it, writeReportHtml asks for it when it gets there */
+  svg?: string;
 }
 
 export interface HtmlSection {
@@ -69,17 +69,16 @@ function plainTable(t: string[][]): string {
   return `<table><thead><tr>${head.map((h) => `<th>${escapeXml(h)}</th>`).join('')}</tr></thead><tbody>${rows.map((r) => `<tr>${r.map((c) => `<td class="text">${escapeXml(c)}</td>`).join('')}</tr>`).join('')}</tbody></table>`;
 }
 
-export function reportHtml(page: ReportPage): string {
-  const parts: string[] = [];
+/** The page as text pieces with the figures left in place, so a writer can fetch each figure's SVG when it gets there. */
+function htmlPieces(page: ReportPage): (string | HtmlFigure)[] {
+  const parts: (string | HtmlFigure)[] = [];
   parts.push('<!DOCTYPE html>', '<html lang="en"><head><meta charset="utf-8">', `<title>${escapeXml(page.title)}</title>`);
   parts.push('<meta name="viewport" content="width=device-width, initial-scale=1">', `<style>${CSS}</style></head><body>`);
   parts.push(`<h1>${escapeXml(page.title)}</h1>`, '<h2 id="compared">What was compared</h2>', facts(page.compared));
   for (const s of page.sections) {
     parts.push(`<h2 id="${escapeXml(s.heading.toLowerCase().replace(/[^a-z0-9]+/g, '-'))}">${escapeXml(s.heading)}</h2>`);
     if (s.intro) parts.push(`<p>${escapeXml(s.intro)}</p>`);
-    for (const f of s.figures) {
-      parts.push(`<figure id="${escapeXml(f.name)}">${inlineSvg(f.svg)}<figcaption>${escapeXml(f.title)} (figures/${escapeXml(f.name)}.svg, .png)</figcaption></figure>`);
-    }
+    for (const f of s.figures) parts.push(f);
     if (s.table) parts.push(plainTable(s.table));
     if (s.rows) parts.push(rowsTable(s.rows));
   }
@@ -87,5 +86,30 @@ export function reportHtml(page: ReportPage): string {
   parts.push(page.cautions.length ? `<ul class="cautions">${page.cautions.map((c) => `<li>${escapeXml(c)}</li>`).join('')}</ul>` : '<p>None of the usual cautions applies.</p>');
   parts.push('<h2 id="provenance">Provenance</h2>', facts(page.provenance), '<p>Every input with its size and SHA-256 is in provenance.json beside this file.</p>');
   parts.push('</body></html>\n');
-  return parts.join('\n');
+  return parts;
+}
+
+function figureHtml(f: HtmlFigure, svg: string): string {
+  return `<figure id="${escapeXml(f.name)}">${inlineSvg(svg)}<figcaption>${escapeXml(f.title)} (figures/${escapeXml(f.name)}.svg, .png)</figcaption></figure>`;
+}
+
+export function reportHtml(page: ReportPage): string {
+  return htmlPieces(page).map((p) => (typeof p === 'string' ? p : figureHtml(p, p.svg ?? ''))).join('\n');
+}
+
+/**
+ * The same page written piece by piece: each figure's SVG is fetched (`svgOf`) only when its turn comes, so
+ * the report never holds every figure's text at once.
+ */
+export async function writeReportHtml(page: ReportPage, append: (text: string) => Promise<void>, svgOf: (f: HtmlFigure) => Promise<string>): Promise<void> {
+  const pieces = htmlPieces(page);
+  let buffered: string[] = [];
+  for (let i = 0; i < pieces.length; i++) {
+    const p = pieces[i];
+    buffered.push(typeof p === 'string' ? p : figureHtml(p, p.svg ?? (await svgOf(p))));
+    if (typeof p !== 'string' || i === pieces.length - 1) {
+      await append(buffered.join('\n') + (i === pieces.length - 1 ? '' : '\n'));
+      buffered = [];
+    }
+  }
 }

@@ -34,7 +34,7 @@ import { skillJson } from './skill-json.js';
 import { skillLatex } from './latex.js';
 import { skillMarkdown } from './markdown.js';
 import { openOutputFolder } from './output-folder.js';
-import { reportHtml, type HtmlFigure, type HtmlSection } from './report-html.js';
+import { writeReportHtml, type HtmlFigure, type HtmlSection, type ReportPage } from './report-html.js';
 import { reportSettings, type ReportSettings } from './report-settings.js';
 import type { Provenance } from './types.js';
 import { slug, variableFigures, type FigureContext } from './variable-figures.js';
@@ -48,6 +48,8 @@ export interface ReportOptions {
   land: Ring[];
   /** SVG text → PNG bytes `widthPx` wide (the caller's rasteriser; the core stays free of native code) */
   toPng: (svg: string, widthPx: number) => Uint8Array | Promise<Uint8Array>;
+  /** how many figures `toPng` may rasterise at once (its threads): the comparison goes on meanwhile */
+  pngParallel?: number;
   cacheDir?: string;
   signal?: AbortSignal;
   onProgress?: (fraction: number, message: string) => void;
@@ -94,19 +96,26 @@ export async function runReport(recipe: Recipe, opts: ReportOptions): Promise<Re
   const folder = await openOutputFolder(opts.outDir);
   const written: HtmlSection[] = [];
   const figureNames: string[] = [];
+  // PNGs are made while the comparison goes on; a few wait at most, so memory stays bounded
+  const rasterising: Promise<void>[] = [];
+  const maxWaiting = Math.max(1, opts.pngParallel ?? 1) * 2;
+  let drawn = 0;
   try {
     const writeFigure = async (f: Figure): Promise<HtmlFigure> => {
       checkCancelled(opts.signal);
       const name = figureNames.includes(f.name) ? `${f.name}-${figureNames.length}` : f.name;
+      figureNames.push(name);
       const svg = serialise(f.svg);
       await folder.write(`figures/${name}.svg`, `<?xml version="1.0" encoding="UTF-8"?>\n${svg}\n`);
-      const png = await opts.toPng(svg, pixelsFor(widthMm));
-      await folder.write(`figures/${name}.png`, withResolution(png, PRINT_DPI));
-      figureNames.push(name);
-      opts.onFigure?.(name, figureNames.length);
-      return { name, title: f.title, svg };
+      const png = Promise.resolve(opts.toPng(svg, pixelsFor(widthMm))).then(async (bytes) => {
+        await folder.write(`figures/${name}.png`, withResolution(bytes, PRINT_DPI));
+        opts.onFigure?.(name, ++drawn);
+      });
+      png.catch(() => undefined); // awaited below; never an unhandled rejection meanwhile
+      rasterising.push(png);
+      while (rasterising.length >= maxWaiting) await rasterising.shift();
+      return { name, title: f.title };
     };
-
     // basin masks per common grid, for the zonal means
     const masks: { grid: Grid; basins: { name: string; mask: Uint8Array }[] }[] = [];
     const basinsFor = async (grid: Grid) => {
@@ -194,6 +203,7 @@ export async function runReport(recipe: Recipe, opts: ReportOptions): Promise<Re
       written.push({ heading: `Spin-up of ${spin.run}`, intro: spin.notes.join(' '), figures: [await writeFigure(fig)], table });
     }
 
+    while (rasterising.length) await rasterising.shift();
     checkCancelled(opts.signal);
     const recipeBytes = await readFile(opts.recipePath);
     const recipeSha = createHash('sha256').update(recipeBytes).digest('hex');
@@ -231,7 +241,7 @@ export async function runReport(recipe: Recipe, opts: ReportOptions): Promise<Re
     await folder.write('provenance.json', JSON.stringify(provenance, null, 1) + '\n');
 
     const v0 = result.variables[0];
-    const html = reportHtml({
+    const page: ReportPage = {
       title: recipe.title ?? 'Model runs against the reference',
       compared: [
         ['Reference', recipe.reference.label],
@@ -251,12 +261,14 @@ export async function runReport(recipe: Recipe, opts: ReportOptions): Promise<Re
         ['Recipe', `${opts.recipePath} (SHA-256 ${recipeSha})`],
         ['Inputs', `${inputs.length} files, ${inputs.reduce((n, i) => n + i.size, 0)} bytes in all`],
       ],
-    });
-    await folder.write('report.html', html);
+    };
+    // the figures' SVG is read back from the staged folder one at a time rather than kept in memory
+    await writeReportHtml(page, (text) => folder.append('report.html', text), async (f) => (await folder.readText(`figures/${f.name}.svg`)).replace(/^<\?xml[^>]*>\s*/, '').trimEnd());
     checkCancelled(opts.signal);
     await folder.commit();
     return { outDir: opts.outDir, figures: figureNames, rows: result.rows, costs: result.costs };
   } catch (e) {
+    await Promise.allSettled(rasterising);
     await folder.discard();
     throw e;
   }

@@ -1,11 +1,15 @@
-import { join, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { deflateSync } from 'node:zlib';
+import { useDeflate } from '../../app/figures/png.js';
 import { loadRecipe } from '../../app/recipe/load.js';
 import { runReport } from '../../app/report/run-report.js';
 import { allowOnly, optional, parseArgs, required } from '../args.js';
 import type { Command } from '../command.js';
 import { err, out } from '../command.js';
 import { toolVersion } from '../package-paths.js';
-import { landRings, svgToPng } from '../../app/report/report-tools.js';
+import { landRings } from '../../app/report/report-tools.js';
+import { pngPool } from '../png-pool.js';
 
 export const reportCommand: Command = {
   name: 'report',
@@ -34,13 +38,18 @@ export const reportCommand: Command = {
     };
     process.once('SIGINT', onSigint);
     let lastStage = '';
+    // the bundle's folder: dist/png-worker.mjs sits beside dist/cli.mjs
+    const png = pngPool(dirname(fileURLToPath(import.meta.url)));
+    // the map and section rasters embedded in the figures: Node's zlib, the same level as fflate's default here
+    useDeflate((data) => deflateSync(data, { level: 6 }));
     try {
       const result = await runReport(recipe, {
         recipePath,
         outDir,
         version: toolVersion(),
         land: landRings(),
-        toPng: svgToPng,
+        toPng: png.toPng,
+        pngParallel: png.parallel,
         cacheDir: cache ? resolve(cache) : undefined,
         signal: abort.signal,
         onProgress: (_f, m) => {
@@ -54,6 +63,7 @@ export const reportCommand: Command = {
       out(join(outDir, 'report.html'));
     } finally {
       process.removeListener('SIGINT', onSigint);
+      await png.close();
     }
     return 0;
   },
