@@ -71,7 +71,9 @@ describe.skipIf(!canRunBrowser)('Report… in the workbench', () => {
   it('writes the report of the open recipe and says where', async () => {
     const folder = join(here, 'report-po4');
     await write(folder);
-    await page.waitForSelector('#report-written', { timeout: SLOW });
+    // either outcome ends the wait, so a refused report fails here with its sentence instead of timing out
+    await page.waitForSelector('#report-written, #report-result.error', { timeout: SLOW });
+    expect(await page.$('#report-result.error') ? await page.textContent('#report-result') : '').toBe('');
     const where = (await page.textContent('#report-written')) ?? '';
     expect(where).toBe(join(folder, 'report.html'));
     const html = readFileSync(where, 'utf8');
