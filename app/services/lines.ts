@@ -1,13 +1,12 @@
 /**
  * Lines and stations for the workbench: a transect through waypoints (clicked on the map or typed),
- * a meridian or parallel section, with the column means along it; stations read from a CSV; stations
- * compared with the reference and the runs. Every file goes through ctx.resolvePath.
+ * a meridian or parallel section, with the column means along it; stations from a CSV compared with the
+ * reference and the runs. Every file goes through ctx.resolvePath.
  */
-import { isAbsolute, resolve } from 'node:path';
 import { z } from 'zod';
 import { runLine, type LineSpec } from '../lines/run-line.js';
 import { parseWaypoints } from '../lines/waypoints.js';
-import { readStations, runPoints, stationProblems } from '../points/run-points.js';
+import { runPoints, stationProblems } from '../points/run-points.js';
 import type { Stations } from '../points/stations-csv.js';
 import { besideRecipe, guardFile, recipeOfCall } from './recipe-guard.js';
 import type { SkillNumbers } from '../stats/weighted.js';
@@ -133,18 +132,6 @@ export const linesServices: ServiceEntry[] = [
         skill: r.skill,
         notes: r.notes,
       };
-    },
-  }),
-  entry({
-    name: 'points.stations',
-    summary: 'Station observations read from a CSV file (positions, depths, values, units), for drawing on the map.',
-    input: z.object({ file: z.string().min(1), /** the recipe's folder, which a relative path is taken from */ baseDir: z.string().min(1).optional() }),
-    // a file from outside: parsed on a worker thread, never on the one that serves the screen
-    heavy: true,
-    async run(input, ctx): Promise<StationsData> {
-      const file = input.baseDir && !isAbsolute(input.file) ? resolve(ctx.resolvePath(input.baseDir), input.file) : input.file;
-      const st = await readStations(ctx.resolvePath(file));
-      return stationsData(st);
     },
   }),
   entry({

@@ -4,6 +4,7 @@ import { call } from '../bridge.js';
 import { clearCaches, tracked } from '../service-client.js';
 import { h, select } from '../elements.js';
 import { setSession } from '../state.js';
+import { showFileAbout } from './file-about.js';
 import { pickFile } from './file-picker.js';
 
 export type Say = (t: string, kind?: 'info' | 'error') => void;
@@ -21,6 +22,8 @@ export function pairForm(s: SessionInfo, say: Say): HTMLElement {
   const units = h('input', { type: 'text', placeholder: 'units (if the file lacks them)', 'aria-label': 'Units override', class: 'wide' });
   const choose = h('button', { type: 'button' }, 'Choose file…');
   const submit = h('button', { type: 'submit', class: 'primary' }, 'Pair');
+  const about = h('button', { type: 'button', class: 'about-file', hidden: true }, 'About this file…');
+  about.addEventListener('click', () => file && showFileAbout(file));
   const drawNames = (): void => {
     nameBox.replaceChildren(
       names.length
@@ -34,6 +37,7 @@ export function pairForm(s: SessionInfo, say: Say): HTMLElement {
     file = p;
     fileText.textContent = p.split(/[\\/]/).pop() ?? p;
     fileText.title = p;
+    about.hidden = false;
     try {
       names = await call('view.variables', { file: p });
       name = names[0]?.name ?? '';
@@ -47,7 +51,7 @@ export function pairForm(s: SessionInfo, say: Say): HTMLElement {
     select('Reference variable', s.variables.map((v) => ({ value: v.key, label: v.key })), refKey, (v) => (refKey = v)),
     select('Run', s.runs.map((r) => ({ value: r.label, label: r.label })), runLabel, (v) => (runLabel = v)),
     newRun,
-    h('div', { class: 'row' }, choose, fileText),
+    h('div', { class: 'row' }, choose, fileText, about),
     nameBox,
     units,
     h('div', { class: 'row' }, submit),

@@ -5,7 +5,7 @@ import { mkdtempSync, readFileSync, realpathSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { linesServices, type LineData, type PointsData, type StationsData } from '../../../app/services/lines.js';
+import { linesServices, type LineData, type PointsData } from '../../../app/services/lines.js';
 import { viewsServices } from '../../../app/services/views.js';
 import type { SessionInfo } from '../../../contract/view-types.js';
 import type { ServiceContext } from '../../../app/services/types.js';
@@ -32,13 +32,12 @@ describe('line and station services', () => {
     for (let s = 0; s < d.lat.length; s++) expect(d.fields[0].columnMean[s]).toBeCloseTo(truth(d.lat[s], 500), 4);
     expect(d.skill[0].bias).toBeCloseTo(0.5, 5);
   });
-  it('points.stations and points.compare', async () => {
+  it('points.compare', async () => {
     writeFileSync(join(dir, 'st.csv'), '# units: umol kg-1\nid,lon,lat,depth,value\nA,-28,18,200,1.5\nB,0,0,10,1\n');
-    const st = (await svc('points.stations').run(svc('points.stations').input.parse({ file: join(dir, 'st.csv') }), ctx)) as StationsData;
-    expect(st.id).toEqual(['A', 'B']);
-    expect(st.units).toBe('umol kg-1');
     const input = svc('points.compare').input.parse({ recipe, baseDir: dir, variable: 'PO4', stations: join(dir, 'st.csv') });
     const p = (await svc('points.compare').run(input, ctx)) as PointsData;
+    expect(p.stations.id).toEqual(['A', 'B']);
+    expect(p.stations.units).toBe('umol kg-1');
     expect(p.sources[0].model[0]).toBeCloseTo(truth(18, 200), 5);
     expect(p.sources[0].status).toEqual(['ok', 'on_land']);
     expect(p.problems).toHaveLength(1);
@@ -63,7 +62,7 @@ describe('line and station services', () => {
   it('files outside the allowed folders are refused', async () => {
     const other = mkdtempSync(join(tmpdir(), 'sw-outside-'));
     writeFileSync(join(other, 'st.csv'), 'lon,lat,depth,value\n1,2,3,4\n');
-    await expect(svc('points.stations').run({ file: join(other, 'st.csv') }, ctx)).rejects.toThrow();
+    await expect(svc('points.compare').run(svc('points.compare').input.parse({ recipe, baseDir: dir, variable: 'PO4', stations: join(other, 'st.csv') }), ctx)).rejects.toThrow(/outside the folders/);
     await expect(svc('line.sample').run(svc('line.sample').input.parse({ recipe, baseDir: other, variable: 'PO4', line: { kind: 'meridian', lon: 0 } }), ctx)).rejects.toThrow();
   });
 });

@@ -104,16 +104,6 @@ describe('stations and outputs', () => {
     await expect(points.run(points.input.parse({ recipe: inSub, baseDir: sub, variable: 'PO4', stations: 'stations.csv' }), ctx)).rejects.toThrow(/^stations: .*sub\/stations\.csv: outside the folders/);
   });
 
-  it('points.stations takes a relative path from the recipe folder it is given', async () => {
-    const stations = serviceTable.find((e) => e.name === 'points.stations')!;
-    const sub = join(allowed, 'stations-here');
-    mkdirSync(sub);
-    writeFileSync(join(sub, 'obs.csv'), '# units: umol kg-1\nlongitude,latitude,depth,value\n-30,20,200,1.5\n');
-    const st = (await stations.run(stations.input.parse({ file: 'obs.csv', baseDir: sub }), ctx)) as { file: string; units: string };
-    expect(st.file).toBe(join(sub, 'obs.csv'));
-    expect(st.units).toBe('umol kg-1');
-    await expect(stations.run(stations.input.parse({ file: 'link-stations.csv', baseDir: allowed }), ctx)).rejects.toThrow(/outside the folders/);
-  });
 
 
 });

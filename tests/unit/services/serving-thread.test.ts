@@ -32,11 +32,10 @@ let stations: string;
 let pool: WorkerPool;
 const onThisThread = new Map<string, CallReply>();
 
-/** files.describe and view.variables of every dataset, and points.stations, as calls. */
+/** files.describe, view.variables and cf.inspect of every dataset, as calls. */
 function calls(): [string, unknown][] {
   const out: [string, unknown][] = [];
-  for (const file of Object.values(DATASETS)) out.push(['files.describe', { path: file }], ['view.variables', { file }]);
-  out.push(['points.stations', { file: stations }]);
+  for (const file of Object.values(DATASETS)) out.push(['files.describe', { path: file }], ['view.variables', { file }], ['cf.inspect', { path: file }]);
   return out;
 }
 
@@ -87,7 +86,7 @@ describe('a thread that serves the screen', () => {
   }, 120_000);
 
   it('leaves no file-reading service light: each of those goes to the pool', () => {
-    const reads = ['files.describe', 'view.variables', 'view.open', 'view.pair', 'points.stations', 'points.compare', 'spinup.open', 'spinup.run', 'spinup.verdict', 'cf.inspect', 'line.sample'];
+    const reads = ['files.describe', 'view.variables', 'view.open', 'view.pair', 'points.compare', 'spinup.open', 'spinup.run', 'spinup.verdict', 'cf.inspect', 'line.sample'];
     for (const name of reads) expect(serviceTable.find((e) => e.name === name)?.heavy, name).toBe(true);
   });
 });
