@@ -84,6 +84,8 @@ export const scoresView: ViewFactory = (el) => {
     table.show(rows);
     if (table.el.parentElement !== wrap) wrap.replaceChildren(table.el);
     count.textContent = `${rows.length} of ${result?.rows.length ?? 0} rows (${periodLabel(state.sel.period)})`;
+    // what is shown, for tests and the benchmark to wait for: the variable (or every one) and the rows it has
+    wrap.dataset.drawn = `${onlyVariable ? state.sel.variable : '*all'}|${result?.rows.length ?? 0}`;
     drawNotes(rows);
   };
 
