@@ -5,10 +5,11 @@
  * width each sample stands for). A transect adds a panel of column means along the line.
  */
 import { DIVERGING, SEQUENTIAL } from '../render/colour-scales.js';
-import { FONT_PT, INK, MM_PER_PT, MUTED, NO_DATA, widthPt, type FigureWidth } from './page.js';
+import { FONT_PT, INK, MUTED, widthPt, type FigureWidth } from './page.js';
 import { bottomAxis, charsIn, colourBarH, figureRoot, figureTitle, frame, LEFT_AXIS_PT, leftAxis, legend, r2, RUN_COLOURS, text, wrap, type Figure, type Rect } from './parts.js';
 import { linear, padded } from './scale.js';
-import { paintSection, type SectionGrid } from './section-raster.js';
+import { deepestWater, MARK_ROW_PT, sectionPanel, waypointMarks, type SectionMark } from './section-panel.js';
+import type { SectionGrid } from './section-raster.js';
 import { sharedLimits } from './shared-limits.js';
 import { el, type SvgNode } from './svg-tree.js';
 import { typesetUnits } from './typeset.js';
@@ -29,6 +30,12 @@ export interface SectionPanelsSpec {
   reference: { label: string; values: Float32Array };
   runs: { label: string; values: Float32Array; difference: Float32Array }[];
   fixedDifference?: number | null;
+  /** deepest depth drawn (m); the deepest water along the section when left out */
+  depthMax?: number;
+  /** the upper 1000 m take half the height of each panel */
+  stretch?: boolean;
+  /** waypoints of a line, marked A, B, C… on the top axis of every panel */
+  marks?: SectionMark[];
   /** column means along the line (transects): reference first, then the runs in order, each over the cells where all of them have values (app/lines/column-mean.ts comparedColumnMeans) */
   columnMeans?: { label: string; values: ArrayLike<number> }[];
 }
@@ -47,80 +54,54 @@ function sectionWeights(g: SectionGrid): Float64Array {
   return w;
 }
 
-function hasData(v: ArrayLike<number>): boolean {
-  for (let i = 0; i < v.length; i++) if (v[i] === v[i]) return true;
-  return false;
-}
-
 export function sectionPanelsFigure(spec: SectionPanelsSpec): Figure {
   const W = widthPt(spec.width);
   const colW = (W - LEFT_AXIS_PT - GAP - 8 - LEFT_AXIS_PT) / 2;
   const panelH = colW * 0.55;
-  const rowH = PANEL_TITLE + panelH + X_AXIS;
+  const marksH = spec.marks?.length ? MARK_ROW_PT : 0;
+  const rowH = PANEL_TITLE + marksH + panelH + X_AXIS;
   const units = typesetUnits(spec.units);
   const n = spec.grid.xEdges.length - 1;
   const x0 = spec.grid.xEdges[0];
   const x1 = spec.grid.xEdges[n];
-  let depthMax = 0;
-  for (let s = 0; s < n; s++) if (spec.seafloor[s] > depthMax) depthMax = spec.seafloor[s];
-  if (!(depthMax > 0)) depthMax = spec.grid.depthEdges[spec.grid.depthEdges.length - 1];
+  const depthMax = spec.depthMax ?? deepestWater(spec.seafloor, spec.grid.depthEdges);
   const weights = sectionWeights(spec.grid);
   const limits = sharedLimits([spec.reference.values, ...spec.runs.map((r) => r.values)], spec.runs.map((r) => r.difference), weights, spec.fixedDifference);
 
   const scratch = el('g');
   const top = figureTitle(scratch, 6, FONT_PT.title + 2, W - 12, spec.title, spec.subtitle);
   const rows = 1 + spec.runs.length;
-  const meansH = spec.columnMeans ? panelH + PANEL_TITLE + X_AXIS + 6 : 0;
+  const meansH = spec.columnMeans ? panelH + PANEL_TITLE + marksH + X_AXIS + 6 : 0;
   const barsY = top + rows * rowH + 2;
   const meansY = barsY + 34;
   const H = meansY + meansH + 4;
   const svg = figureRoot(W, H, `${spec.title}${spec.subtitle ? `. ${spec.subtitle}` : ''}`);
   for (const c of scratch.children) svg.append(c);
 
-  const pxW = Math.max(64, Math.min(900, Math.round((colW * MM_PER_PT * 200) / 25.4)));
-  const pxH = Math.max(48, Math.round((pxW * panelH) / colW));
-  const sx = (r: Rect) => linear([x0, x1], [r.x, r.x + r.w]);
-  const sy = (r: Rect) => linear([0, depthMax], [r.y, r.y + r.h]);
-  const seafloorPath = (r: Rect): string => {
-    const X = sx(r);
-    const Y = sy(r);
-    let d = `M${r2(X(x0))},${r2(r.y + r.h)}`;
-    for (let s = 0; s < n; s++) {
-      const f = spec.seafloor[s];
-      const y = f > 0 ? Y(Math.min(f, depthMax)) : r.y;
-      d += `L${r2(X(spec.grid.xEdges[s]))},${r2(y)}L${r2(X(spec.grid.xEdges[s + 1]))},${r2(y)}`;
-    }
-    return d + `L${r2(X(x1))},${r2(r.y + r.h)}Z`;
-  };
-  const panel = (r: Rect, label: string, values: Float32Array, diverging: boolean): SvgNode => {
-    const g = el('g', { class: diverging ? 'panel difference' : 'panel field' });
-    g.append(text(r.x, r.y - 3, label, { 'font-size': FONT_PT.panelTitle, 'font-weight': 'bold', class: 'panel-title' }));
-    const lim = diverging ? (limits.difference === null ? null : [-limits.difference, limits.difference]) : limits.field;
-    if (!hasData(values) || lim === null) {
-      g.append(el('rect', { x: r2(r.x), y: r2(r.y), width: r2(r.w), height: r2(r.h), fill: NO_DATA }));
-      g.append(text(r.x + r.w / 2, r.y + r.h / 2, 'No compared cells along this section', { 'text-anchor': 'middle', 'font-size': FONT_PT.label, class: 'no-data' }));
-    } else {
-      g.append(el('rect', { x: r2(r.x), y: r2(r.y), width: r2(r.w), height: r2(r.h), fill: NO_DATA }));
-      const url = paintSection(spec.grid, values, diverging ? DIVERGING : SEQUENTIAL, lim[0], lim[1], depthMax, pxW, pxH);
-      // cells stay blocks (no smoothing across their edges), and rasterisers draw it several times faster
-      g.append(el('image', { x: r2(r.x), y: r2(r.y), width: r2(r.w), height: r2(r.h), preserveAspectRatio: 'none', 'image-rendering': 'optimizeSpeed', href: url }));
-      g.append(el('path', { d: seafloorPath(r), fill: '#8a847b', stroke: '#3b3833', 'stroke-width': 0.3, class: 'seafloor' }));
-    }
-    g.append(frame(r));
-    const axes = el('g');
-    bottomAxis(axes, r, sx(r), spec.xLabel, { ticks: 5, format: spec.formatX });
-    leftAxis(axes, r, sy(r), 'Depth (m)', { ticks: 4 });
-    g.append(axes);
-    return g;
-  };
+  const panel = (r: Rect, label: string, values: Float32Array, diverging: boolean): SvgNode =>
+    sectionPanel(r, {
+      grid: spec.grid,
+      values,
+      scale: diverging ? DIVERGING : SEQUENTIAL,
+      limits: diverging ? (limits.difference === null ? null : [-limits.difference, limits.difference]) : limits.field,
+      seafloor: spec.seafloor,
+      depthMax,
+      stretch: spec.stretch,
+      marks: spec.marks,
+      xLabel: spec.xLabel,
+      formatX: spec.formatX,
+      title: label,
+      emptyText: 'No compared cells along this section',
+      className: diverging ? 'panel difference' : 'panel field',
+    });
   const xL = LEFT_AXIS_PT + 2;
   const xR = xL + colW + GAP + LEFT_AXIS_PT;
-  const rect = (row: number, x: number): Rect => ({ x, y: top + row * rowH + PANEL_TITLE, w: colW, h: panelH });
+  const rect = (row: number, x: number): Rect => ({ x, y: top + row * rowH + PANEL_TITLE + marksH, w: colW, h: panelH });
   svg.append(panel(rect(0, xL), `${spec.reference.label} (reference)`, spec.reference.values, false));
   const note = `${spec.reference.label} and every run share one colour scale; all differences share one symmetric scale, ${
     limits.differenceSource === 'fixed by the recipe' ? 'fixed by the recipe' : 'the 98th percentile of |run − reference| pooled over the runs, weighted by layer thickness × width'
   }. Brown: below the seafloor.`;
-  wrap(note, charsIn(colW, FONT_PT.label), 6).forEach((line, i) => svg.append(text(xR - LEFT_AXIS_PT + 8, top + PANEL_TITLE + FONT_PT.label + i * (FONT_PT.label + 2), line, { 'font-size': FONT_PT.label, fill: MUTED, class: 'scale-note' })));
+  wrap(note, charsIn(colW, FONT_PT.label), 6).forEach((line, i) => svg.append(text(xR - LEFT_AXIS_PT + 8, top + PANEL_TITLE + marksH + FONT_PT.label + i * (FONT_PT.label + 2), line, { 'font-size': FONT_PT.label, fill: MUTED, class: 'scale-note' })));
   spec.runs.forEach((run, i) => {
     svg.append(panel(rect(i + 1, xL), run.label, run.values, false));
     svg.append(panel(rect(i + 1, xR), `${run.label} minus reference`, run.difference, true));
@@ -131,10 +112,13 @@ export function sectionPanelsFigure(spec: SectionPanelsSpec): Figure {
   svg.append(bars);
 
   if (spec.columnMeans) {
-    const r: Rect = { x: xL, y: meansY + PANEL_TITLE, w: W - xL - 110, h: panelH };
+    // the legend as wide as its longest label (DejaVu Sans averages ~0.55 em), so no run's name is cut
+    const longest = Math.max(9, ...spec.columnMeans.slice(1).map((c) => c.label.length));
+    const legendW = Math.min(W * 0.35, 24 + longest * FONT_PT.label * 0.58);
+    const r: Rect = { x: xL, y: meansY + PANEL_TITLE + marksH, w: W - xL - legendW, h: panelH };
     const g = el('g', { class: 'panel column-means' });
     // the caption says which cells the means use: a cell one source lacks (a seamount's flank) moves none of them
-    g.append(el('text', { x: r2(r.x), y: r2(r.y - 3), 'font-size': FONT_PT.panelTitle, class: 'panel-title' },
+    g.append(el('text', { x: r2(r.x), y: r2(r.y - 3 - marksH), 'font-size': FONT_PT.panelTitle, class: 'panel-title' },
       el('tspan', { 'font-weight': 'bold' }, 'Column means along the line'),
       el('tspan', { class: 'panel-caption' }, ` (${COLUMN_MEAN_CAPTION})`),
     ));
@@ -144,7 +128,7 @@ export function sectionPanelsFigure(spec: SectionPanelsSpec): Figure {
       lo = Math.min(lo, c.values[s]);
       hi = Math.max(hi, c.values[s]);
     }
-    const X = sx(r);
+    const X = linear([x0, x1], [r.x, r.x + r.w]);
     const Y = linear(padded(lo, hi, 0.06), [r.y + r.h, r.y]);
     const axes = el('g');
     bottomAxis(axes, r, X, spec.xLabel, { ticks: 6, format: spec.formatX, grid: true });
@@ -166,6 +150,7 @@ export function sectionPanelsFigure(spec: SectionPanelsSpec): Figure {
       }
       g.append(el('path', { d, fill: 'none', stroke: items[i].colour, 'stroke-width': 0.9, ...(i === 0 ? { 'stroke-dasharray': '3 2' } : {}) }));
     });
+    if (spec.marks?.length) g.append(waypointMarks(r, X, spec.marks));
     g.append(frame(r));
     legend(g, r.x + r.w + 6, r.y + 4, items);
     if (!Number.isFinite(lo)) g.append(text(r.x + r.w / 2, r.y + r.h / 2, 'No column means along this line', { 'text-anchor': 'middle', 'font-size': FONT_PT.label, class: 'no-data' }));

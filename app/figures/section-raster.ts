@@ -11,8 +11,11 @@ export interface SectionGrid {
   depthEdges: ArrayLike<number>;
 }
 
-/** PNG data URL of level-major values[k * n + s], `width` × `height` pixels over [x0, x1] × [0, depthMax]. */
-export function paintSection(g: SectionGrid, values: ArrayLike<number>, scale: ColourScale, min: number, max: number, depthMax: number, width: number, height: number): string {
+/**
+ * PNG data URL of level-major values[k * n + s], `width` × `height` pixels over [x0, x1] and the depths that
+ * `depthAt` gives for each row (0 at the top edge, 1 at the bottom): linear or stretched, as the axis is.
+ */
+export function paintSection(g: SectionGrid, values: ArrayLike<number>, scale: ColourScale, min: number, max: number, depthAt: (fraction: number) => number, width: number, height: number): string {
   const n = g.xEdges.length - 1;
   const nz = g.depthEdges.length - 1;
   const x0 = g.xEdges[0];
@@ -22,7 +25,7 @@ export function paintSection(g: SectionGrid, values: ArrayLike<number>, scale: C
   const rgba = new Uint8Array(width * height * 4);
   const ncol = scale.packed.length;
   for (let py = 0; py < height; py++) {
-    const k = findInterval(g.depthEdges, ((py + 0.5) / height) * depthMax);
+    const k = findInterval(g.depthEdges, depthAt((py + 0.5) / height));
     if (k < 0 || k >= nz) continue;
     for (let px = 0; px < width; px++) {
       const s = col[px];

@@ -3,6 +3,7 @@ import type { SkillRow } from '../compare/rows.js';
 import { diagramsFigure } from '../figures/diagrams.js';
 import { mapPanelsFigure, type PanelStats } from '../figures/map-panels.js';
 import type { Figure } from '../figures/parts.js';
+import { lineFigure, waypointLetters } from '../figures/line-figure.js';
 import { sectionPanelsFigure } from '../figures/section-panels.js';
 import { latLabel } from '../figures/typeset.js';
 import { layerLabel, type LayerSpec } from '../regions/layers.js';
@@ -89,26 +90,22 @@ export function* variableFigures(data: VariableFigureData, rows: SkillRow[], ctx
       });
     }
     for (const l of data.lines) {
-      const d = l.line.distanceKm;
-      const n = d.length;
-      const xEdges = new Float64Array(n + 1);
-      for (let s = 1; s < n; s++) xEdges[s] = (d[s - 1] + d[s]) / 2;
-      xEdges[0] = d[0] - (n > 1 ? (d[1] - d[0]) / 2 : 1);
-      xEdges[n] = d[n - 1] + (n > 1 ? (d[n - 1] - d[n - 2]) / 2 : 1);
-      yield sectionPanelsFigure({
+      yield lineFigure({
         name: `${slug(v)}-line-${slug(l.name)}`,
-        title: `${v} along ${l.name}: section and column means`,
-        subtitle: `Sampled every ${l.line.spacingKm} km (bilinear between wet cell centres); column means thickness-weighted over the whole water column, over the cells where the reference and every run have values.`,
-        quantity: v,
+        variable: v,
         units: data.units,
+        lineName: l.name,
         width,
-        grid: { xEdges, depthEdges },
-        xLabel: 'Distance along the line (km)',
+        spacingKm: l.line.spacingKm,
+        method: 'bilinear',
+        meansRange: null,
+        distanceKm: l.line.distanceKm,
+        depthEdges,
         seafloor: l.seafloor,
-        reference: { label: ctx.referenceLabel, values: l.reference },
-        runs: l.runs,
+        reference: { label: ctx.referenceLabel, values: l.reference, columnMean: l.columnMeans[0].values },
+        runs: l.runs.map((r, i) => ({ ...r, columnMean: l.columnMeans[i + 1].values })),
         fixedDifference: fixed,
-        columnMeans: l.columnMeans.map((c, i) => ({ label: i === 0 ? ctx.referenceLabel : c.label, values: c.values })),
+        marks: l.line.kind === 'great-circle' ? waypointLetters(l.line.waypointKm) : undefined,
       });
     }
   }

@@ -6,7 +6,8 @@
 import { greatCirclePath } from '../../app/render/line-path.js';
 import { s } from '../elements.js';
 import { coastlines } from '../plot/coast.js';
-import { figureRoot, INK } from '../plot/svg-parts.js';
+import { waypointLetter } from '../../app/figures/line-figure.js';
+import { INK } from '../../app/figures/page.js';
 import { choose, commitPreview, preview, state, type LineChoice } from '../state.js';
 import { projectionOf } from './map-paint.js';
 
@@ -23,7 +24,8 @@ export interface LineMap {
 }
 
 export function lineMap(): LineMap {
-  const svg = figureRoot(W, H, 'Waypoints of the line: click to add, drag to move, right-click or Delete to remove');
+  const label = 'Waypoints of the line: click to add, drag to move, right-click or Delete to remove';
+  const svg = s('svg', { xmlns: 'http://www.w3.org/2000/svg', viewBox: `0 0 ${W} ${H}`, width: W, height: H, role: 'img', 'aria-label': label, class: 'figure-svg' }, s('title', {}, label));
   svg.classList.add('line-map');
   svg.setAttribute('id', 'line-map');
   svg.append(s('rect', { x: 0, y: 0, width: W, height: H, fill: '#eef3f7' }));
@@ -129,7 +131,5 @@ export function lineMap(): LineMap {
   };
 }
 
-/** Waypoints are named A, B, C… on the small map and along the section's top axis. */
-export function letter(i: number): string {
-  return i < 26 ? String.fromCharCode(65 + i) : `W${i + 1}`;
-}
+/** Waypoints are named A, B, C… on the small map and along the section's top axis (one naming, app/figures). */
+export const letter = waypointLetter;

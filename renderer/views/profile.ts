@@ -9,63 +9,28 @@ import type { ProfileCycleData, ProfileData } from '../../contract/view-types.js
 import { getProfile, getProfileCycle } from '../service-client.js';
 import { figureElement, screenFigure } from '../plot/figure-element.js';
 import { buttonGroup } from '../widgets/button-group.js';
-import { typesetUnits } from '../../app/figures/typeset.js';
-import { h, s } from '../elements.js';
-import { linear, padded } from '../../app/figures/scale.js';
-import { bottomAxis, figureRoot, INK, leftAxis, legend, RUN_COLOURS, title, type LegendItem, type Rect } from '../plot/svg-parts.js';
+import { profileFigure } from '../../app/figures/profile-figure.js';
+import type { Figure } from '../../app/figures/parts.js';
+import { h } from '../elements.js';
 import { choose, currentVariable, state, type AppState } from '../state.js';
 import { figureFrame } from '../widgets/figure-frame.js';
-import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
+import { errorText, note, type ViewFactory } from './view.js';
 
-function profileFigure(data: ProfileData, width: number, height: number, depthMax: number, refLabel: string, name: string): SVGSVGElement {
+/** The mean profile as app/figures draws it: the figure on the screen is the one the export writes. */
+function figureOf(data: ProfileData, depthMax: number, refLabel: string, name: string): Figure {
   const when = data.period === 'annual' ? '' : `, ${periodLabel(data.period)}`;
-  const svg = figureRoot(width, height, `Mean profile of ${name} over ${data.region}${when}`);
-  title(svg, 12, 18, `${name}: mean profile, ${data.region}${when}`, 'Area-weighted mean of each level; each run over the cells where it and the reference both have water');
-  const legendW = 210;
-  const plot: Rect = { x: 76, y: 54, w: width - 76 - legendW - 24, h: height - 54 - 48 };
-  let lo = Infinity;
-  let hi = -Infinity;
-  const nz = data.depthCentres.length;
-  const within = (k: number): boolean => data.depthCentres[k] <= depthMax;
-  for (const series of [data.reference, ...data.runs.map((r) => r.values)]) {
-    for (let k = 0; k < nz; k++) {
-      const v = series[k];
-      if (Number.isFinite(v) && within(k)) {
-        lo = Math.min(lo, v);
-        hi = Math.max(hi, v);
-      }
-    }
-  }
-  const sx = linear(padded(lo, hi), [plot.x, plot.x + plot.w]);
-  const sy = linear([0, depthMax], [plot.y, plot.y + plot.h]);
-  const g = s('g', {});
-  bottomAxis(g, plot, sx, `${data.variable} (${typesetUnits(data.units)})`, { grid: true, ticks: 6 });
-  leftAxis(g, plot, sy, 'Depth (m)', { grid: true, ticks: 7 });
-  svg.append(g);
-  const line = (values: Float64Array, colour: string, widthPx: number, dash?: string): SVGElement => {
-    let d = '';
-    let pen = false;
-    for (let k = 0; k < nz; k++) {
-      const v = values[k];
-      if (!Number.isFinite(v) || !within(k)) {
-        pen = false;
-        continue;
-      }
-      d += `${pen ? 'L' : 'M'}${sx(v).toFixed(2)},${sy(data.depthCentres[k]).toFixed(2)}`;
-      pen = true;
-    }
-    return s('path', { d, fill: 'none', stroke: colour, 'stroke-width': widthPx, 'stroke-linejoin': 'round', ...(dash ? { 'stroke-dasharray': dash } : {}) });
-  };
-  const clip = `pc-${Math.random().toString(36).slice(2, 8)}`;
-  svg.append(s('defs', {}, s('clipPath', { id: clip }, s('rect', { x: plot.x, y: plot.y, width: plot.w, height: plot.h }))));
-  const lines = s('g', { 'clip-path': `url(#${clip})` });
-  data.runs.forEach((r, i) => lines.append(line(r.values, RUN_COLOURS[i % RUN_COLOURS.length], 1.8)));
-  lines.append(line(data.reference, INK, 2.4, '6 3'));
-  svg.append(lines);
-  svg.append(s('rect', { x: plot.x, y: plot.y, width: plot.w, height: plot.h, fill: 'none', stroke: INK, 'stroke-width': 0.9 }));
-  const items: LegendItem[] = [{ label: `${refLabel} (reference)`, colour: INK, marker: 'dash' }, ...data.runs.map((r, i) => ({ label: r.label, colour: RUN_COLOURS[i % RUN_COLOURS.length], marker: 'line' as const }))];
-  legend(svg, plot.x + plot.w + 18, plot.y + 8, items, 'Lines');
-  return svg;
+  return profileFigure({
+    name: 'profile',
+    title: `${name}: mean profile, ${data.region}${when}`,
+    subtitle: 'Area-weighted mean of each level; each run over the cells where it and the reference both have water.',
+    width: 'double',
+    quantity: data.variable,
+    units: data.units,
+    depthCentres: data.depthCentres,
+    depthMax,
+    reference: { label: refLabel, values: data.reference },
+    runs: data.runs,
+  });
 }
 
 export const profileView: ViewFactory = (el) => {
@@ -73,6 +38,7 @@ export const profileView: ViewFactory = (el) => {
   const { toolbar, stage } = frame;
   let depthMax: number | null = null;
   let last: ProfileData | null = null;
+  let shown: Figure | null = null;
   let lastCycle: ProfileCycleData | null = null;
   let token = 0;
   const depth = h('select', { 'aria-label': 'Depth range', id: 'profile-depth' });
@@ -153,9 +119,8 @@ export const profileView: ViewFactory = (el) => {
       if (my === token) note(stage, errorText(e), 'error');
       return;
     }
-    const width = Math.max(480, Math.floor(stage.clientWidth || 900));
-    const height = Math.max(320, Math.min(Math.floor(stage.clientHeight || 560), Math.round(width * 0.7)));
-    stage.replaceChildren(profileFigure(last, width, height, depthMax ?? fullDepth(last), session.reference.label, name()));
+    shown = figureOf(last, depthMax ?? fullDepth(last), session.reference.label, name());
+    stage.replaceChildren(screenFigure(shown, frame.width(480)));
     stage.dataset.drawn = `${last.variable}|${last.region}`;
     stage.dataset.period = last.period;
   };
@@ -167,8 +132,7 @@ export const profileView: ViewFactory = (el) => {
     async figure() {
       if (!state.session) return null;
       if (cycleMode(state)) return lastCycle ? figureElement(monthDepthFigure({ data: lastCycle, name: name(), referenceLabel: state.session.reference.label, width: 'double' })) : null;
-      if (!last) return null;
-      return profileFigure(last, EXPORT_WIDTH, Math.round(EXPORT_WIDTH * 0.7), depthMax ?? fullDepth(last), state.session.reference.label, name());
+      return shown ? figureElement(shown) : null;
     },
     fileBase: () =>
       (cycleMode(state) ? `stillwater-monthly-cycle-${state.sel.variable}-${state.sel.run}-${state.sel.region}-${state.sel.layer}` : `stillwater-profile-${state.sel.variable}-${state.sel.region}${state.sel.period === 'annual' ? '' : `-${state.sel.period}`}`).replace(/[^A-Za-z0-9._-]+/g, '_'),

@@ -5,19 +5,22 @@
 import { periodLabel } from '../../app/render/period-labels.js';
 import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
 import type { SectionData } from '../../contract/view-types.js';
+import { sectionFigure, type SectionFigureSpec } from '../../app/figures/section-figure.js';
+import { latLabel, lonLabel } from '../../app/figures/typeset.js';
+import type { Figure } from '../../app/figures/parts.js';
 import { getSection } from '../service-client.js';
 import { h } from '../elements.js';
-import { latText, lonText, sectionFigure } from '../plot/section-figure.js';
+import { figureElement, screenFigure } from '../plot/figure-element.js';
 import { choose, currentVariable, state, type AppState, type Selection } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';
 import { accept, readNumber, refuse } from '../widgets/field-check.js';
 import { keepFocus } from '../widgets/keep-focus.js';
 import { figureFrame } from '../widgets/figure-frame.js';
-import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
+import { errorText, note, type ViewFactory } from './view.js';
 
 interface Built {
   data: SectionData;
-  spec: Omit<Parameters<typeof sectionFigure>[0], 'width' | 'height'>;
+  fig: Figure;
 }
 
 /** A zonal mean over a basin spans only the basin's latitudes: samples without water at either end are left out. */
@@ -42,7 +45,7 @@ function withWater(data: SectionData): SectionData {
   return { ...data, edges: data.edges.slice(first, last + 2), model: cut(data.model), reference: cut(data.reference), difference: cut(data.difference), seafloor: data.seafloor.slice(first, last + 1) };
 }
 
-function describe(st: AppState, whole: SectionData): Built['spec'] | null {
+function describe(st: AppState, whole: SectionData): SectionFigureSpec | null {
   const data = withWater(whole);
   const field = st.sel.sectionField;
   const values = field === 'model' ? data.model : field === 'reference' ? data.reference : data.difference;
@@ -55,27 +58,27 @@ function describe(st: AppState, whole: SectionData): Built['spec'] | null {
     data.kind === 'zonal'
       ? `Zonal mean over ${data.region}, area-weighted, where run and reference both have water`
       : data.kind === 'meridian'
-        ? `Section along ${lonText(Number(data.atGrid!.toFixed(2)))} (grid column nearest to ${lonText(data.at!)})`
-        : `Section along ${latText(Number(data.atGrid!.toFixed(2)))} (grid row nearest to ${latText(data.at!)})`;
+        ? `Section along ${lonLabel(Number(data.atGrid!.toFixed(2)))} (grid column nearest to ${lonLabel(data.at!)})`
+        : `Section along ${latLabel(Number(data.atGrid!.toFixed(2)))} (grid row nearest to ${latLabel(data.at!)})`;
   let deepest = 0;
   for (const f of data.seafloor) if (Number.isFinite(f) && f > deepest) deepest = f;
   const depthMax = st.sel.sectionDepth ?? (deepest > 0 ? deepest : data.depthEdges[data.depthEdges.length - 1]);
   const when = data.period !== 'annual' || st.session!.periods.length > 1 ? `${periodLabel(data.period)}. ` : '';
   return {
+    name: 'section',
     title: `${name}: ${who}`,
     subtitle: `${when}${where}`,
-    edges: data.edges,
-    axisLabel: data.axis === 'latitude' ? 'Latitude (degrees north)' : 'Longitude (degrees east)',
-    formatX: data.axis === 'latitude' ? latText : lonText,
-    depthEdges: data.depthEdges,
+    width: 'double',
+    grid: { xEdges: data.edges, depthEdges: data.depthEdges },
+    xLabel: data.axis === 'latitude' ? 'Latitude (degrees north)' : 'Longitude (degrees east)',
+    formatX: data.axis === 'latitude' ? latLabel : lonLabel,
     depthMax,
     values,
     seafloor: data.seafloor,
     scale: field === 'difference' ? DIVERGING : SEQUENTIAL,
-    min: range[0],
-    max: range[1],
+    limits: range,
     units: data.units,
-    caption: field === 'difference' ? `${data.variable} difference` : data.variable,
+    quantity: field === 'difference' ? `${data.variable}, run minus reference` : data.variable,
   };
 }
 
@@ -141,11 +144,8 @@ export const sectionView: ViewFactory = (el) => {
     if (my !== token) return;
     const spec = describe(st, data);
     if (!spec) return note(stage, 'There are no values along this section.');
-    built = { data, spec };
-    const width = Math.max(480, Math.floor(stage.clientWidth || 900));
-    const height = Math.max(300, Math.min(Math.floor(stage.clientHeight || 520), Math.round(width * 0.62)));
-    const { svg } = sectionFigure({ ...spec, width, height });
-    stage.replaceChildren(svg);
+    built = { data, fig: sectionFigure(spec) };
+    stage.replaceChildren(screenFigure(built.fig, frame.width(480)));
     stage.dataset.drawn = `${data.variable}|${data.run}|${data.kind}|${data.at ?? data.region}`;
     stage.dataset.period = data.period;
   };
@@ -157,7 +157,7 @@ export const sectionView: ViewFactory = (el) => {
     },
     async figure() {
       if (!built) return null;
-      return sectionFigure({ ...built.spec, width: EXPORT_WIDTH, height: Math.round(EXPORT_WIDTH * 0.55), rasterScale: 3 }).svg;
+      return figureElement(built.fig);
     },
     fileBase() {
       const sel = state.sel;

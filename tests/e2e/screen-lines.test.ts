@@ -1,0 +1,98 @@
+// Section, Profile and Line on the screen are figures of app/figures (issue 11, one figure code path): what the
+// stage shows is the figure the export writes. The Line view exports the report's line figure (reference, runs,
+// differences, column means) as SVG and as PNG at 300 dpi with its resolution in the file (read with Pillow).
+// Screenshots go to tests/e2e/screenshots/ for a person to look at.
+import { spawnSync } from 'node:child_process';
+import { readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Download, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { canRunBrowser, readyWorkbench, SCREENSHOTS, type Workbench } from './harness.js';
+
+const SLOW = 240_000;
+
+async function waitDrawn(page: Page, view: string, re: RegExp): Promise<string> {
+  await page.waitForFunction(([v, src]) => new RegExp(src).test(document.querySelector(`.view-${v} [data-drawn]`)?.getAttribute('data-drawn') ?? ''), [view, re.source] as const, { timeout: SLOW });
+  return (await page.getAttribute(`.view-${view} [data-drawn]`, 'data-drawn')) ?? '';
+}
+
+async function download(page: Page, click: () => Promise<void>): Promise<{ name: string; bytes: Buffer }> {
+  const [d] = await Promise.all([page.waitForEvent('download', { timeout: SLOW }), click()]);
+  return { name: (d as Download).suggestedFilename(), bytes: readFileSync((await (d as Download).path())!) };
+}
+
+/** the texts of an SVG, in order (the screen's and the exported file's must be the same figure) */
+async function screenTexts(page: Page, view: string): Promise<string[]> {
+  return page.$$eval(`.view-${view} .figure-stage svg text`, (ts) => ts.map((t) => t.textContent ?? ''));
+}
+function fileTexts(svg: string): string[] {
+  const py = spawnSync('/usr/bin/python3', ['-c', 'import sys, json\nimport xml.etree.ElementTree as ET\nr = ET.fromstring(sys.stdin.read())\nprint(json.dumps(["".join(t.itertext()) for t in r.iter("{http://www.w3.org/2000/svg}text")]))'], { input: svg, encoding: 'utf8', maxBuffer: 1 << 28 });
+  if (py.status !== 0) throw new Error(py.stderr);
+  return JSON.parse(py.stdout) as string[];
+}
+
+describe.skipIf(!canRunBrowser)('section, profile and line figures on the screen are the exported figures', () => {
+  let wb: Workbench;
+  let page: Page;
+  beforeAll(async () => {
+    ({ wb, page } = await readyWorkbench('.view-map [data-drawn]', SLOW));
+  }, SLOW);
+  afterAll(async () => {
+    await wb?.close();
+  });
+
+  it('Section: the stage shows the figure the SVG export writes (same texts, one raster, the seafloor)', async () => {
+    await page.click('#tab-section');
+    await waitDrawn(page, 'section', /\|/);
+    const shown = await screenTexts(page, 'section');
+    expect(shown.join(' ')).toContain('Depth (m)');
+    expect(shown).toContain('T (°C)');
+    expect(await page.locator('.view-section image.section-raster').count()).toBe(1);
+    expect(await page.locator('.view-section path.seafloor').count()).toBe(1);
+    const svg = (await download(page, () => page.click('#export-svg'))).bytes.toString('utf8');
+    expect(fileTexts(svg)).toEqual(shown);
+    await wb.shot('lines-section');
+  }, SLOW);
+
+  it('Profile: the stage shows the figure the SVG export writes', async () => {
+    await page.click('#tab-profile');
+    await waitDrawn(page, 'profile', /\|/);
+    const shown = await screenTexts(page, 'profile');
+    expect(shown).toContain('T (°C)');
+    expect(shown).toContain('Demo climatology (reference)');
+    const svg = (await download(page, () => page.click('#export-svg'))).bytes.toString('utf8');
+    expect(fileTexts(svg)).toEqual(shown);
+    await wb.shot('lines-profile');
+  }, SLOW);
+
+  it('Line: the report\'s line figure on the stage, exported as one SVG and one 300 dpi PNG', async () => {
+    await page.click('#tab-line');
+    await page.fill('#line-points', '-30,-60; -30,0; -20,60');
+    await page.press('#line-points', 'Enter');
+    await waitDrawn(page, 'line', /\|3$/);
+    const shown = await screenTexts(page, 'line');
+    expect(shown).toContain('Demo climatology (reference)');
+    // the demo recipe's runs (sample-data/demo-recipe.json)
+    for (const r of ['remin-short (L = 200 m)', 'remin-mid (L = 350 m)', 'remin-long (L = 600 m)']) {
+      expect(shown).toContain(r);
+      expect(shown).toContain(`${r} minus reference`);
+    }
+    expect(shown.some((t) => t.startsWith('Column means along the line'))).toBe(true);
+    expect(shown).toContain('Run minus reference (°C)');
+    // the waypoints A, B, C on the top axis of the first panel
+    expect(await page.locator('.view-line .waypoint-marks').first().locator('.waypoint-label').allTextContents()).toEqual(['A', 'B', 'C']);
+    const svg = await download(page, () => page.click('#export-svg'));
+    expect(svg.name).toMatch(/\.svg$/);
+    expect(fileTexts(svg.bytes.toString('utf8'))).toEqual(shown);
+    const png = await download(page, () => page.click('#export-png'));
+    writeFileSync(join(SCREENSHOTS, 'lines-line-export.png'), png.bytes);
+    const py = spawnSync('/usr/bin/python3', ['-c', 'import sys, io, json\nfrom PIL import Image\nim = Image.open(io.BytesIO(sys.stdin.buffer.read()))\nprint(json.dumps({"size": im.size, "dpi": [round(v, 2) for v in im.info["dpi"]]}))'], { input: png.bytes });
+    expect(py.status, py.stderr?.toString()).toBe(0);
+    const info = JSON.parse(py.stdout.toString()) as { size: [number, number]; dpi: [number, number] };
+    // 180 mm at 300 dpi: 180 / 25.4 × 300 = 2126 px; pHYs says 300 dpi (11811 px per metre, PNG specification)
+    expect(info.size[0]).toBe(2126);
+    expect(info.dpi[0]).toBeCloseTo(300, 0);
+    await wb.shot('lines-line', { fullPage: true });
+    expect(wb.consoleErrors).toEqual([]);
+  }, SLOW);
+});
