@@ -6,13 +6,14 @@
 import type { ServiceEntry } from './services/types.js';
 import { filesServices } from './services/files.js';
 import { viewExportServices } from './services/view-export.js';
+import { viewDataServices } from './services/view-data.js';
 import { viewsServices } from './services/views.js';
 import { linesServices } from './services/lines.js';
 import { spinupServices } from './services/spinup.js';
 import { cfServices } from './services/cf.js';
 import { reportServices } from './services/report.js';
 
-export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...viewExportServices, ...linesServices, ...cfServices, ...spinupServices, ...reportServices];
+export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...viewExportServices, ...viewDataServices, ...linesServices, ...cfServices, ...spinupServices, ...reportServices];
 
 export function findService(name: string): ServiceEntry | undefined {
   return serviceTable.find((e) => e.name === name);

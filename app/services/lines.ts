@@ -4,31 +4,12 @@
  * reference and the runs. Every file goes through ctx.resolvePath.
  */
 import { z } from 'zod';
-import { runLine, type LineSpec } from '../lines/run-line.js';
-import { parseWaypoints } from '../lines/waypoints.js';
 import { runPoints, stationProblems } from '../points/run-points.js';
 import type { Stations } from '../points/stations-csv.js';
 import { besideRecipe, guardFile, recipeOfCall } from './recipe-guard.js';
+import { lineInput, recipeJson, sampleLineOfCall } from './line-sampling.js';
 import type { SkillNumbers } from '../stats/weighted.js';
 import { entry, type ServiceEntry } from './types.js';
-
-/** An open workbench session (its recipe is used, on its thread), or a recipe as JSON with its folder. */
-const recipeJson = { session: z.string().min(1).optional(), recipe: z.unknown().optional(), baseDir: z.string().min(1).optional() };
-const lonLat = z.object({ lon: z.number().finite(), lat: z.number().finite() });
-
-const lineInput = z.object({
-  ...recipeJson,
-  variable: z.string().min(1),
-  /** waypoints as a list, or typed as "lon,lat;lon,lat" */
-  line: z.union([
-    z.object({ kind: z.literal('waypoints'), points: z.union([z.array(lonLat), z.string().min(1)]) }),
-    z.object({ kind: z.literal('meridian'), lon: z.number().finite(), lat0: z.number().finite().optional(), lat1: z.number().finite().optional() }),
-    z.object({ kind: z.literal('parallel'), lat: z.number().finite(), lon0: z.number().finite().optional(), lon1: z.number().finite().optional() }),
-  ]),
-  spacingKm: z.number().positive().finite().optional(),
-  depthRange: z.tuple([z.number().finite(), z.number().finite()]).optional(),
-  method: z.enum(['bilinear', 'nearest']).optional(),
-});
 
 const pointsInput = z.object({
   ...recipeJson,
@@ -98,20 +79,7 @@ export const linesServices: ServiceEntry[] = [
     heavy: true,
     session: 'use',
     async run(input, ctx): Promise<LineData> {
-      const recipe = recipeOfCall(input, ctx);
-      const spec: LineSpec =
-        input.line.kind === 'waypoints'
-          ? { kind: 'waypoints', points: typeof input.line.points === 'string' ? parseWaypoints(input.line.points, 'waypoints') : input.line.points }
-          : input.line;
-      const r = await runLine(recipe, {
-        variable: input.variable,
-        line: spec,
-        spacingKm: input.spacingKm,
-        depthRange: input.depthRange ? { top: input.depthRange[0], bottom: input.depthRange[1] } : undefined,
-        method: input.method,
-        cacheDir: ctx.cacheDir,
-        progress: (f, m) => ctx.progress(f, m),
-      });
+      const r = await sampleLineOfCall(input, ctx);
       return {
         variable: r.variable,
         units: r.units,

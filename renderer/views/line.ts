@@ -15,6 +15,7 @@ import { figureElement, screenFigure } from '../plot/figure-element.js';
 import { choose, state, type AppState, type LineChoice } from '../state.js';
 import { accept, readNumber, refuse } from '../widgets/field-check.js';
 import { letter, lineMap } from './line-map.js';
+import { dataDownload } from '../widgets/data-download.js';
 import { figureFrame } from '../widgets/figure-frame.js';
 import { errorText, note, type ViewFactory } from './view.js';
 
@@ -82,6 +83,9 @@ export const lineView: ViewFactory = (el) => {
     choose({ line: { ...line(), points: [...line().points, [Number(p.lon.toFixed(2)), Number(p.lat.toFixed(2))]] } });
   });
   const go = h('button', { type: 'submit', class: 'primary' }, 'Draw line');
+  /** the request the line shown was sampled with: the download asks for the same */
+  let sampledInput: Record<string, unknown> | null = null;
+  const download = dataDownload('line', 'line', () => (sampledInput && data ? { service: 'view.export-line', input: sampledInput } : null));
   const stretch = h('input', { type: 'checkbox', id: 'line-stretch' });
   stretch.addEventListener('change', () => choose({ line: { ...line(), stretch: stretch.checked } }));
   toolbar.append(
@@ -90,6 +94,7 @@ export const lineView: ViewFactory = (el) => {
     fromProbe,
     go,
     h('label', { class: 'toolbar-label', title: 'The upper 1000 m take half the height of the section' }, stretch, ' stretch upper ocean'),
+    download,
   );
   const map = lineMap();
   const mapBox = h('div', { class: 'line-map-box' }, map.el, h('p', { class: 'toolbar-hint' }, 'Click to add a waypoint, drag to move it, right-click (or Delete on a focused one) to remove it; arrows move a focused waypoint by 1°.'));
@@ -131,15 +136,17 @@ export const lineView: ViewFactory = (el) => {
     const asked = JSON.stringify([session.session, st.sel.variable, st.sel.line.points, st.sel.line.spacingKm]);
     note(stage, 'Sampling the fields along the line (in the background)…', 'busy');
     try {
-      const r = await tracked<LineData>('Sampling along the line', 'line.sample', {
+      const input = {
         session: session.session,
         variable: st.sel.variable,
         line: { kind: 'waypoints', points: textOf(st.sel.line.points) },
         spacingKm: st.sel.line.spacingKm,
-      });
+      };
+      const r = await tracked<LineData>('Sampling along the line', 'line.sample', input);
       if (my !== token) return;
       data = r;
       sampledKm = st.sel.line.spacingKm;
+      sampledInput = input;
       sampled = asked;
     } catch (e) {
       if (my === token) note(stage, errorText(e), 'error');

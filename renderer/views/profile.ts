@@ -13,6 +13,7 @@ import { profileFigure } from '../../app/figures/profile-figure.js';
 import type { Figure } from '../../app/figures/parts.js';
 import { h } from '../elements.js';
 import { choose, currentVariable, state, type AppState } from '../state.js';
+import { dataDownload } from '../widgets/data-download.js';
 import { figureFrame } from '../widgets/figure-frame.js';
 import { errorText, note, type ViewFactory } from './view.js';
 
@@ -53,7 +54,11 @@ export const profileView: ViewFactory = (el) => {
   });
   const depthLabel = h('span', { class: 'toolbar-label' }, 'Region and variable from the bar above. Depth range');
   const modeSlot = h('span', { class: 'profile-mode' });
-  toolbar.append(modeSlot, depthLabel, depth);
+  // the data of the mean profile shown (the monthly cycle exports as a figure only)
+  const download = dataDownload('profile', 'profile', () =>
+    last && state.session && !cycleMode(state) ? { service: 'view.export-profile', input: { session: state.session.session, variable: last.variable, region: last.region, period: last.period } } : null,
+  );
+  toolbar.append(modeSlot, depthLabel, depth, download);
 
   /** The choice between the mean profile and the monthly cycle; the cycle only where the recipe has months. */
   const drawMode = (st: AppState): void => {
@@ -72,6 +77,7 @@ export const profileView: ViewFactory = (el) => {
     const cycle = st.sel.profileCycle && monthly;
     depthLabel.hidden = cycle;
     depth.hidden = cycle;
+    download.hidden = cycle;
   };
 
   const name = (): string => {

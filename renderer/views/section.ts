@@ -15,6 +15,7 @@ import { choose, currentVariable, state, type AppState, type Selection } from '.
 import { buttonGroup } from '../widgets/button-group.js';
 import { accept, readNumber, refuse } from '../widgets/field-check.js';
 import { keepFocus } from '../widgets/keep-focus.js';
+import { dataDownload } from '../widgets/data-download.js';
 import { figureFrame } from '../widgets/figure-frame.js';
 import { errorText, note, type ViewFactory } from './view.js';
 
@@ -87,6 +88,9 @@ export const sectionView: ViewFactory = (el) => {
   const { toolbar, stage } = frame;
   let built: Built | null = null;
   let token = 0;
+  /** what the figure shown was drawn from: the download asks for the same */
+  let asked: Record<string, unknown> | null = null;
+  const download = dataDownload('section', 'section', () => (asked && built ? { service: 'view.export-section', input: asked } : null));
 
   const drawToolbar = (sel: Selection): void => {
     const at = h('input', { type: 'number', step: 'any', id: 'section-at', value: String(sel.sectionAt), 'aria-label': sel.sectionKind === 'parallel' ? 'Latitude of the section (degrees north)' : 'Longitude of the section (degrees east)' });
@@ -123,6 +127,7 @@ export const sectionView: ViewFactory = (el) => {
           : h('label', { class: 'toolbar-label' }, sel.sectionKind === 'meridian' ? 'Longitude (°E) ' : 'Latitude (°N) ', at),
         buttonGroup({ label: 'Field shown', id: 'section-field', options: [['model', 'Run'], ['reference', 'Reference'], ['difference', 'Difference']] as const, value: sel.sectionField, onPick: (v) => choose({ sectionField: v }) }).el,
         depth,
+        download,
       ),
     );
   };
@@ -145,6 +150,7 @@ export const sectionView: ViewFactory = (el) => {
     const spec = describe(st, data);
     if (!spec) return note(stage, 'There are no values along this section.');
     built = { data, fig: sectionFigure(spec) };
+    asked = { session: session.session, variable: st.sel.variable, run: st.sel.run, kind: st.sel.sectionKind, at: st.sel.sectionAt, region: st.sel.region, period: st.sel.period };
     stage.replaceChildren(screenFigure(built.fig, frame.width(480)));
     stage.dataset.drawn = `${data.variable}|${data.run}|${data.kind}|${data.at ?? data.region}`;
     stage.dataset.period = data.period;

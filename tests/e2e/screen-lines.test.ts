@@ -1,9 +1,12 @@
 // Section, Profile and Line on the screen are figures of app/figures (issue 11, one figure code path): what the
 // stage shows is the figure the export writes. The Line view exports the report's line figure (reference, runs,
 // differences, column means) as SVG and as PNG at 300 dpi with its resolution in the file (read with Pillow).
-// Screenshots go to tests/e2e/screenshots/ for a person to look at.
+// The data behind each figure downloads as CSV and CF NetCDF (issue 14, "data out"); each NetCDF is read with
+// netCDF4-python (Debian's /usr/bin/python3, tests/e2e/compare_data_files.py) and compared cell by cell with its
+// CSV. Screenshots go to tests/e2e/screenshots/ for a person to look at.
 import { spawnSync } from 'node:child_process';
-import { readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Download, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -31,6 +34,49 @@ function fileTexts(svg: string): string[] {
   return JSON.parse(py.stdout) as string[];
 }
 
+interface Compared {
+  header: Record<string, string>;
+  heading: string[];
+  rows: number;
+  cells_with_values: number;
+  fields: string[];
+  field_headings_match: boolean;
+  units: string[];
+  fill_values: number[];
+  bounds: Record<string, string | null>;
+  mismatches: unknown[];
+  conventions: string;
+}
+
+/** Download the data of a view as NetCDF and CSV through its buttons, and compare them with netCDF4-python. */
+async function downloadBoth(page: Page, id: string, dims: string): Promise<Compared> {
+  const nc = await download(page, () => page.click(`#${id}-download-netcdf`));
+  const csv = await download(page, () => page.click(`#${id}-download-csv`));
+  expect(nc.name).toMatch(/\.nc$/);
+  expect(csv.name).toMatch(/\.csv$/);
+  const dir = mkdtempSync(join(tmpdir(), 'sw-data-out-'));
+  try {
+    writeFileSync(join(dir, 'a.nc'), nc.bytes);
+    writeFileSync(join(dir, 'a.csv'), csv.bytes);
+    const py = spawnSync('/usr/bin/python3', [join(__dirname, 'compare_data_files.py'), join(dir, 'a.nc'), join(dir, 'a.csv'), dims], { encoding: 'utf8', maxBuffer: 1 << 28 });
+    expect(py.status, py.stderr).toBe(0);
+    return JSON.parse(py.stdout) as Compared;
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+function expectSameData(c: Compared, units: string): void {
+  expect(c.conventions).toBe('CF-1.10');
+  expect(c.mismatches).toEqual([]);
+  expect(c.rows).toBe(c.cells_with_values);
+  expect(c.rows).toBeGreaterThan(0);
+  expect(c.field_headings_match).toBe(true);
+  expect(c.units).toEqual([units]);
+  // NetCDF's default fill value for float (9.9692099683868690e+36, netcdf.h NC_FILL_FLOAT), as CF allows
+  expect(c.fill_values).toEqual([Math.fround(9.969209968386869e36)]);
+}
+
 describe.skipIf(!canRunBrowser)('section, profile and line figures on the screen are the exported figures', () => {
   let wb: Workbench;
   let page: Page;
@@ -52,6 +98,11 @@ describe.skipIf(!canRunBrowser)('section, profile and line figures on the screen
     const svg = (await download(page, () => page.click('#export-svg'))).bytes.toString('utf8');
     expect(fileTexts(svg)).toEqual(shown);
     await wb.shot('lines-section');
+    const data = await downloadBoth(page, 'section', 'depth,lat');
+    expectSameData(data, 'degC');
+    expect(data.header).toMatchObject({ variable: 'T', units: 'degC', period: 'annual', run: 'remin-short (L = 200 m)' });
+    expect(data.header.section).toMatch(/^meridian section along 24\.5°W/);
+    expect(data.bounds).toEqual({ depth: 'depth_bnds', lat: 'lat_bnds' });
   }, SLOW);
 
   it('Profile: the stage shows the figure the SVG export writes', async () => {
@@ -63,6 +114,11 @@ describe.skipIf(!canRunBrowser)('section, profile and line figures on the screen
     const svg = (await download(page, () => page.click('#export-svg'))).bytes.toString('utf8');
     expect(fileTexts(svg)).toEqual(shown);
     await wb.shot('lines-profile');
+    const data = await downloadBoth(page, 'profile', 'depth');
+    expectSameData(data, 'degC');
+    expect(data.header).toMatchObject({ variable: 'T', period: 'annual' });
+    expect(data.header.region).toMatch(/^global /);
+    expect(data.fields).toHaveLength(4); // the reference and the demo's three runs
   }, SLOW);
 
   it('Line: the report\'s line figure on the stage, exported as one SVG and one 300 dpi PNG', async () => {
@@ -93,6 +149,11 @@ describe.skipIf(!canRunBrowser)('section, profile and line figures on the screen
     expect(info.size[0]).toBe(2126);
     expect(info.dpi[0]).toBeCloseTo(300, 0);
     await wb.shot('lines-line', { fullPage: true });
+    const data = await downloadBoth(page, 'line', 'depth,distance');
+    expectSameData(data, 'degC');
+    expect(data.header.line).toMatch(/^great-circle through A 30°W 60°S at 0 km; B 30°W 0° at [\d.]+ km; C 20°W 60°N at [\d.]+ km; sampled every 100 km/);
+    expect(data.fields).toHaveLength(7); // reference, three runs, three differences
+    expect(data.heading.slice(0, 9)).toEqual(['depth (m)', 'depth_min', 'depth_max', 'distance (km)', 'distance_min', 'distance_max', 'lon (degrees_east)', 'lat (degrees_north)', 'seafloor_depth (m)']);
     expect(wb.consoleErrors).toEqual([]);
   }, SLOW);
 });
