@@ -22,6 +22,9 @@ const sup = (digits: string): string => [...digits].map((c) => SUPERSCRIPT[c] ??
 
 /** One factor of a UDUNITS product, e.g. "umol", "kg-1", "m^-3", "m**3". */
 function factor(t: string): string {
+  // a power of ten written as 1e-3 (salinity's "units" of parts per thousand): 10⁻³
+  const p = /^1e(-?\d+)$/.exec(t);
+  if (p) return `10${sup(String(Number(p[1])))}`;
   const m = /^([A-Za-zµμ%]+)(?:\^|\*\*)?(-?\d+)?$/.exec(t);
   if (!m) return t;
   let base = m[1];

@@ -3,6 +3,7 @@ import { linearSlope, mean } from './linear-slope.js';
 import { chooseTail } from './tail-window.js';
 import { turningPoints } from './turning-points.js';
 import { formatNumber as fmt, formatSigned as fmtSigned, formatYears as yrs } from '../output/number-format.js';
+import { typesetUnits } from '../figures/typeset.js';
 import type { DriftRate, FirstOrderFit, TrackVerdict } from './types.js';
 
 /** A run shorter than this has not settled in the deep ocean (England 1995; common practice: "a few thousand years"). */
@@ -176,7 +177,7 @@ function verdictFor(
     : `by the tail slope ${over}`;
   if (judged === null) {
     status = 'undetermined';
-    parts.push(`Undetermined: the mean is zero, so a relative drift has no meaning; the drift is ${fmtSigned(drift.perKyr, 3)} ${input.units} per 1000 years ${over}.`);
+    parts.push(`Undetermined: the mean is zero, so a relative drift has no meaning; the drift is ${fmtSigned(drift.perKyr, 3)} ${typesetUnits(input.units)} per 1000 years ${over}.`);
   } else if (Math.abs(judged) <= input.thresholdPercentPerKyr) {
     status = 'settled';
     parts.push(`Settled: drift ${fmtSigned(judged, 3)} % ${ofMean} per 1000 years ${how}; threshold ${fmt(input.thresholdPercentPerKyr, 3)} %.`);
@@ -198,7 +199,7 @@ function verdictFor(
             ? `; about ${yrs(fit.yearsToSettle)} more model years until the fit's drift falls below the threshold`
             : '';
       parts.push(
-        `First-order fit from model year ${yrs(fit.t0)}: heading for ${fmt(fit.xInf, 3)} ${input.units} with τ = ${yrs(fit.tau)} years (90 % of the change takes ${yrs(fit.t90)} years; ${fit.yearsTo90 > 0 ? `${yrs(fit.yearsTo90)} more model years to get there` : 'already past that'})${toSettle}.`,
+        `First-order fit from model year ${yrs(fit.t0)}: heading for ${fmt(fit.xInf, 3)} ${typesetUnits(input.units)} with τ = ${yrs(fit.tau)} years (90 % of the change takes ${yrs(fit.t90)} years; ${fit.yearsTo90 > 0 ? `${yrs(fit.yearsTo90)} more model years to get there` : 'already past that'})${toSettle}.`,
       );
     }
   }

@@ -1,3 +1,4 @@
+import { typesetUnits } from '../figures/typeset.js';
 import { formatNumber } from '../output/number-format.js';
 import type { ParsedUnits } from '../cf/units.js';
 import type { InventoryUnits } from './types.js';
@@ -17,6 +18,8 @@ export const MOLAR_VOLUME_STP_L = 22.392;
  * `weightsAreAreas` for 2-D fields, whose weights are cell areas.
  */
 export function inventoryUnits(units: ParsedUnits, nominalDensity: number, weightsAreAreas = false): InventoryUnits {
+  // the notes are read by people (banner, report): units typeset as the figures print them
+  const u = typesetUnits(units.text);
   if (weightsAreAreas) return { units: `${units.canonical} m2`, factor: 1, note: 'a 2-D field: the inventory is the area integral Σ c·A' };
   switch (units.kind) {
     case 'amount_per_volume':
@@ -25,22 +28,22 @@ export function inventoryUnits(units: ParsedUnits, nominalDensity: number, weigh
       return {
         units: 'mol',
         factor: units.factor * nominalDensity,
-        note: `${units.text} was turned into an amount with a nominal seawater density of ${nominalDensity} kg m-3 (common practice)`,
+        note: `${u} was turned into an amount with a nominal seawater density of ${nominalDensity} kg m⁻³ (common practice)`,
       };
     case 'gas_volume_per_volume':
       return {
         units: 'mol',
         factor: (units.factor * 1000) / MOLAR_VOLUME_STP_L,
-        note: `${units.text} was turned into an amount with the molar volume of a gas at STP, ${MOLAR_VOLUME_STP_L} L mol-1 (common practice)`,
+        note: `${u} was turned into an amount with the molar volume of a gas at STP, ${MOLAR_VOLUME_STP_L} L mol⁻¹ (common practice)`,
       };
     case 'temperature':
       return {
         units: 'J',
         factor: nominalDensity * CP0 * units.factor,
         perVolume: nominalDensity * CP0 * units.offset,
-        note: `the inventory of ${units.text} is the heat content relative to 0 °C, ρ0·cp0·Σ T·V with a nominal density of ${nominalDensity} kg m-3 and the TEOS-10 heat capacity cp0 = ${formatNumber(CP0)} J kg-1 K-1 (common practice)`,
+        note: `the inventory of ${u} is the heat content relative to 0 °C, ρ0·cp0·Σ T·V with a nominal density of ${nominalDensity} kg m⁻³ and the TEOS-10 heat capacity cp0 = ${formatNumber(CP0)} J kg⁻¹ K⁻¹ (common practice)`,
       };
     default:
-      return { units: `${units.canonical} m3`, factor: 1, note: `${units.text} is not an amount: the inventory column is the volume integral Σ c·V` };
+      return { units: `${units.canonical} m3`, factor: 1, note: `${u} is not an amount: the inventory column is the volume integral Σ c·V` };
   }
 }

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { writeOutputFile } from '../output/output-set.js';
 import type { SpinupResult } from './types.js';
 
-const RESULT_SHAPE = 2;
+const RESULT_SHAPE = 3;
 
 /**
  * Spin-up results kept on disk between requests of the workbench (worker threads do not share memory):
@@ -13,7 +13,7 @@ const RESULT_SHAPE = 2;
  */
 export async function cacheKey(request: unknown, files: string[]): Promise<string> {
   const h = createHash('sha256');
-  // the shape of a result: raised when what a result holds changes (2: skill of concentrations in the tracks' units)
+  // the shape of a result: raised when what a result holds changes (2: skill of concentrations in the tracks' units; 3: units typeset in the sentences and notes)
   h.update(`result ${RESULT_SHAPE}\n`);
   h.update(JSON.stringify(request));
   for (const f of [...new Set(files)].sort()) {

@@ -1,5 +1,5 @@
 /**
- * Spin-up view: the figure of how a run's tracers drift over its snapshots (spinup-figure.ts) with the choice of
+ * Spin-up view: the figure of how a run's tracers drift over its snapshots (app/figures/spinup-figure.ts) with the choice of
  * run, quantity, layer, tracers and regions above it, and the table of drift rates and verdicts below
  * (spinup-table.ts); service 'spinup.run', or 'spinup.open' for a spinup.json written by `stillwater spinup`.
  */
@@ -9,9 +9,11 @@ import { h } from '../elements.js';
 import { pickFile } from '../panels/file-picker.js';
 import { state, type AppState } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';
-import { spinupFigure, type Choice, type Quantity } from './spinup-figure.js';
+import type { Figure } from '../../app/figures/parts.js';
+import { spinupFigure, type SpinupChoice as Choice, type SpinupQuantity as Quantity } from '../../app/figures/spinup-figure.js';
+import { figureElement, screenFigure } from '../plot/figure-element.js';
 import { spinupTable } from './spinup-table.js';
-import { EXPORT_WIDTH, errorText, note, type ViewFactory } from './view.js';
+import { errorText, note, type ViewFactory } from './view.js';
 
 export const spinupView: ViewFactory = (el) => {
   const toolbar = h('div', { class: 'view-toolbar', role: 'toolbar', 'aria-label': 'Spin-up options' });
@@ -26,6 +28,8 @@ export const spinupView: ViewFactory = (el) => {
   const fileRow = h('div', { class: 'view-toolbar spinup-file-row' }, openResults);
   el.append(fileRow, toolbar, pickers, banner, scroll);
   let result: SpinupResult | null = null;
+  /** the figure on the stage: the export writes the same one */
+  let shown: Figure | null = null;
   let resultKey = '';
   let token = 0;
   const table = spinupTable();
@@ -128,8 +132,8 @@ export const spinupView: ViewFactory = (el) => {
   const render = (r: SpinupResult): void => {
     banner.textContent = [r.summary.sentence, ...r.notes].join(' ');
     banner.className = `spinup-banner ${r.summary.settled ? 'settled' : 'drifting'}`;
-    const width = Math.max(640, Math.floor(stage.clientWidth || scroll.clientWidth || 900) - 4);
-    stage.replaceChildren(spinupFigure(r, c, width));
+    shown = spinupFigure(r, c, 'double');
+    stage.replaceChildren(screenFigure(shown, Math.max(640, Math.floor(stage.clientWidth || scroll.clientWidth || 900) - 4)));
     stage.dataset.drawn = `${c.run}|${c.quantity}|${c.relative ? 'relative' : 'absolute'}|${c.layer}|${c.tracers.join(',')}|${c.regions.join(',')}`;
     drawTable(r);
   };
@@ -198,7 +202,7 @@ export const spinupView: ViewFactory = (el) => {
       void draw(st);
     },
     async figure() {
-      return result ? spinupFigure(result, c, EXPORT_WIDTH) : null;
+      return shown ? figureElement(shown) : null;
     },
     fileBase: () => `stillwater-spinup-${c.run}-${c.quantity}-${c.layer}`.replace(/[^A-Za-z0-9._-]+/g, '_'),
     dispose() {

@@ -156,4 +156,33 @@ describe.skipIf(!canRunBrowser)('section, profile and line figures on the screen
     expect(data.heading.slice(0, 9)).toEqual(['depth (m)', 'depth_min', 'depth_max', 'distance (km)', 'distance_min', 'distance_max', 'lon (degrees_east)', 'lat (degrees_north)', 'seafloor_depth (m)']);
     expect(wb.consoleErrors).toEqual([]);
   }, SLOW);
+
+  it('Spin-up: the stage shows the figure the SVG export writes; units and the banner\'s sentences typeset', async () => {
+    await page.click('#tab-spinup');
+    await page.waitForSelector('.view-spinup [data-drawn]', { timeout: SLOW });
+    // every tracer, so that temperature (°C) and the nutrients (mmol m⁻³) are drawn, and the inventory (J, mol)
+    await page.evaluate(() => {
+      for (const b of document.querySelectorAll<HTMLInputElement>('#spinup-tracers input')) if (!b.checked) b.click();
+    });
+    await page.waitForFunction(() => /\|T,|,T\||,T,/.test(document.querySelector('.view-spinup [data-drawn]')?.getAttribute('data-drawn') ?? ''), undefined, { timeout: SLOW });
+    const shown = await screenTexts(page, 'spinup');
+    const axes = await page.$$eval('.view-spinup svg text.axis-label', (ts) => ts.map((t) => t.textContent ?? ''));
+    expect(axes).toContain('Model year (log scale)');
+    expect(axes).toContain('Mean deviation (°C)');
+    expect(axes).toContain('Mean deviation (mmol m⁻³)');
+    const banner = (await page.textContent('.view-spinup .spinup-banner')) ?? '';
+    const all = `${shown.join(' ')} ${banner} ${(await page.textContent('#spinup-table')) ?? ''}`;
+    // UDUNITS spellings belong in machine files, not on the screen (µmol kg⁻¹, kg m⁻³, °C as in the figures)
+    for (const raw of ['degC', 'kg m-3', 'mmol m-3', 'umol kg-1', 'J kg-1', 'mol-1']) expect(all).not.toContain(raw);
+    const svg = (await download(page, () => page.click('#export-svg'))).bytes.toString('utf8');
+    expect(svg).toContain('width="180mm"');
+    expect(fileTexts(svg)).toEqual(shown);
+    await page.click('.view-spinup button[data-value="inventory"]');
+    await page.waitForFunction(() => document.querySelector('.view-spinup [data-drawn]')?.getAttribute('data-drawn')?.includes('|inventory|'), undefined, { timeout: SLOW });
+    const inv = await page.$$eval('.view-spinup svg text.axis-label', (ts) => ts.map((t) => t.textContent ?? ''));
+    expect(inv).toContain('Inventory deviation (J)');
+    expect(inv).toContain('Inventory deviation (mol)');
+    await wb.shot('lines-spinup');
+    expect(wb.consoleErrors).toEqual([]);
+  }, SLOW);
 });

@@ -14,6 +14,8 @@ describe('units as a printed figure shows them', () => {
     ['umol/kg', 'µmol kg⁻¹'],
     ['m2 s-1', 'm² s⁻¹'],
     ['ml L-1', 'ml L⁻¹'],
+    ['1e-3 m3', '10⁻³ m³'],
+    ['J kg-1 K-1', 'J kg⁻¹ K⁻¹'],
   ])('%s → %s', (raw, printed) => expect(typesetUnits(raw)).toBe(printed));
 });
 

@@ -18,7 +18,7 @@ describe('temperature: heat content and drift relative to kelvin', () => {
     const c = inventoryUnits(DEGC, 1025);
     const k = inventoryUnits(KELVIN, 1025);
     expect(c.units).toBe('J');
-    expect(c.note).toMatch(/nominal density of 1025 kg m-3.*cp0/);
+    expect(c.note).toMatch(/nominal density of 1025 kg m⁻³.*cp0/);
     // one cubic metre at 10 °C = 283.15 K
     const fromC = c.factor * 10 + (c.perVolume ?? 0);
     const fromK = k.factor * 283.15 + (k.perVolume ?? 0);

@@ -61,6 +61,6 @@ describe('volume-weighted sums and inventory, computed by hand on a small grid',
     const inv = inventoryUnits(UMOL_KG, 1025);
     expect(inv.units).toBe('mol');
     expect(inv.factor).toBeCloseTo(1e-6 * 1025, 18);
-    expect(inv.note).toMatch(/nominal seawater density of 1025 kg m-3/);
+    expect(inv.note).toMatch(/nominal seawater density of 1025 kg m⁻³/);
   });
 });
