@@ -63,6 +63,7 @@ export function sectionFigure(spec: SectionFigureSpec): Figure {
       xTicks: 8,
       depthTicks: 6,
       className: 'panel section',
+      panelId: 'section',
     }),
   );
   const bars = el('g', { class: 'colour-bars' });

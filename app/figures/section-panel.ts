@@ -47,6 +47,8 @@ export interface SectionPanelSpec {
   pixelsPerPt?: number;
   /** a class for the panel's group, e.g. "panel field" */
   className?: string;
+  /** what the panel shows, as data-panel on its plot area (the screen's readout finds the values by it) */
+  panelId?: string;
 }
 
 function hasData(v: ArrayLike<number>): boolean {
@@ -81,7 +83,7 @@ export function sectionPanel(r: Rect, spec: SectionPanelSpec): SvgNode {
   const Y = depthScale(spec.depthMax, [r.y, r.y + r.h], spec.stretch);
   const marksH = spec.marks?.length ? MARK_ROW_PT : 0;
   if (spec.title) g.append(text(r.x, r.y - 3 - marksH, spec.title, { 'font-size': FONT_PT.panelTitle, 'font-weight': 'bold', class: 'panel-title' }));
-  g.append(el('rect', { x: r2(r.x), y: r2(r.y), width: r2(r.w), height: r2(r.h), fill: NO_DATA }));
+  g.append(el('rect', { x: r2(r.x), y: r2(r.y), width: r2(r.w), height: r2(r.h), fill: NO_DATA, class: 'panel-area', 'data-panel': spec.panelId }));
   const lim = spec.limits;
   if (!hasData(spec.values) || lim === null) {
     g.append(text(r.x + r.w / 2, r.y + r.h / 2, spec.emptyText, { 'text-anchor': 'middle', 'font-size': FONT_PT.label, class: 'no-data' }));

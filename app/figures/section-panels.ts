@@ -78,8 +78,9 @@ export function sectionPanelsFigure(spec: SectionPanelsSpec): Figure {
   const svg = figureRoot(W, H, `${spec.title}${spec.subtitle ? `. ${spec.subtitle}` : ''}`);
   for (const c of scratch.children) svg.append(c);
 
-  const panel = (r: Rect, label: string, values: Float32Array, diverging: boolean): SvgNode =>
+  const panel = (r: Rect, label: string, values: Float32Array, diverging: boolean, panelId: string): SvgNode =>
     sectionPanel(r, {
+      panelId,
       grid: spec.grid,
       values,
       scale: diverging ? DIVERGING : SEQUENTIAL,
@@ -97,14 +98,14 @@ export function sectionPanelsFigure(spec: SectionPanelsSpec): Figure {
   const xL = LEFT_AXIS_PT + 2;
   const xR = xL + colW + GAP + LEFT_AXIS_PT;
   const rect = (row: number, x: number): Rect => ({ x, y: top + row * rowH + PANEL_TITLE + marksH, w: colW, h: panelH });
-  svg.append(panel(rect(0, xL), `${spec.reference.label} (reference)`, spec.reference.values, false));
+  svg.append(panel(rect(0, xL), `${spec.reference.label} (reference)`, spec.reference.values, false, 'reference'));
   const note = `${spec.reference.label} and every run share one colour scale; all differences share one symmetric scale, ${
     limits.differenceSource === 'fixed by the recipe' ? 'fixed by the recipe' : 'the 98th percentile of |run − reference| pooled over the runs, weighted by layer thickness × width'
   }. Brown: below the seafloor.`;
   wrap(note, charsIn(colW, FONT_PT.label), 6).forEach((line, i) => svg.append(text(xR - LEFT_AXIS_PT + 8, top + PANEL_TITLE + marksH + FONT_PT.label + i * (FONT_PT.label + 2), line, { 'font-size': FONT_PT.label, fill: MUTED, class: 'scale-note' })));
   spec.runs.forEach((run, i) => {
-    svg.append(panel(rect(i + 1, xL), run.label, run.values, false));
-    svg.append(panel(rect(i + 1, xR), `${run.label} minus reference`, run.difference, true));
+    svg.append(panel(rect(i + 1, xL), run.label, run.values, false, `run:${i}`));
+    svg.append(panel(rect(i + 1, xR), `${run.label} minus reference`, run.difference, true, `difference:${i}`));
   });
   const bars = el('g', { class: 'colour-bars' });
   if (limits.field) colourBarH(bars, { x: xL + colW * 0.1, y: barsY, w: colW * 0.8, h: 5 }, SEQUENTIAL, limits.field[0], limits.field[1], `${spec.quantity} (${units})`);

@@ -5,13 +5,15 @@
  * below. The export writes that same figure. The line, its spacing and the depth stretch are kept in the state
  * for the session.
  */
-import { lineFigure } from '../../app/figures/line-figure.js';
+import { lineFigure, sampleEdges } from '../../app/figures/line-figure.js';
+import { deepestWater } from '../../app/figures/section-panel.js';
 import type { Figure } from '../../app/figures/parts.js';
 import { latLabel, lonLabel } from '../../app/figures/typeset.js';
 import type { LineData } from '../../app/services/lines.js';
 import { tracked } from '../service-client.js';
 import { h } from '../elements.js';
 import { figureElement, screenFigure } from '../plot/figure-element.js';
+import { sectionReadout } from '../plot/section-readout.js';
 import { choose, state, type AppState, type LineChoice } from '../state.js';
 import { accept, readNumber, refuse } from '../widgets/field-check.js';
 import { letter, lineMap } from './line-map.js';
@@ -125,7 +127,24 @@ export const lineView: ViewFactory = (el) => {
   const render = (): void => {
     if (!data || !state.session) return;
     shown = lineFigureOf(data, sampledKm, line().stretch, state.session.reference.label);
-    frame.show(`${data.variable}|${data.fields.length}|${line().stretch ? 'stretched' : 'linear'}|${data.waypoints.length}`, screenFigure(shown, frame.width(560)));
+    const svg = screenFigure(shown, frame.width(560));
+    const d = data;
+    const runs = d.fields.filter((f) => f.role === 'run');
+    const diffs = d.fields.filter((f) => f.role === 'difference');
+    const field = (panel: string) => {
+      const [role, i] = panel.split(':');
+      return role === 'reference' ? d.fields.find((f) => f.role === 'reference') : role === 'run' ? runs[Number(i)] : role === 'difference' ? diffs[Number(i)] : undefined;
+    };
+    const readout = sectionReadout(svg, {
+      grid: { xEdges: sampleEdges(d.distanceKm), depthEdges: d.depthEdges },
+      depthMax: deepestWater(d.seafloorM, d.depthEdges),
+      stretch: line().stretch,
+      valuesOf: (panel) => field(panel)?.values ?? null,
+      nameOf: (panel) => (panel === 'reference' ? `${state.session?.reference.label ?? 'reference'} (reference)` : (field(panel)?.label ?? panel)),
+      formatX: (x) => `${Math.round(x)} km along the line`,
+      units: d.units,
+    });
+    frame.show(`${data.variable}|${data.fields.length}|${line().stretch ? 'stretched' : 'linear'}|${data.waypoints.length}`, readout, svg);
   };
 
   const load = async (st: AppState): Promise<void> => {

@@ -11,6 +11,7 @@ import type { Figure } from '../../app/figures/parts.js';
 import { getSection } from '../service-client.js';
 import { h } from '../elements.js';
 import { figureElement, screenFigure } from '../plot/figure-element.js';
+import { sectionReadout } from '../plot/section-readout.js';
 import { choose, currentVariable, state, type AppState, type Selection } from '../state.js';
 import { buttonGroup } from '../widgets/button-group.js';
 import { accept, readNumber, refuse } from '../widgets/field-check.js';
@@ -150,8 +151,17 @@ export const sectionView: ViewFactory = (el) => {
     const spec = describe(st, data);
     if (!spec) return note(stage, 'There are no values along this section.');
     built = { data, fig: sectionFigure(spec) };
+    const svg = screenFigure(built.fig, frame.width(480));
+    const readout = sectionReadout(svg, {
+      grid: spec.grid,
+      depthMax: spec.depthMax!,
+      valuesOf: (panel) => (panel === 'section' ? spec.values : null),
+      nameOf: () => spec.title.slice(spec.title.lastIndexOf(': ') + 2),
+      formatX: spec.formatX!,
+      units: spec.units,
+    });
     asked = { session: session.session, variable: st.sel.variable, run: st.sel.run, kind: st.sel.sectionKind, at: st.sel.sectionAt, region: st.sel.region, period: st.sel.period };
-    stage.replaceChildren(screenFigure(built.fig, frame.width(480)));
+    stage.replaceChildren(svg, readout);
     stage.dataset.drawn = `${data.variable}|${data.run}|${data.kind}|${data.at ?? data.region}`;
     stage.dataset.period = data.period;
   };

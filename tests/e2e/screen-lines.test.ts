@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Download, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { canRunBrowser, readyWorkbench, SCREENSHOTS, type Workbench } from './harness.js';
+import { callInPage, canRunBrowser, readyWorkbench, SAMPLE_DATA, SCREENSHOTS, type Workbench } from './harness.js';
 
 const SLOW = 240_000;
 
@@ -98,6 +98,17 @@ describe.skipIf(!canRunBrowser)('section, profile and line figures on the screen
     const svg = (await download(page, () => page.click('#export-svg'))).bytes.toString('utf8');
     expect(fileTexts(svg)).toEqual(shown);
     await wb.shot('lines-section');
+    // the readout over the figure: the value of the cell under the pointer, as a session of its own reads it
+    const box = (await page.locator('.view-section rect.panel-area').boundingBox())!;
+    await page.mouse.move(box.x + box.width * 0.42, box.y + box.height * 0.3);
+    await page.waitForFunction(() => !!document.querySelector('.view-section .section-readout')?.getAttribute('data-cell'), undefined, { timeout: SLOW });
+    const cell = (await page.getAttribute('.view-section .section-readout', 'data-cell'))!.split(',').map(Number);
+    const shownValue = Number(await page.getAttribute('.view-section .section-readout', 'data-value'));
+    const own = await callInPage<{ session: string }>(page, 'view.open', { recipe: join(SAMPLE_DATA, 'demo-recipe.json') });
+    const sec = await callInPage<{ model: Float32Array; edges: Float64Array }>(page, 'view.section', { session: own.session, variable: 'T', run: 'remin-short (L = 200 m)', kind: 'meridian', at: -25 });
+    const n = sec.edges.length - 1;
+    expect(shownValue).toBe(sec.model[cell[0] * n + cell[1]]);
+    expect(await page.textContent('.view-section .section-readout')).toMatch(/^remin-short \(L = 200 m\) at [\d.]+°[NS], \d+ m: [\d.]+ °C$/);
     const data = await downloadBoth(page, 'section', 'depth,lat');
     expectSameData(data, 'degC');
     expect(data.header).toMatchObject({ variable: 'T', units: 'degC', period: 'annual', run: 'remin-short (L = 200 m)' });
@@ -137,6 +148,12 @@ describe.skipIf(!canRunBrowser)('section, profile and line figures on the screen
     expect(shown).toContain('Run minus reference (°C)');
     // the waypoints A, B, C on the top axis of the first panel
     expect(await page.locator('.view-line .waypoint-marks').first().locator('.waypoint-label').allTextContents()).toEqual(['A', 'B', 'C']);
+    // the readout names the panel under the pointer and its value (a difference panel of the first run)
+    const diffBox = (await page.locator('.view-line rect.panel-area[data-panel="difference:0"]').boundingBox())!;
+    await page.mouse.move(diffBox.x + diffBox.width * 0.3, diffBox.y + diffBox.height * 0.1);
+    await page.waitForFunction(() => document.querySelector('.view-line .section-readout')?.getAttribute('data-panel') === 'difference:0', undefined, { timeout: SLOW });
+    expect(await page.textContent('.view-line .section-readout')).toMatch(/^remin-short \(L = 200 m\) minus reference at \d+ km along the line, \d+ m: [−\-\d.e]+ °C$/);
+    await wb.shot('lines-line-readout');
     const svg = await download(page, () => page.click('#export-svg'));
     expect(svg.name).toMatch(/\.svg$/);
     expect(fileTexts(svg.bytes.toString('utf8'))).toEqual(shown);
