@@ -214,7 +214,7 @@ export interface ScreenSection {
   period?: ViewPeriod;
   /** the Profile view showed the monthly cycle (month × depth) instead of the mean profile */
   profileCycle?: boolean;
-  line?: { points: [number, number][]; spacingKm: number; field: number; stretch: boolean };
+  line?: { points: [number, number][]; spacingKm: number; field?: number; stretch: boolean };
 }
 
 /** What `report.write` answers: where the report was written. */

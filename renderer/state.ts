@@ -72,8 +72,6 @@ export interface LineChoice {
   /** waypoints as [lon, lat] */
   points: [number, number][];
   spacingKm: number;
-  /** which field along the line: index into the line's fields (reference, runs, differences) */
-  field: number;
   /** depth axis stretched over the upper ocean */
   stretch: boolean;
 }
@@ -123,7 +121,7 @@ export const state: AppState = {
     contours: false,
     mapWindow: null,
     cropToRegion: false,
-    line: { points: [[-30, -60], [-30, 0], [-20, 60]], spacingKm: 100, field: 1, stretch: false },
+    line: { points: [[-30, -60], [-30, 0], [-20, 60]], spacingKm: 100, stretch: false },
   },
   probe: null,
   periodRefused: null,
@@ -284,5 +282,10 @@ export function screenOf(sel: Selection): ScreenSection {
 function restorable(screen: ScreenSection): Partial<Selection> {
   const out: Record<string, unknown> = {};
   for (const k of SCREEN_KEYS) if (screen[k] !== undefined) out[k] = screen[k];
+  // a line saved when the Line view showed one field at a time: the field is no longer chosen
+  if (screen.line) {
+    const { field: _field, ...line } = screen.line;
+    out.line = line;
+  }
   return out as Partial<Selection>;
 }

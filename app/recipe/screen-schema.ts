@@ -39,7 +39,8 @@ export const screenSectionSchema = z.strictObject({
     .strictObject({
       points: z.array(z.tuple([z.number().min(-180).max(360), z.number().min(-90).max(90)])).min(2),
       spacingKm: z.number().positive().max(5000),
-      field: z.number().int().min(0),
+      /** no longer used (the Line view shows every field at once); accepted so that recipes saved before still open */
+      field: z.number().int().min(0).optional(),
       stretch: z.boolean(),
     })
     .optional(),

@@ -8,6 +8,11 @@ describe('screen section of a recipe', () => {
     const screen = { view: 'line', variable: 'PO4', layer: 'k:3', projection: 'north-polar', fieldRange: [0, 2], logColour: true, mapWindow: { xmin: -1, xmax: 1, ymin: -1, ymax: 1 }, line: { points: [[-30, -60], [-30, 0]], spacingKm: 50, field: 2, stretch: true } };
     expect(screenSectionSchema.parse(screen)).toEqual(screen);
   });
+  it('accepts a line without a field (the Line view shows every field) and one saved with it before', () => {
+    const line = { points: [[-30, -60], [-30, 0]], spacingKm: 50, stretch: false };
+    expect(screenSectionSchema.parse({ line })).toEqual({ line });
+    expect(screenSectionSchema.safeParse({ line: { ...line, field: 1 } }).success).toBe(true);
+  });
   it('refuses a colour range whose maximum is not above its minimum, naming the key', () => {
     const r = screenSectionSchema.safeParse({ fieldRange: [5, 1] });
     expect(r.success).toBe(false);
