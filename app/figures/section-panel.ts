@@ -124,3 +124,25 @@ export function waypointMarks(r: Rect, X: Scale, marks: SectionMark[]): SvgNode 
   }
   return g;
 }
+
+/** The first and last samples with water under them (seafloor > 0), or null when none has. */
+export function waterSpan(seafloor: ArrayLike<number>): [number, number] | null {
+  let first = -1;
+  let last = -1;
+  for (let s = 0; s < seafloor.length; s++) {
+    if (seafloor[s] > 0) {
+      if (first < 0) first = s;
+      last = s;
+    }
+  }
+  return first < 0 ? null : [first, last];
+}
+
+/** Samples first..last (inclusive) of level-major values[k * n + s]. */
+export function cutSamples(values: Float32Array, n: number, first: number, last: number): Float32Array {
+  const nz = Math.round(values.length / n);
+  const m = last - first + 1;
+  const out = new Float32Array(nz * m);
+  for (let k = 0; k < nz; k++) out.set(values.subarray(k * n + first, k * n + last + 1), k * m);
+  return out;
+}

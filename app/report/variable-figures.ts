@@ -4,6 +4,7 @@ import { diagramsFigure } from '../figures/diagrams.js';
 import { mapPanelsFigure, type PanelStats } from '../figures/map-panels.js';
 import type { Figure } from '../figures/parts.js';
 import { lineFigure, waypointLetters } from '../figures/line-figure.js';
+import { cutSamples, waterSpan } from '../figures/section-panel.js';
 import { sectionPanelsFigure } from '../figures/section-panels.js';
 import { latLabel } from '../figures/typeset.js';
 import { layerLabel, type LayerSpec } from '../regions/layers.js';
@@ -73,6 +74,9 @@ export function* variableFigures(data: VariableFigureData, rows: SkillRow[], ctx
       const ny = z.lat.length;
       const nz = depthEdges.length - 1;
       for (let j = 0; j < ny; j++) for (let k = 0; k < nz; k++) if (z.reference[k * ny + j] === z.reference[k * ny + j]) seafloor[j] = depthEdges[k + 1];
+      // a basin spans only its latitudes: the rows without water at either end are left out (as on the screen)
+      const [first, last] = waterSpan(seafloor) ?? [0, ny - 1];
+      const cut = (a: Float32Array): Float32Array => cutSamples(a, ny, first, last);
       yield sectionPanelsFigure({
         name: `${slug(v)}-zonal-${slug(z.basin)}`,
         title: `${v}, zonal mean over the ${z.basin} basin: reference, runs and run minus reference`,
@@ -80,12 +84,12 @@ export function* variableFigures(data: VariableFigureData, rows: SkillRow[], ctx
         quantity: v,
         units: data.units,
         width,
-        grid: { xEdges: z.latEdges, depthEdges },
+        grid: { xEdges: z.latEdges.slice(first, last + 2), depthEdges },
         xLabel: 'Latitude (degrees)',
         formatX: latLabel,
-        seafloor,
-        reference: { label: ctx.referenceLabel, values: z.reference },
-        runs: z.runs,
+        seafloor: seafloor.slice(first, last + 1),
+        reference: { label: ctx.referenceLabel, values: cut(z.reference) },
+        runs: z.runs.map((r) => ({ label: r.label, values: cut(r.values), difference: cut(r.difference) })),
         fixedDifference: fixed,
       });
     }

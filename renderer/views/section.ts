@@ -6,6 +6,7 @@ import { periodLabel } from '../../app/render/period-labels.js';
 import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange } from '../../app/render/colour-scales.js';
 import type { SectionData } from '../../contract/view-types.js';
 import { sectionFigure, type SectionFigureSpec } from '../../app/figures/section-figure.js';
+import { cutSamples, waterSpan } from '../../app/figures/section-panel.js';
 import { latLabel, lonLabel } from '../../app/figures/typeset.js';
 import type { Figure } from '../../app/figures/parts.js';
 import { getSection } from '../service-client.js';
@@ -28,22 +29,10 @@ interface Built {
 /** A zonal mean over a basin spans only the basin's latitudes: samples without water at either end are left out. */
 function withWater(data: SectionData): SectionData {
   const n = data.edges.length - 1;
-  const nz = data.depthEdges.length - 1;
-  let first = n;
-  let last = -1;
-  for (let q = 0; q < n; q++) {
-    if (Number.isFinite(data.seafloor[q])) {
-      first = Math.min(first, q);
-      last = q;
-    }
-  }
-  if (data.kind !== 'zonal' || last < first || (first === 0 && last === n - 1)) return data;
-  const m = last - first + 1;
-  const cut = (a: Float32Array): Float32Array => {
-    const out = new Float32Array(nz * m);
-    for (let k = 0; k < nz; k++) out.set(a.subarray(k * n + first, k * n + last + 1), k * m);
-    return out;
-  };
+  const span = waterSpan(data.seafloor);
+  if (data.kind !== 'zonal' || !span || (span[0] === 0 && span[1] === n - 1)) return data;
+  const [first, last] = span;
+  const cut = (a: Float32Array): Float32Array => cutSamples(a, n, first, last);
   return { ...data, edges: data.edges.slice(first, last + 2), model: cut(data.model), reference: cut(data.reference), difference: cut(data.difference), seafloor: data.seafloor.slice(first, last + 1) };
 }
 

@@ -10,6 +10,7 @@ import { lineFigure, sampleEdges, waypointLetter } from '../../../app/figures/li
 import { profileFigure } from '../../../app/figures/profile-figure.js';
 import { sectionFigure } from '../../../app/figures/section-figure.js';
 import { paintSection } from '../../../app/figures/section-raster.js';
+import { cutSamples, waterSpan } from '../../../app/figures/section-panel.js';
 import { stretchedDepth } from '../../../app/figures/scale.js';
 import type { SvgNode } from '../../../app/figures/svg-tree.js';
 import { SEQUENTIAL } from '../../../app/render/colour-scales.js';
@@ -205,5 +206,15 @@ describe('the profile figure (Profile view)', () => {
     const ys = (lines[1].getAttribute('d') ?? '').split(/[ML]/).filter(Boolean).map((p) => Number(p.split(',')[1]));
     expect(ys[ys.length - 1]).toBeGreaterThan(ys[0]);
     expect(texts(f.svg).map((t) => t.textContent())).toContain('Climatology (reference)');
+  });
+});
+
+describe('a section spans its water (a basin zonal mean leaves out the dry rows at either end)', () => {
+  it('finds the first and last samples with water and cuts level-major values to them', () => {
+    expect(waterSpan(Float64Array.of(0, NaN, 300, 0, 4000, 0))).toEqual([2, 4]);
+    expect(waterSpan(Float64Array.of(0, NaN))).toBeNull();
+    // two levels of five samples: level k, sample s holds 10k + s
+    const v = Float32Array.from({ length: 10 }, (_, i) => 10 * Math.floor(i / 5) + (i % 5));
+    expect(Array.from(cutSamples(v, 5, 1, 3))).toEqual([1, 2, 3, 11, 12, 13]);
   });
 });
