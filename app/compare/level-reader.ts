@@ -29,10 +29,13 @@ export interface LevelReader {
   monthWeights: Float64Array | null;
   /** the level for the year (a monthly reader's months weighted by their lengths) */
   read(k: number, density: DensityInput | undefined): Promise<Float32Array>;
-  /** the level's 12 months (January first); only when monthWeights is set */
-  readMonths(k: number, density: DensityInput | undefined): Promise<Float32Array[]>;
+  /** the level's 12 months (January first), each converted with its month's density; only when monthWeights is set */
+  readMonths(k: number, density: MonthDensity | undefined): Promise<Float32Array[]>;
   close(): Promise<void>;
 }
+
+/** The density input of month m (0 = January) of the level being read. */
+export type MonthDensity = (m: number) => Promise<DensityInput>;
 
 export interface ReaderContext {
   grid: Grid;
@@ -103,7 +106,7 @@ export async function plainReader(key: string, spec: VariableSource, target: Par
       async readMonths(k, density) {
         if (!weights) throw new StillwaterError('E_INTERNAL', `${spec.path}: months were asked of a field without months.`);
         const out: Float32Array[] = [];
-        for (let m = 0; m < 12; m++) out.push(converted(await src.readLevel(m, k), density));
+        for (let m = 0; m < 12; m++) out.push(converted(await src.readLevel(m, k), density ? await density(m) : undefined));
         return out;
       },
       close: async () => {

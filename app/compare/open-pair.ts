@@ -13,6 +13,7 @@ import { commonGridFor } from './common-grid.js';
 import { densityProvider, type DensityProvider } from './density-provider.js';
 import { derivedReader, openSpec, plainReader, referenceUnitsOf, type LevelReader, type ReaderContext } from './level-reader.js';
 import { prefixed } from './load-regions.js';
+import { periodLevel } from '../time/periods.js';
 
 /** One source (the reference or a run) of a pair, level by level. */
 export interface SourceLevels {
@@ -107,7 +108,7 @@ export async function openPair(recipe: Recipe, variable: string, opts: OpenPairO
       if (refFieldOwned) await refField.close?.();
     });
     const grid = opts.grid ?? commonGridFor(recipe.options.commonGrid, refField.grid);
-    const density = densityProvider(recipe, grid, opts.cacheDir);
+    const density = densityProvider(recipe, grid, opts.cacheDir, opts.monthlyRows ?? false);
     closers.push(() => density.close());
     const ctx: ReaderContext = { grid, options: recipe.options, cacheDir: opts.cacheDir, densityNote: density.note, monthlyRows: opts.monthlyRows ?? false, noteFile: opts.noteFile ?? (() => undefined) };
     const unitsOf = referenceUnitsOf(recipe);
@@ -143,19 +144,25 @@ export async function openPair(recipe: Recipe, variable: string, opts: OpenPairO
         }
       }
       closers.push(() => reader.close());
+      // by month, a conversion by density takes each month's own (when the reference's T and S have months),
+      // and the conversions say which; the year is then the mean of the converted months, as the annual rows
+      // of a monthly comparison are
+      const monthly = ctx.monthlyRows && reader.monthWeights !== null && reader.needsDensity;
+      const conversions = monthly ? [...reader.conversions, await density.monthsNote()] : reader.conversions;
       if (reader.regridded) notes.push(`${source.label}: regridded onto the common grid (${recipe.options.method})`);
-      for (const c of reader.conversions) notes.push(`${source.label}: ${c}`);
+      for (const c of conversions) notes.push(`${source.label}: ${c}`);
       if (reader.timeNote) notes.push(`${source.label}: ${reader.timeNote}`);
+      const months = (k: number): Promise<Float32Array[]> => reader.readMonths(k, reader.needsDensity ? (m) => density.month(k, m) : undefined);
       return {
         label: source.label,
         file: derived ? source.path : source.variables[variable].file,
         grid: levelsGrid,
         regridded: reader.regridded,
-        conversions: reader.conversions,
+        conversions,
         timeNote: reader.timeNote,
         monthWeights: reader.monthWeights,
-        level: async (k) => reader.read(k, reader.needsDensity ? await density.level(k) : undefined),
-        months: async (k) => reader.readMonths(k, reader.needsDensity ? await density.level(k) : undefined),
+        level: async (k) => (monthly ? periodLevel(await months(k), reader.monthWeights!, 'annual') : reader.read(k, reader.needsDensity ? await density.level(k) : undefined)),
+        months,
       };
     };
 
