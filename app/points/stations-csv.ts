@@ -98,8 +98,9 @@ export function parseStations(text: string, file: string): Stations {
     if (raw.startsWith('#')) {
       const m = /^#\s*units\s*[:=]\s*(.+)$/i.exec(raw);
       if (m) units = m[1].trim();
-      const v = /^#\s*variable\s*[:=]\s*(.+)$/i.exec(raw);
-      if (v) variable = v[1].trim();
+      // the name is the first word; words after it are a comment (the demo's file says what its data are)
+      const v = /^#\s*variable\s*[:=]\s*(\S+)/i.exec(raw);
+      if (v) variable = v[1];
       continue;
     }
     const fields = splitCsvLine(raw);

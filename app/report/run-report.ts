@@ -36,6 +36,7 @@ import { skillMarkdown } from './markdown.js';
 import { openOutputFolder } from './output-folder.js';
 import { writeReportHtml, type HtmlFigure, type HtmlSection, type ReportPage } from './report-html.js';
 import { reportSettings, type ReportSettings } from './report-settings.js';
+import { checkStationFiles, stationSections } from './station-section.js';
 import type { Provenance } from './types.js';
 import { slug, variableFigures, type FigureContext } from './variable-figures.js';
 
@@ -93,6 +94,7 @@ export async function runReport(recipe: Recipe, opts: ReportOptions): Promise<Re
   const projection = makeProjection(settings.projection);
   const coast = projectRings(projection, opts.land);
   const widthMm = COLUMN_MM[settings.figureWidth];
+  await checkStationFiles(settings);
   const folder = await openOutputFolder(opts.outDir);
   const written: HtmlSection[] = [];
   const figureNames: string[] = [];
@@ -180,6 +182,17 @@ export async function runReport(recipe: Recipe, opts: ReportOptions): Promise<Re
         written.push(section);
       },
     });
+
+    // station comparisons, each right after its variable's section
+    for await (const st of stationSections(recipe, settings, { cacheDir: opts.cacheDir, onProgress: opts.onProgress })) {
+      checkCancelled(opts.signal);
+      let after = -1;
+      written.forEach((w, i) => {
+        if (w.heading.startsWith(`${st.variable} (`) || w.heading.startsWith(`${st.variable} at stations:`)) after = i;
+      });
+      const section: HtmlSection = { heading: st.heading, intro: st.intro || undefined, figures: [await writeFigure(st.figure)], table: st.table };
+      written.splice(after < 0 ? written.length : after + 1, 0, section);
+    }
 
     let spin: SpinupResult | null = null;
     if (settings.spinup && recipe.runs.some((r) => r.snapshots?.length)) {

@@ -102,4 +102,28 @@ describe('stillwater report', () => {
     expect(r.stderr).toMatch(/is not a folder/);
     expect(readFileSync(file, 'utf8')).toBe('x');
   });
+
+  it('an output folder that cannot be made (a file stands where its parent should be) is refused in one sentence before any work', () => {
+    const file = join(dir, 'not-a-folder');
+    writeFileSync(file, 'x');
+    const r = stillwater(['report', '--recipe', recipe({}), '--out', join(file, 'report')]);
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim().split('\n')).toHaveLength(1);
+    expect(r.stderr).toMatch(/not-a-folder\/report: the output folder cannot be written/);
+    expect(r.stderr).not.toMatch(/figure/);
+    expect(readFileSync(file, 'utf8')).toBe('x');
+  });
+
+  it('a layer without compared cells says so in its panels instead of drawing empty frames', () => {
+    const out = join(dir, 'empty-layer');
+    // the fixture's ocean is far shallower than 20 km
+    const r = stillwater(['report', '--recipe', recipe({ mapLayers: [[20000, 30000]], lines: [], zonalBasins: [] }), '--out', out]);
+    expect(r.status).toBe(0);
+    const map = readFileSync(join(out, 'figures', readdirSync(join(out, 'figures')).find((f) => /map-20000-30000-m\.svg$/.test(f))!), 'utf8');
+    expect(map).toMatch(/class="no-data">No compared cells here/);
+    expect(map).toMatch(/global, 20000.30000 m: no compared cells/);
+    expect(map).not.toMatch(/<image/);
+    const html = readFileSync(join(out, 'report.html'), 'utf8');
+    expect(html).toMatch(/no compared cells at all; their panels and table rows say so/);
+  });
 });
