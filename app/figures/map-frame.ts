@@ -141,34 +141,38 @@ function pathOf(p: MapProjection, lines: [number, number][][], to: ToPanel, clip
 
 const clampLon = (lon: number): number => Math.max(-179.999, Math.min(179.999, lon));
 
-export function graticulePath(p: MapProjection, to: ToPanel, clipTo?: Rect): string {
+export function graticulePath(p: MapProjection, to: ToPanel, clipTo?: Rect, lonStep = 60, latStep = 30): string {
   const lines: [number, number][][] = [];
-  for (let lon = -180; lon <= 180; lon += 60) {
+  for (let lon = -180; lon <= 180; lon += lonStep) {
     const pts: [number, number][] = [];
     for (let lat = -89.9; lat <= 89.9; lat += 2) pts.push([clampLon(lon), lat]);
     lines.push(pts);
   }
   const lim = p.info.latitudeLimit;
-  const parallels = lim === null ? [-60, -30, 0, 30, 60] : [50, 60, 70, 80].map((l) => (lim > 0 ? l : -l));
+  const parallels: number[] = [];
+  if (lim === null) for (let lat = -90 + latStep; lat < 90; lat += latStep) parallels.push(lat);
+  else parallels.push(...[50, 60, 70, 80].map((l) => (lim > 0 ? l : -l)));
+  const along = Math.min(2, lonStep / 10);
   for (const lat of parallels) {
     const pts: [number, number][] = [];
-    for (let lon = -180; lon <= 180; lon += 2) pts.push([clampLon(lon), lat]);
+    for (let lon = -180; lon <= 180; lon += along) pts.push([clampLon(lon), lat]);
     lines.push(pts);
   }
   return pathOf(p, lines, to, clipTo);
 }
 
-export function outlinePath(p: MapProjection, to: ToPanel): string {
-  if (p.info.latitudeLimit !== null) {
-    const pts: [number, number][] = [];
-    for (let lon = -180; lon <= 180; lon += 2) pts.push([clampLon(lon), p.info.latitudeLimit]);
-    return pathOf(p, [pts], to) + 'Z';
-  }
+/** The globe's edge (or the polar view's limit circle), closed; cut to `clipTo` when given (a zoomed window). */
+export function outlinePath(p: MapProjection, to: ToPanel, clipTo?: Rect): string {
   const pts: [number, number][] = [];
-  for (let lat = -89.999; lat <= 89.999; lat += 1) pts.push([179.9999, lat]);
-  pts.push([179.9999, 89.9999]);
-  for (let lat = 89.999; lat >= -89.999; lat -= 1) pts.push([-179.9999, lat]);
-  pts.push([-179.9999, -89.9999]);
+  if (p.info.latitudeLimit !== null) {
+    for (let lon = -180; lon <= 180; lon += 2) pts.push([clampLon(lon), p.info.latitudeLimit]);
+  } else {
+    for (let lat = -89.999; lat <= 89.999; lat += 1) pts.push([179.9999, lat]);
+    pts.push([179.9999, 89.9999]);
+    for (let lat = 89.999; lat >= -89.999; lat -= 1) pts.push([-179.9999, lat]);
+    pts.push([-179.9999, -89.9999]);
+  }
+  if (clipTo) return pathOf(p, [[...pts, pts[0]]], to, clipTo);
   return pathOf(p, [pts], to) + 'Z';
 }
 
@@ -194,27 +198,92 @@ export function coastPath(coast: Float64Array[], to: ToPanel, clipTo: Rect, minS
   return path.toString();
 }
 
-/** Graticule, coastlines and outline over a panel, cut to it; labels when asked (equirectangular only). */
-export function mapOverlay(p: MapProjection, r: Rect, coast: Float64Array[], labels: { lat: boolean; lon: boolean }): SvgNode {
+export interface OverlayOptions {
+  /** latitude labels (left edge, or on the globe), longitude labels (below, or along the equator) */
+  lat: boolean;
+  lon: boolean;
+  /** meridians every this many degrees (60 on a whole map, finer in a zoomed window) */
+  lonStep?: number;
+  /** parallels every this many degrees (world maps) */
+  latStep?: number;
+}
+
+/** Graticule, coastlines and outline over a panel, clipped to it, with longitude and latitude labels when asked. */
+export function mapOverlay(p: MapProjection, r: Rect, coast: Float64Array[], labels: OverlayOptions): SvgNode {
   const to = panelTransform(p, r);
   const g = el('g', { class: 'map-frame' });
-  g.append(el('path', { d: graticulePath(p, to, r), fill: 'none', stroke: '#ffffff', 'stroke-opacity': 0.6, 'stroke-width': 0.3 }));
+  g.append(el('path', { d: graticulePath(p, to, r, labels.lonStep, labels.latStep), fill: 'none', stroke: '#ffffff', 'stroke-opacity': 0.6, 'stroke-width': 0.3, class: 'graticule' }));
   g.append(el('path', { d: coastPath(coast, to, r), fill: 'none', stroke: '#2b2f33', 'stroke-width': 0.35, 'stroke-linejoin': 'round', class: 'coastline' }));
-  g.append(el('path', { d: outlinePath(p, to), fill: 'none', stroke: INK, 'stroke-width': 0.5 }));
+  // cut to the panel too: a zoomed window shows only part of the globe's edge
+  g.append(el('path', { d: outlinePath(p, to, r), fill: 'none', stroke: INK, 'stroke-width': 0.5, class: 'outline' }));
+  if (labels.lat || labels.lon) g.append(graticuleLabels(p, r, to, labels));
+  return g;
+}
+
+const inside = (r: Rect, x: number, y: number): boolean => x >= r.x - 0.5 && x <= r.x + r.w + 0.5 && y >= r.y - 0.5 && y <= r.y + r.h + 0.5;
+
+/** A label drawn over the field: a white halo keeps it legible on any colour. */
+const halo = { 'paint-order': 'stroke', stroke: '#ffffff', 'stroke-width': 1.6, 'stroke-linejoin': 'round', class: 'halo' };
+
+/**
+ * Longitude and latitude labels: on the equirectangular map as ticks outside the frame (left and below); on a
+ * world map on the globe (parallels at its left edge, meridians along the equator); on a polar map parallels
+ * along the 45° meridian and meridians just inside the limit circle. Only those that fall inside the panel
+ * (a zoomed window shows fewer).
+ */
+function graticuleLabels(p: MapProjection, r: Rect, to: ToPanel, labels: OverlayOptions): SvgNode {
+  const g = el('g', { class: 'graticule-labels', 'font-size': FONT_PT.tick });
+  const at = (lon: number, lat: number): [number, number] | null => {
+    const q = p.forward(clampLon(lon), Math.max(-89.9999, Math.min(89.9999, lat)));
+    return q ? to(q[0], q[1]) : null;
+  };
+  const lonStep = labels.lonStep ?? 60;
   if (p.info.id === 'plate') {
     if (labels.lon) {
-      for (let lon = -120; lon <= 120; lon += 120) {
-        const [x] = to(p.forward(lon, 0)![0], 0);
-        g.append(el('line', { x1: r2(x), x2: r2(x), y1: r2(r.y + r.h), y2: r2(r.y + r.h + 2), stroke: INK, 'stroke-width': 0.4 }));
-        g.append(text(x, r.y + r.h + 2 + FONT_PT.tick, lonLabel(lon), { 'text-anchor': 'middle', 'font-size': FONT_PT.tick }));
+      for (let lon = -180; lon <= 180; lon += lonStep) {
+        const q = at(lon, 0);
+        if (!q || q[0] < r.x - 0.5 || q[0] > r.x + r.w + 0.5) continue;
+        g.append(el('line', { x1: r2(q[0]), x2: r2(q[0]), y1: r2(r.y + r.h), y2: r2(r.y + r.h + 2), stroke: INK, 'stroke-width': 0.4 }));
+        g.append(text(q[0], r.y + r.h + 2 + FONT_PT.tick, lonLabel(lon), { 'text-anchor': 'middle' }));
       }
     }
     if (labels.lat) {
-      for (let lat = -60; lat <= 60; lat += 60) {
-        const [, y] = to(0, p.forward(0, lat)![1]);
-        g.append(el('line', { x1: r2(r.x - 2), x2: r2(r.x), y1: r2(y), y2: r2(y), stroke: INK, 'stroke-width': 0.4 }));
-        g.append(text(r.x - 3, y + FONT_PT.tick * 0.35, latLabel(lat), { 'text-anchor': 'end', 'font-size': FONT_PT.tick }));
+      for (let lat = -90; lat <= 90; lat += labels.latStep ?? 30) {
+        const q = at(0, lat);
+        if (!q || q[1] < r.y - 0.5 || q[1] > r.y + r.h + 0.5) continue;
+        g.append(el('line', { x1: r2(r.x - 2), x2: r2(r.x), y1: r2(q[1]), y2: r2(q[1]), stroke: INK, 'stroke-width': 0.4 }));
+        g.append(text(r.x - 3, q[1] + FONT_PT.tick * 0.35, latLabel(lat), { 'text-anchor': 'end' }));
       }
+    }
+    return g;
+  }
+  const lim = p.info.latitudeLimit;
+  if (lim === null) {
+    if (labels.lat) {
+      for (let lat = -90 + (labels.latStep ?? 30); lat < 90; lat += labels.latStep ?? 30) {
+        const q = at(-179.9, lat);
+        if (q && inside(r, q[0], q[1])) g.append(text(q[0] + 2, q[1] - 1.5, latLabel(lat), halo));
+      }
+    }
+    if (labels.lon) {
+      for (let lon = -180 + lonStep; lon < 180; lon += lonStep) {
+        const q = at(lon, 0);
+        if (q && inside(r, q[0], q[1])) g.append(text(q[0] + 1.5, q[1] + FONT_PT.tick + 1, lonLabel(lon), halo));
+      }
+    }
+    return g;
+  }
+  const sign = lim > 0 ? 1 : -1;
+  if (labels.lat) {
+    for (const l of [50, 60, 70, 80]) {
+      const q = at(45, sign * l);
+      if (q && inside(r, q[0], q[1])) g.append(text(q[0] + 1.5, q[1] - 1.5, latLabel(sign * l), halo));
+    }
+  }
+  if (labels.lon) {
+    for (let lon = -180 + lonStep; lon <= 180; lon += lonStep) {
+      const q = at(lon, lim + sign * 3);
+      if (q && inside(r, q[0], q[1])) g.append(text(q[0], q[1] + FONT_PT.tick * 0.35, lonLabel(lon), { ...halo, 'text-anchor': 'middle' }));
     }
   }
   return g;

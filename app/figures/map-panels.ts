@@ -4,8 +4,10 @@
  * differences (shared-limits.ts), so panels side by side can be compared by eye; each difference panel
  * carries the bias, RMSE and correlation of its region and layer (the skill rows' numbers) in its corner.
  */
-import { DIVERGING, SEQUENTIAL } from '../render/colour-scales.js';
+import { clipped, positiveRange } from '../render/colour-mapping.js';
+import { DIVERGING, SEQUENTIAL, type ColourScale } from '../render/colour-scales.js';
 import type { MapProjection } from '../render/projections.js';
+import { graticuleSteps } from './map-figure.js';
 import { mapOverlay } from './map-frame.js';
 import { paintMap, rasterWidth, type RasterGrid } from './map-raster.js';
 import { FONT_PT, MM_PER_PT, MUTED, NO_DATA, widthPt, type FigureWidth } from './page.js';
@@ -42,6 +44,13 @@ export interface MapPanelsSpec {
   statsScope: string;
   /** a fixed ± limit for the differences (from the recipe) */
   fixedDifference?: number | null;
+  /** the colour scales (the screen's choice); the default sequential and diverging ones when absent */
+  fieldScale?: ColourScale;
+  differenceScale?: ColourScale;
+  /** logarithmic stretch of the reference and run panels (their shared range made positive) */
+  log?: boolean;
+  /** how far a window of the projection is zoomed in (1: the whole map) */
+  zoom?: number;
 }
 
 const GAP = 8;
@@ -79,8 +88,18 @@ export function mapPanelsFigure(spec: MapPanelsSpec): Figure {
   const mapH = colW * aspect;
   const rowH = PANEL_TITLE + mapH + GAP;
   const fields = [spec.reference.values, ...spec.runs.map((r) => r.values)];
-  const limits = sharedLimits(fields, spec.runs.map((r) => r.difference), spec.area, spec.fixedDifference);
+  const diffs = spec.runs.map((r) => r.difference);
+  const limits = sharedLimits(fields, diffs, spec.area, spec.fixedDifference);
+  if (spec.log && limits.field) limits.field = positiveRange(limits.field[0], limits.field[1]);
   const units = typesetUnits(spec.units);
+  const fieldScale = spec.fieldScale ?? SEQUENTIAL;
+  const diffScale = spec.differenceScale ?? DIVERGING;
+  const steps = graticuleSteps(spec.zoom);
+  /** whether any panel's values lie beyond the shared range, at either end (arrows on the colour bar) */
+  const beyond = (arrays: Float32Array[], lo: number, hi: number) => {
+    const c = arrays.map((a) => clipped(a, lo, hi));
+    return { below: c.some((x) => x.below), above: c.some((x) => x.above) };
+  };
 
   // measure the title block by drawing it into a scratch root
   const scratch = el('g');
@@ -101,11 +120,11 @@ export function mapPanelsFigure(spec: MapPanelsSpec): Figure {
     if (!hasData(values) || lim === null) {
       noDataNote(g, r, 'No compared cells here: nothing to draw for this layer');
     } else {
-      const raster = paintMap(p, spec.grid, values, diverging ? DIVERGING : SEQUENTIAL, lim[0], lim[1], pxW);
+      const raster = paintMap(p, spec.grid, values, diverging ? diffScale : fieldScale, lim[0], lim[1], pxW, { log: !diverging && spec.log });
       // cells stay blocks (no smoothing across their edges), and rasterisers draw it several times faster
       g.append(el('image', { x: r2(r.x), y: r2(r.y), width: r2(r.w), height: r2(r.h), preserveAspectRatio: 'none', 'image-rendering': 'optimizeSpeed', href: raster.url }));
     }
-    g.append(mapOverlay(p, r, spec.coast, { lat: left, lon: lastRow }));
+    g.append(mapOverlay(p, r, spec.coast, { lat: left, lon: lastRow, ...steps }));
     return g;
   };
 
@@ -135,8 +154,14 @@ export function mapPanelsFigure(spec: MapPanelsSpec): Figure {
 
   const bars = el('g', { class: 'colour-bars' });
   const barY = mapsBottom + 4;
-  if (limits.field) colourBarH(bars, { x: xL + colW * 0.1, y: barY, w: colW * 0.8, h: 5 }, SEQUENTIAL, limits.field[0], limits.field[1], `${spec.quantity} (${units})`);
-  if (limits.difference !== null) colourBarH(bars, { x: xR + colW * 0.1, y: barY, w: colW * 0.8, h: 5 }, DIVERGING, -limits.difference, limits.difference, `Run minus reference (${units})`);
+  if (limits.field) {
+    const [lo, hi] = limits.field;
+    colourBarH(bars, { x: xL + colW * 0.1, y: barY, w: colW * 0.8, h: 5 }, fieldScale, lo, hi, `${spec.quantity} (${units})`, { log: spec.log, ...beyond(fields, lo, hi) });
+  }
+  if (limits.difference !== null) {
+    const d = limits.difference;
+    colourBarH(bars, { x: xR + colW * 0.1, y: barY, w: colW * 0.8, h: 5 }, diffScale, -d, d, `Run minus reference (${units})`, beyond(diffs, -d, d));
+  }
   svg.append(bars);
   svg.append(frame({ x: 0.25, y: 0.25, w: W - 0.5, h: H - 0.5 }, '#ffffff'));
   return { name: spec.name, title: spec.title, svg, widthPt: W, heightPt: H };

@@ -37,7 +37,8 @@ export function figureRoot(width: number, height: number, label: string): SvgNod
     fill: INK,
   });
   svg.append(el('title', {}, label));
-  svg.append(el('rect', { x: 0, y: 0, width: r2(width), height: r2(height), fill: '#ffffff' }));
+  // the paper: white in every file; the screen hides it where a canvas lies under the figure
+  svg.append(el('rect', { x: 0, y: 0, width: r2(width), height: r2(height), fill: '#ffffff', class: 'paper' }));
   return svg;
 }
 

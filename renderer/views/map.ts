@@ -1,26 +1,29 @@
 /**
  * Map and Difference views: one level (or layer, or the bottom) of the chosen variable on the chosen
- * projection, composed of the toolbar (map-toolbar.ts), the raster (map-paint.ts), the frame with coastlines
- * and colour bar (plot/map-figure.ts), the probe, zoom and pan, and, on the Map view, station observations.
- * The pixel lookup is built once per projection, window, grid and canvas size; other changes only recolour.
+ * projection, composed of the toolbar (map-toolbar.ts), the raster (map-paint.ts) on a canvas laid under
+ * app/figures' map figure (map-figure-of.ts: the figure the export writes), the probe, zoom and pan, and, on
+ * the Map view, station observations. The pixel lookup is built once per projection, window, grid and canvas
+ * size; other changes only recolour.
  */
 import { typesetUnits } from '../../app/figures/typeset.js';
 import { windowed, zoomWindow, panWindow } from '../../app/render/map-window.js';
-import { buildPixelLookup, canvasHeightFor, cellAt, pixelToProjected } from '../../app/render/pixel-lookup.js';
+import { canvasHeightFor, cellAt, pixelToProjected } from '../../app/render/pixel-lookup.js';
 import type { MapProjection } from '../../app/render/projections.js';
 import { regionSkill } from '../../app/render/region-skill.js';
 import type { LevelData } from '../../contract/view-types.js';
 import { getLevel, getRegionCells } from '../service-client.js';
 import { call } from '../bridge.js';
 import { fmt, h, s, saveBlob } from '../elements.js';
+import { mapFigure, mapFigureLayout, type MapFigure } from '../../app/figures/map-figure.js';
 import { coastlines, coastlinesIfReady } from '../plot/coast.js';
-import { mapFigure, mapPlotRect, type MapFigure } from '../plot/map-figure.js';
+import { figureElement } from '../plot/figure-element.js';
 import { choose, commitPreview, preview, setProbe, state, type AppState } from '../state.js';
 import { figureFrame } from '../widgets/figure-frame.js';
 import { lookupFor, mapChoice, paint, projectionOf, scaleOf, sharedRange, type MapChoice } from './map-paint.js';
+import { exportedMapFigure, mapFigureSpec } from './map-figure-of.js';
 import { mapToolbar } from './map-toolbar.js';
 import { stationsOverlay } from './stations.js';
-import { EXPORT_WIDTH, errorText, type ViewFactory, type ViewHandle } from './view.js';
+import { errorText, type ViewFactory, type ViewHandle } from './view.js';
 
 let firstDrawMarked = false;
 
@@ -80,6 +83,8 @@ export function mapView(difference: boolean): ViewFactory {
     let lockedKey = '';
     let cells: Int32Array | null = null;
     let fig: MapFigure | null = null;
+    /** screen pixels per figure point */
+    let pxPerPt = 1;
     let figKey = '';
     let canvas: HTMLCanvasElement | null = null;
     let probeMark: SVGGElement | null = null;
@@ -135,8 +140,9 @@ export function mapView(difference: boolean): ViewFactory {
       if (!p) return;
       const q = projectionOf(state.sel.projection).forward(p.lon, p.lat);
       if (!q) return;
-      const [x, y] = fig.toFigure(q[0], q[1]);
-      if (x < fig.plot.x || x > fig.plot.x + fig.plot.w || y < fig.plot.y || y > fig.plot.y + fig.plot.h) return;
+      const [fx, fy] = fig.toFigure(q[0], q[1]);
+      if (fx < fig.plot.x || fx > fig.plot.x + fig.plot.w || fy < fig.plot.y || fy > fig.plot.y + fig.plot.h) return;
+      const [x, y] = [fx * pxPerPt, fy * pxPerPt];
       const col = p.pinned ? '#c0392b' : '#111111';
       probeMark.append(
         s('circle', { cx: x, cy: y, r: 6, fill: 'none', stroke: '#ffffff', 'stroke-width': 3 }),
@@ -250,7 +256,13 @@ export function mapView(difference: boolean): ViewFactory {
       const maxHeight = Math.max(260, Math.floor(stage.clientHeight || 600));
       const dpr = Math.min(2, window.devicePixelRatio || 1);
       const proj = shownProjection(st);
-      const canvasWidth = Math.round(mapPlotRect(proj, width, maxHeight).w * dpr);
+      // the figure is as wide as the stage allows while all of it stays in view; the canvas covers its map
+      const fit = (title: string, subtitle: string): { pxPerPt: number; canvasWidth: number } => {
+        const l = mapFigureLayout({ projection: proj, width: 'double', title, subtitle });
+        const k = Math.min(width / l.widthPt, maxHeight / l.heightPt);
+        return { pxPerPt: k, canvasWidth: Math.round(l.plot.w * k * dpr) };
+      };
+      let canvasWidth = fit(fig?.title ?? '', '').canvasWidth;
       try {
         if (needData) {
           if (!fig) frame.say('Loading the field…', 'busy');
@@ -307,12 +319,12 @@ export function mapView(difference: boolean): ViewFactory {
           })
           .catch(() => undefined);
       }
-      const contourOf = st.sel.contours ? { values: choice.values, grid: session.grid } : null;
-      const figSpec = { width, maxHeight, projection: proj, title: choice.title, subtitle: choice.subtitle, scale: scaleOf(choice), min: choice.min, max: choice.max, units: choice.units, caption: choice.caption, coast, bar: { log: choice.log, below: choice.below, above: choice.above }, contours: contourOf };
+      const figSpec = mapFigureSpec(choice, projectionOf(st.sel.projection), proj, coast, session.grid, st.sel.contours);
       const key = JSON.stringify([proj.info.id, proj.extent, width, maxHeight, choice.min, choice.max, choice.units, choice.title, choice.subtitle, choice.caption, coast.length, figSpec.bar, scaleOf(choice).name, st.sel.contours ? `${data.variable}|${data.run}|${data.layer.id}|${st.sel.mapField}|${!!cells}` : '']);
       if (key !== figKey) {
         fig = mapFigure(figSpec);
         figKey = key;
+        ({ pxPerPt, canvasWidth } = fit(choice.title, choice.subtitle));
         const cw = canvasWidth;
         const ch = canvasHeightFor(proj, cw);
         if (!canvas || canvas.width !== cw || canvas.height !== ch) {
@@ -327,18 +339,25 @@ export function mapView(difference: boolean): ViewFactory {
           canvas.addEventListener('wheel', onWheel, { passive: false });
           canvas.addEventListener('keydown', onKey);
         }
-        canvas.style.left = `${fig.plot.x}px`;
-        canvas.style.top = `${fig.plot.y}px`;
-        canvas.style.width = `${fig.plot.w}px`;
-        canvas.style.height = `${fig.plot.h}px`;
+        canvas.style.left = `${fig.plot.x * pxPerPt}px`;
+        canvas.style.top = `${fig.plot.y * pxPerPt}px`;
+        canvas.style.width = `${fig.plot.w * pxPerPt}px`;
+        canvas.style.height = `${fig.plot.h * pxPerPt}px`;
         canvas.dataset.projection = proj.info.id;
-        probeMark = s('g', { class: 'probe-mark', 'pointer-events': 'none' });
-        stationsMark = s('g', { class: 'stations-mark', 'pointer-events': 'none' });
-        fig.overlay.append(stationsMark, probeMark);
+        const svg = figureElement(fig);
+        const wPx = Math.round(fig.widthPt * pxPerPt);
+        const hPx = Math.round(fig.heightPt * pxPerPt);
+        svg.setAttribute('width', String(wPx));
+        svg.setAttribute('height', String(hPx));
+        // markers are drawn in screen pixels (their size does not follow the figure's scale)
+        const px = `scale(${1 / pxPerPt})`;
+        probeMark = s('g', { class: 'probe-mark', 'pointer-events': 'none', transform: px });
+        stationsMark = s('g', { class: 'stations-mark', 'pointer-events': 'none', transform: px });
+        svg.querySelector('g.overlay')?.append(stationsMark, probeMark);
         // the SVG lies above the canvas but lets the pointer through to it
-        fig.svg.style.pointerEvents = 'none';
+        svg.style.pointerEvents = 'none';
         const hadFocus = document.activeElement === canvas;
-        const wrap = h('div', { class: 'figure-wrap', style: `width:${width}px;height:${fig.svg.getAttribute('height')}px` }, canvas, fig.svg);
+        const wrap = h('div', { class: 'figure-wrap', style: `width:${wPx}px;height:${hPx}px` }, canvas, svg);
         stage.replaceChildren(wrap);
         if (hadFocus) canvas.focus();
       }
@@ -369,9 +388,12 @@ export function mapView(difference: boolean): ViewFactory {
           const k = c >= 0 && d.bottomLevel ? d.bottomLevel[c] : -1;
           return k >= 0 ? { floor: grid.depthEdges[k + 1], deepestTop: grid.depthEdges[k] } : { floor: NaN, deepestTop: NaN };
         };
+        const k = pxPerPt;
         stations.draw(stationsMark, st, (lon, lat) => {
           const q = full.forward(lon, lat);
-          return q ? f.toFigure(q[0], q[1]) : null;
+          if (!q) return null;
+          const [fx, fy] = f.toFigure(q[0], q[1]);
+          return [fx * k, fy * k];
         }, scaleOf(choice), choice.min, choice.max, d.layer, floorAt);
       }
       drawProbe();
@@ -393,15 +415,8 @@ export function mapView(difference: boolean): ViewFactory {
         const choice = cropped(base, cells);
         const proj = shownProjection(state);
         const coast = await coastlines(proj.info.id, 'print').catch(() => [] as Float64Array[]);
-        const f = mapFigure({ width: EXPORT_WIDTH, projection: proj, title: choice.title, subtitle: choice.subtitle, scale: scaleOf(choice), min: choice.min, max: choice.max, units: choice.units, caption: choice.caption, coast, bar: { log: choice.log, below: choice.below, above: choice.above }, contours: state.sel.contours ? { values: choice.values, grid: state.session.grid } : null });
-        // the raster at print resolution: 300 dpi over the plot's width (1 unit = 0.25 mm)
-        const cw = Math.round((f.plot.w * 0.25 * 300) / 25.4);
-        const ch = canvasHeightFor(proj, cw);
-        const c = h('canvas', { width: cw, height: ch });
-        paint(c, buildPixelLookup(proj, state.session.grid.lonEdges, state.session.grid.latEdges, cw, ch), choice);
-        const raster = f.svg.querySelector('g.raster');
-        raster?.append(s('image', { x: f.plot.x, y: f.plot.y, width: f.plot.w, height: f.plot.h, preserveAspectRatio: 'none', href: c.toDataURL('image/png') }));
-        return f.svg;
+        const spec = mapFigureSpec(choice, projectionOf(state.sel.projection), proj, coast, state.session.grid, state.sel.contours);
+        return figureElement(exportedMapFigure(spec, choice, state.session.grid));
       },
       fileBase() {
         const sel = state.sel;
