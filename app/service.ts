@@ -5,6 +5,7 @@
  */
 import type { ServiceEntry } from './services/types.js';
 import { filesServices } from './services/files.js';
+import { mapPanelsServices } from './services/map-panels.js';
 import { viewExportServices } from './services/view-export.js';
 import { viewDataServices } from './services/view-data.js';
 import { viewsServices } from './services/views.js';
@@ -13,7 +14,7 @@ import { spinupServices } from './services/spinup.js';
 import { cfServices } from './services/cf.js';
 import { reportServices } from './services/report.js';
 
-export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...viewExportServices, ...viewDataServices, ...linesServices, ...cfServices, ...spinupServices, ...reportServices];
+export const serviceTable: ServiceEntry[] = [...filesServices, ...viewsServices, ...viewExportServices, ...viewDataServices, ...mapPanelsServices, ...linesServices, ...cfServices, ...spinupServices, ...reportServices];
 
 export function findService(name: string): ServiceEntry | undefined {
   return serviceTable.find((e) => e.name === name);

@@ -14,7 +14,7 @@ export interface MapToolbar {
   show(st: AppState, choice: MapChoice | null): void;
 }
 
-export function mapToolbar(toolbar: HTMLElement, difference: boolean, st: AppState, zoom: (factor: number | null) => void, download: (format: 'csv' | 'netcdf') => void): MapToolbar {
+export function mapToolbar(toolbar: HTMLElement, difference: boolean, st: AppState, zoom: (factor: number | null) => void, download: (format: 'csv' | 'netcdf') => void, panels: (format: 'svg' | 'png') => void): MapToolbar {
   const fieldGroup = difference
     ? null
     : buttonGroup({ label: 'Field shown', options: [['model', 'Run'], ['reference', 'Reference']] as const, value: st.sel.mapField, onPick: (v) => choose({ mapField: v }) });
@@ -84,6 +84,12 @@ export function mapToolbar(toolbar: HTMLElement, difference: boolean, st: AppSta
       { class: 'segmented', role: 'group', 'aria-label': 'Download the field shown' },
       h('button', { type: 'button', id: `${id}-download-csv`, title: 'The field shown, one row a cell (centre, bounds, value)', onclick: () => download('csv') }, 'CSV'),
       h('button', { type: 'button', id: `${id}-download-netcdf`, title: 'The field shown as CF NetCDF on the common grid', onclick: () => download('netcdf') }, 'NetCDF'),
+    ),
+    h(
+      'span',
+      { class: 'segmented', role: 'group', 'aria-label': 'Export the reference, every run and every difference as one figure' },
+      h('button', { type: 'button', id: `${id}-panels-svg`, title: 'Reference | each run | each run minus reference, one shared colour scale and one shared difference scale, with the region’s bias, RMSE and r in each difference panel: SVG, 180 mm', onclick: () => panels('svg') }, 'Panels SVG'),
+      h('button', { type: 'button', id: `${id}-panels-png`, title: 'The same panels as PNG, 180 mm at 300 dpi', onclick: () => panels('png') }, 'Panels PNG'),
     ),
     h('span', { class: 'toolbar-hint' }, 'Point to probe, click to pin; drag to pan, wheel to zoom; on the focused map, arrows move the probe.'),
   );

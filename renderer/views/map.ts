@@ -77,6 +77,8 @@ export function mapView(difference: boolean): ViewFactory {
     const { toolbar, stage } = frame;
     const regionStats = h('div', { class: 'region-stats', id: 'region-stats', role: 'status', hidden: true });
     toolbar.after(regionStats);
+    const panelsNote = h('div', { class: 'panels-note muted', id: `${difference ? 'diff' : 'field'}-panels-note`, role: 'status' });
+    regionStats.after(panelsNote);
 
     let data: LevelData | null = null;
     let locked: [number, number] | null = null;
@@ -130,7 +132,35 @@ export function mapView(difference: boolean): ViewFactory {
         frame.say(errorText(e), 'error');
       }
     };
-    const bar = mapToolbar(toolbar, difference, state, (f) => zoom(f), (format) => void download(format));
+    /** Reference, every run and every difference as one figure, drawn on the session's worker by the report's builder. */
+    const panels = async (format: 'svg' | 'png'): Promise<void> => {
+      const session = state.session;
+      const sel = state.sel;
+      if (!session || !sel.variable) return;
+      panelsNote.textContent = `Drawing the panels of ${sel.variable} (${format.toUpperCase()})…`;
+      panelsNote.classList.remove('error');
+      try {
+        const f = await call<{ fileName: string; mime: string; data: Uint8Array }>('view.map-panels', {
+          session: session.session,
+          variable: sel.variable,
+          layer: sel.layer,
+          region: sel.region,
+          projection: sel.projection,
+          window: sel.mapWindow,
+          format,
+          fieldScale: sel.fieldScale,
+          differenceScale: sel.diffScale,
+          log: sel.logColour,
+          period: sel.period,
+        });
+        saveBlob(new Blob([f.data as BlobPart], { type: f.mime }), f.fileName);
+        panelsNote.textContent = `Exported ${f.fileName} (180 mm${format === 'png' ? ', 300 dpi' : ''}).`;
+      } catch (e) {
+        panelsNote.textContent = errorText(e);
+        panelsNote.classList.add('error');
+      }
+    };
+    const bar = mapToolbar(toolbar, difference, state, (f) => zoom(f), (format) => void download(format), (format) => void panels(format));
     if (stations) toolbar.append(stations.control);
 
     const drawProbe = (): void => {
