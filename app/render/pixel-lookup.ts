@@ -65,6 +65,7 @@ export function buildPixelLookup(
   width: number,
   height: number,
 ): Int32Array {
+  if (ROW_LINEAR.has(proj.info.id)) return rowwiseLookup(proj, lonEdges, latEdges, width, height);
   const out = new Int32Array(width * height);
   for (let py = 0; py < height; py++) {
     for (let px = 0; px < width; px++) {
@@ -90,6 +91,8 @@ export function shiftPixelLookup(
   dx: number,
   dy: number,
 ): Int32Array {
+  // a row-linear projection builds a whole lookup faster than it would project the strip pixel by pixel
+  if (ROW_LINEAR.has(proj.info.id)) return rowwiseLookup(proj, lonEdges, latEdges, width, height);
   const out = new Int32Array(width * height);
   for (let py = 0; py < height; py++) {
     const oy = py - dy;
@@ -103,6 +106,67 @@ export function shiftPixelLookup(
       const [x, y] = pixelToProjected(proj, width, height, px, py);
       const ll = proj.inverse(x, y);
       out[py * width + px] = ll === null ? OFF_MAP : cellAt(lonEdges, latEdges, ll[0], ll[1]);
+    }
+  }
+  return out;
+}
+
+/**
+ * Projections centred on 0° in which, along a row of the map, longitude is proportional to x and latitude is
+ * constant: plate carrée (λ = x / R) and Equal Earth (Šavrič, Patterson & Jenny 2018: x = 2√3 R λ cos θ /
+ * (3 (9 A4 θ⁸ + 7 A3 θ⁶ + 3 A2 θ² + A1)), y a function of θ alone).
+ */
+const ROW_LINEAR = new Set(['plate', 'equal-earth']);
+
+/**
+ * The lookup of a row-linear projection with one inverse projection per row instead of one per pixel (a zoom
+ * builds a new lookup while the person waits): the row's latitude and its degrees of longitude per metre come
+ * from the inverse of one point of the row; a pixel beyond ±180° lies off the globe.
+ */
+function rowwiseLookup(proj: MapProjection, lonEdges: ArrayLike<number>, latEdges: ArrayLike<number>, width: number, height: number): Int32Array {
+  const out = new Int32Array(width * height);
+  const e = proj.extent;
+  const dx = (e.xmax - e.xmin) / width;
+  const nx = lonEdges.length - 1;
+  const west = lonEdges[0];
+  const periodic = Math.abs(lonEdges[nx] - west - 360) < 1e-6;
+  // a point a little east of the central meridian, on the globe at every latitude the map shows
+  const xRef = 1e-3 * (proj.forward(180 - 1e-9, 0)?.[0] ?? 1);
+  for (let py = 0; py < height; py++) {
+    const row = out.subarray(py * width, (py + 1) * width);
+    const y = e.ymax - ((py + 0.5) * (e.ymax - e.ymin)) / height;
+    const ref = proj.inverse(xRef, y);
+    if (ref === null) {
+      row.fill(OFF_MAP);
+      continue;
+    }
+    const j = findInterval(latEdges, ref[1]);
+    const perMetre = ref[0] / xRef;
+    let i = -1;
+    for (let px = 0; px < width; px++) {
+      const lon = (e.xmin + (px + 0.5) * dx) * perMetre;
+      if (!(lon >= -180 && lon <= 180)) {
+        row[px] = OFF_MAP;
+        continue;
+      }
+      if (j < 0) {
+        row[px] = OFF_GRID;
+        continue;
+      }
+      let l = lon;
+      if (periodic) l = west + ((((lon - west) % 360) + 360) % 360);
+      // longitude grows along the row: step on from the last cell instead of searching anew
+      if (i >= 0 && l >= lonEdges[i] && l <= lonEdges[i + 1]) {
+        row[px] = j * nx + i;
+        continue;
+      }
+      if (i >= 0 && i + 1 < nx && l >= lonEdges[i + 1] && l <= lonEdges[i + 2]) {
+        i++;
+        row[px] = j * nx + i;
+        continue;
+      }
+      i = findInterval(lonEdges, l);
+      row[px] = i < 0 ? OFF_GRID : j * nx + i;
     }
   }
   return out;

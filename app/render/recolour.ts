@@ -34,24 +34,34 @@ export function paletteIndex(v: number, min: number, max: number, n: number): nu
 
 /** Fill `pixels` (one per lookup entry) with the colours of `values` (one per grid cell). */
 export function recolour(values: Float32Array, lookup: Int32Array, pixels: Uint32Array, style: RecolourStyle): void {
-  const { palette, min, max, missing, background, water } = style;
+  // colour each cell once, then gather per pixel: cheaper when pixels outnumber cells and never worse than 2×
+  gatherColours(cellColours(values, style), lookup, pixels, style);
+}
+
+/** The colour of each cell (packed RGBA): the first half of recolour, kept by the screen while only the lookup changes (zoom, pan). */
+export function cellColours(values: Float32Array, style: RecolourStyle, out: Uint32Array = new Uint32Array(values.length)): Uint32Array {
+  const { palette, min, max, missing, water } = style;
   const noData = style.noData ?? missing;
   const n = palette.length;
   const scale = max > min ? n / (max - min) : 0;
   const mid = n >> 1;
-  // colour each cell once, then gather per pixel: cheaper when pixels outnumber cells and never worse than 2×
-  const cellColour = new Uint32Array(values.length);
   for (let c = 0; c < values.length; c++) {
     const v = values[c];
     if (v !== v) {
-      cellColour[c] = water !== undefined && water[c] > 0 ? noData : missing;
+      out[c] = water !== undefined && water[c] > 0 ? noData : missing;
       continue;
     }
     let k = scale === 0 ? mid : Math.floor((v - min) * scale);
     if (k < 0) k = 0;
     else if (k >= n) k = n - 1;
-    cellColour[c] = palette[k];
+    out[c] = palette[k];
   }
+  return out;
+}
+
+/** Each pixel takes its cell's colour; pixels off the map the background, off the grid the missing colour. */
+export function gatherColours(cellColour: Uint32Array, lookup: Int32Array, pixels: Uint32Array, style: Pick<RecolourStyle, 'missing' | 'background'>): void {
+  const { missing, background } = style;
   const m = lookup.length;
   for (let p = 0; p < m; p++) {
     const c = lookup[p];

@@ -9,7 +9,7 @@ import { DIVERGING, SEQUENTIAL, quantileRange, symmetricRange, type ColourScale 
 import { DIFF_SCALES, FIELD_SCALES, namedScale } from '../../app/render/named-scales.js';
 import { buildPixelLookup, shiftPixelLookup } from '../../app/render/pixel-lookup.js';
 import { makeProjection, type MapProjection, type ProjectionId } from '../../app/render/projections.js';
-import { packRgba, recolour } from '../../app/render/recolour.js';
+import { cellColours, gatherColours, packRgba, type RecolourStyle } from '../../app/render/recolour.js';
 import type { LevelData, ViewGrid } from '../../contract/view-types.js';
 import { currentVariable, type AppState } from '../state.js';
 
@@ -174,6 +174,17 @@ export function scaleOf(choice: MapChoice): ColourScale {
   return choice.scale ?? (choice.diverging ? DIVERGING : SEQUENTIAL);
 }
 
+/** The cells' colours of the last paint: a zoom or a pan changes only the lookup, so they are gathered again as they are. */
+let lastColours: { values: Float32Array; style: RecolourStyle; colours: Uint32Array } | null = null;
+
+function coloursOf(values: Float32Array, style: RecolourStyle): Uint32Array {
+  const l = lastColours;
+  if (l && l.values === values && l.style.palette === style.palette && l.style.min === style.min && l.style.max === style.max && l.style.water === style.water) return l.colours;
+  const colours = cellColours(values, style, l && l.colours.length === values.length ? l.colours : undefined);
+  lastColours = { values, style, colours };
+  return colours;
+}
+
 /** Colour one level into a canvas through the lookup. */
 const images = new WeakMap<HTMLCanvasElement, ImageData>();
 
@@ -186,7 +197,7 @@ export function paint(canvas: HTMLCanvasElement, lut: Int32Array, choice: MapCho
     images.set(canvas, img);
   }
   const px = new Uint32Array(img.data.buffer);
-  recolour(choice.log ? logOf(choice.values) : choice.values, lut, px, {
+  const style = {
     palette: scaleOf(choice).packed,
     min: choice.log ? Math.log10(choice.min) : choice.min,
     max: choice.log ? Math.log10(choice.max) : choice.max,
@@ -194,6 +205,7 @@ export function paint(canvas: HTMLCanvasElement, lut: Int32Array, choice: MapCho
     background: BACKGROUND,
     water: choice.water,
     noData: NO_DATA,
-  });
+  };
+  gatherColours(coloursOf(choice.log ? logOf(choice.values) : choice.values, style), lut, px, style);
   ctx.putImageData(img, 0, 0);
 }

@@ -103,3 +103,38 @@ describe('recolour', () => {
     expect(Array.from(new Uint8Array(u.buffer))).toEqual([1, 2, 3, 4]);
   });
 });
+
+describe('pixel lookup, one inverse projection per row (plate carrée, Equal Earth)', () => {
+  // longitude proportional to x along a row: plate carrée by definition, Equal Earth by its formula (Šavrič,
+  // Patterson & Jenny 2018, x = 2√3 R λ cos θ / (3 (9 A4 θ⁸ + 7 A3 θ⁶ + 3 A2 θ² + A1)), y from θ alone). The fast
+  // lookup must pick the cell of every pixel's own inverse projection (proj4, held against pyproj elsewhere).
+  const fine = makeRegularGrid(0.25, 0.25);
+  const fl = fine.axes!.lonEdges;
+  const ft = fine.axes!.latEdges;
+  for (const id of ['plate', 'equal-earth'] as const) {
+    it(`${id}: the whole map and a zoomed window agree with the per-pixel inverse`, () => {
+      const full = makeProjection(id);
+      const e = full.extent;
+      const win = { xmin: e.xmin + 0.61 * (e.xmax - e.xmin), xmax: e.xmin + 0.83 * (e.xmax - e.xmin), ymin: e.ymin + 0.05 * (e.ymax - e.ymin), ymax: e.ymin + 0.16 * (e.ymax - e.ymin) };
+      for (const proj of [full, { ...full, extent: win }]) {
+        const w = 301;
+        const h = canvasHeightFor(proj, w);
+        const lut = buildPixelLookup(proj, fl, ft, w, h);
+        let differ = 0;
+        let onMap = 0;
+        for (let py = 0; py < h; py++) {
+          for (let px = 0; px < w; px++) {
+            const [x, y] = pixelToProjected(proj, w, h, px, py);
+            const ll = proj.inverse(x, y);
+            const want = ll === null ? OFF_MAP : cellAt(fl, ft, ll[0], ll[1]);
+            if (ll) onMap++;
+            if (lut[py * w + px] !== want) differ++;
+          }
+        }
+        expect(onMap).toBeGreaterThan(w * h * 0.5);
+        // round-off may move a pixel centre that lies on a cell edge to the neighbouring cell, nothing more
+        expect(differ / (w * h)).toBeLessThan(1e-3);
+      }
+    });
+  }
+});
