@@ -222,6 +222,16 @@ export function mapOverlay(p: MapProjection, r: Rect, coast: Float64Array[], lab
 
 const inside = (r: Rect, x: number, y: number): boolean => x >= r.x - 0.5 && x <= r.x + r.w + 0.5 && y >= r.y - 0.5 && y <= r.y + r.h + 0.5;
 
+/** The first of 400 points along a curve (t from 0 to 1) that lies inside the panel, with a margin for its label. */
+function firstInside(r: Rect, point: (t: number) => [number, number] | null): [number, number] | null {
+  const m = FONT_PT.tick;
+  for (let k = 0; k <= 400; k++) {
+    const q = point(k / 400);
+    if (q && q[0] >= r.x && q[0] <= r.x + r.w - 2 * m && q[1] >= r.y + m && q[1] <= r.y + r.h) return q;
+  }
+  return null;
+}
+
 /** A label drawn over the field: a white halo keeps it legible on any colour. */
 const halo = { 'paint-order': 'stroke', stroke: '#ffffff', 'stroke-width': 1.6, 'stroke-linejoin': 'round', class: 'halo' };
 
@@ -260,15 +270,19 @@ function graticuleLabels(p: MapProjection, r: Rect, to: ToPanel, labels: Overlay
   const lim = p.info.latitudeLimit;
   if (lim === null) {
     if (labels.lat) {
+      // where a parallel enters the panel from the left: the globe's edge, or the panel's edge in a zoomed window
       for (let lat = -90 + (labels.latStep ?? 30); lat < 90; lat += labels.latStep ?? 30) {
-        const q = at(-179.9, lat);
-        if (q && inside(r, q[0], q[1])) g.append(text(q[0] + 2, q[1] - 1.5, latLabel(lat), halo));
+        const q = firstInside(r, (t) => at(-179.9 + t * 359.8, lat));
+        if (q) g.append(text(q[0] + 2, q[1] - 1.5, latLabel(lat), halo));
       }
     }
     if (labels.lon) {
+      // along the equator, or where the meridian leaves the panel at the bottom when the equator is out of view
+      const equator = at(0, 0);
+      const onEquator = equator !== null && equator[1] >= r.y && equator[1] <= r.y + r.h;
       for (let lon = -180 + lonStep; lon < 180; lon += lonStep) {
-        const q = at(lon, 0);
-        if (q && inside(r, q[0], q[1])) g.append(text(q[0] + 1.5, q[1] + FONT_PT.tick + 1, lonLabel(lon), halo));
+        const q = onEquator ? at(lon, 0) : firstInside(r, (t) => at(lon, -89.9 + t * 179.8));
+        if (q && inside(r, q[0], q[1])) g.append(text(q[0] + 1.5, onEquator ? q[1] + FONT_PT.tick + 1 : q[1] - 1.5, lonLabel(lon), halo));
       }
     }
     return g;

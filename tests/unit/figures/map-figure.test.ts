@@ -69,6 +69,22 @@ describe('one map (the Map and Difference views and their export)', () => {
     expect(lon).toEqual(['20°W', '10°W', '10°E', '20°E']);
   });
 
+  it('a zoomed Equal Earth window off the equator and the globe\'s edge still labels its parallels and meridians', () => {
+    const full = makeProjection('equal-earth');
+    // about the North Atlantic: 40°W, 45°N, zoomed 6×
+    const [cx, cy] = full.forward(-40, 45)!;
+    const win = zoomWindow(full.extent, null, 6, cx, cy);
+    const f = mapFigure(spec('equal-earth', { projection: windowed(full, win), zoom: 6 }));
+    const t = texts(f.svg);
+    expect(t.filter((x) => /°N$/.test(x)).length).toBeGreaterThanOrEqual(2);
+    expect(t.filter((x) => /°W$/.test(x)).length).toBeGreaterThanOrEqual(2);
+    for (const n of [...f.svg.walk()].filter((x) => x.tag === 'text' && x.getAttribute('class') === 'halo')) {
+      const x = Number(n.getAttribute('x'));
+      const y = Number(n.getAttribute('y'));
+      expect(x >= f.plot.x && x <= f.plot.x + f.plot.w && y >= f.plot.y && y <= f.plot.y + f.plot.h).toBe(true);
+    }
+  });
+
   it('says when the stretch is logarithmic and marks clipped values with arrows', () => {
     const f = mapFigure(spec('plate', { min: 0.1, max: 10, bar: { log: true, below: true, above: false } }));
     expect(texts(f.svg, 'colour-bar-label')).toEqual(['Latitude (degrees_north), log scale']);
