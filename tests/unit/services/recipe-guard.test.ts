@@ -50,6 +50,7 @@ describe('every kind of path a recipe names is confined, links followed', () => 
     ['a GeoJSON region through a link', (r) => (r.regions[2].geojson = 'link-regions.geojson'), /^regions\[2\]\.geojson: /],
     ['a spin-up snapshot through a link', (r) => (r.runs[0].snapshots[0].file = 'link-snap.nc'), /^runs\[0\]\.snapshots\[0\]\.file: /],
     ['a path climbing out with ..', (r) => (r.reference.file = '../outside/ref.nc'), /^reference\.file: /],
+    ['a report stations file through a link', (r) => (r.report = { stations: [{ file: 'link-stations.csv', variable: 'PO4' }] }), /^report\.stations\[0\]\.file: /],
   ];
   it('the recipe with every path inside passes', () => {
     expect(guardedRecipe({ recipe: recipe(), baseDir: allowed }, ctx).variables).toEqual(['PO4', 'T', 'S', 'PO4x2']);
