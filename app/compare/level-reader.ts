@@ -12,11 +12,11 @@ import { evaluateExpression, parseExpression } from '../ocean/expression.js';
 import type { Recipe, SourceSpec, VariableSource } from '../recipe/types.js';
 import { regridField } from '../regrid/regrid-field.js';
 import type { RecipeOptions } from '../recipe/schema.js';
-import { sameGrid } from './common-grid.js';
+import { sameGrid, sameVertical } from './common-grid.js';
 import { looksLikeOxygen, makeLevelConverter, type DensityInput } from './level-units.js';
 import { prefixed } from './load-regions.js';
 import { timedField } from './read-level.js';
-import { annualLevel } from '../time/reduce.js';
+import { annualLevel, type TimedField } from '../time/reduce.js';
 
 export interface LevelReader {
   needsDensity: boolean;
@@ -82,7 +82,27 @@ export async function onGrid(field: FieldSource, spec: VariableSource, ctx: Pick
   if ((field.grid.vertical === null) !== (grid.vertical === null)) {
     throw new StillwaterError('E_GRID', `${spec.path}: '${spec.name}' in ${spec.file} is ${field.grid.vertical ? '3-D' : '2-D'} but the common grid is ${grid.vertical ? '3-D' : '2-D'}.`, { path: spec.path });
   }
+  // a vertical regridding reads the source levels under a target level month by month: a monthly
+  // climatology keeps that many levels' months, so each is built once
+  if ('keep' in field && typeof field.keep === 'function' && field.grid.vertical && grid.vertical && !sameVertical(field.grid.vertical, grid.vertical)) {
+    (field as TimedField).keep(levelsUnderOneLevel(field.grid.vertical.edges, grid.vertical.edges));
+  }
   return prefixed(spec.path, () => regridField(field, grid, { method: ctx.options.method, coverage: ctx.options.coverage, cacheDir: ctx.cacheDir }));
+}
+
+/** The most source layers that overlap one target layer (edges increasing downwards), at least 1. */
+export function levelsUnderOneLevel(source: ArrayLike<number>, target: ArrayLike<number>): number {
+  let most = 1;
+  for (let k = 0; k + 1 < target.length; k++) {
+    const top = Math.min(target[k], target[k + 1]);
+    const bottom = Math.max(target[k], target[k + 1]);
+    let n = 0;
+    for (let p = 0; p + 1 < source.length; p++) {
+      if (Math.min(bottom, Math.max(source[p], source[p + 1])) > Math.max(top, Math.min(source[p], source[p + 1]))) n++;
+    }
+    most = Math.max(most, n);
+  }
+  return most;
 }
 
 export async function plainReader(key: string, spec: VariableSource, target: ParsedUnits, ctx: ReaderContext, opened?: FieldSource, oxygen?: boolean): Promise<LevelReader> {

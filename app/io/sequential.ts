@@ -1,28 +1,48 @@
 /**
- * Noticing level-by-level reading: a slab with the same count as the previous one, its start
- * moved by exactly that count along one dimension. Readers use it to fetch the next slab ahead.
+ * Noticing level-by-level reading: a slab with the same count as the previous one, its start moved along
+ * one dimension by exactly that count (the next slab), or by the same stride as the move before (every
+ * twelfth step of a monthly run: a month's steps). Readers use it to fetch the slabs ahead.
  */
 export interface SlabRecord {
   start: number[];
   count: number[];
+  /** how this slab's start moved from the one before, along one dimension (absent: no such move) */
+  move?: { dim: number; by: number };
 }
 
-/** The dimension along which `start` follows `last`, or -1. */
-export function stepDimension(last: SlabRecord | undefined, start: number[], count: number[]): number {
-  if (!last || last.count.length !== count.length) return -1;
-  let dim = -1;
+/** How `start` moved from `last` along one dimension (forward, counts unchanged), or undefined. */
+function moveOf(last: SlabRecord | undefined, start: number[], count: number[]): { dim: number; by: number } | undefined {
+  if (!last || last.count.length !== count.length) return undefined;
+  let move: { dim: number; by: number } | undefined;
   for (let i = 0; i < count.length; i++) {
-    if (last.count[i] !== count[i]) return -1;
+    if (last.count[i] !== count[i]) return undefined;
     if (last.start[i] === start[i]) continue;
-    if (dim >= 0 || start[i] !== last.start[i] + count[i]) return -1;
-    dim = i;
+    if (move || start[i] < last.start[i] + count[i]) return undefined;
+    move = { dim: i, by: start[i] - last.start[i] };
   }
-  return dim;
+  return move;
 }
 
-/** The slab `k` steps further along `dim`, or undefined past the end of `shape`. */
-export function slabAhead(start: number[], count: number[], dim: number, k: number, shape: number[]): number[] | undefined {
+/** The record of this slab, for the next call. */
+export function slabRecord(last: SlabRecord | undefined, start: number[], count: number[]): SlabRecord {
+  const move = moveOf(last, start, count);
+  return { start: start.slice(), count: count.slice(), ...(move ? { move } : {}) };
+}
+
+/**
+ * The steady move that `record` continues, or undefined: the next slab (a move by the count) at once, a
+ * longer stride once it has been seen twice in a row.
+ */
+export function steadyMove(last: SlabRecord | undefined, record: SlabRecord): { dim: number; by: number } | undefined {
+  const m = record.move;
+  if (!m) return undefined;
+  if (m.by === record.count[m.dim]) return m;
+  return last?.move && last.move.dim === m.dim && last.move.by === m.by ? m : undefined;
+}
+
+/** The slab `k` moves further along `dim` (by `by`, default the count), or undefined past the end of `shape`. */
+export function slabAhead(start: number[], count: number[], dim: number, k: number, shape: number[], by = count[dim]): number[] | undefined {
   const next = start.slice();
-  next[dim] += k * count[dim];
+  next[dim] += k * by;
   return next[dim] + count[dim] <= shape[dim] ? next : undefined;
 }

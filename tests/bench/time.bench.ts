@@ -3,9 +3,10 @@
  * bounds), month-length weights of the file's calendar:
  *   ours:  openField → planTime("monthly") → reduceTime, every level's 12 months read (app/time)
  *   peer:  xarray groupby('time.month') with days_in_month weights, level by level (tests/bench/peers/time_peer.py)
- * Reported: wall time of each (bar: ours at most 1x the peer's), peak live memory above the start (ours:
- * V8 heap + array buffers after a full collection at the end of every level, the collections not timed;
- * peer: tracemalloc peak) beside the size of one level x 12 months (the bound the issue sets: a few of them).
+ * Reported: wall time of each (bar: ours at most 1x the peer's), peak live memory (ours: V8 heap + array
+ * buffers after a full collection, above the field as opened with its grid, sampled at every 10th step read
+ * while a level is being built and at the end of every level, the collections not timed; peer: tracemalloc
+ * peak) beside the size of one level x 12 months, the bound the issue sets for the data of one variable.
  * The file is written once into a temporary folder with the project's NetCDF writer; the monthly sums of
  * both sides must agree.
  */
@@ -69,18 +70,40 @@ async function writeRun(path: string): Promise<void> {
   await w.close();
 }
 
-async function runOurs(path: string): Promise<{ ms: number; peakBytes: number; sums: number[] }> {
+async function runOurs(path: string): Promise<{ ms: number; peakBytes: number; gridBytes: number; sums: number[] }> {
   const gc = (globalThis as { gc?: () => void }).gc;
   if (!gc) throw new Error('run with --expose-gc (npm run bench does)');
   const mem = () => process.memoryUsage().heapUsed + process.memoryUsage().arrayBuffers;
   gc();
   gc();
-  const base = mem();
+  const start = mem();
+  let base = start;
   let peak = 0;
   let untimed = 0;
+  // live memory after a full collection, the collections outside the timing
+  const sample = () => {
+    const g0 = performance.now();
+    gc();
+    gc();
+    peak = Math.max(peak, mem() - base);
+    untimed += performance.now() - g0;
+  };
   const t0 = performance.now();
   const f = await openField(path, 'no3');
-  const clim = reduceTime(f, planTime(f, 'monthly', { path: 'runs[0].variables.NO3', monthlyRows: true, reference: false }));
+  // the field as opened, with its grid's geometry (cell corners and areas), is the baseline: it is not level data
+  const g0 = performance.now();
+  gc();
+  gc();
+  base = mem();
+  untimed += performance.now() - g0;
+  let reads = 0;
+  // every 10th step read, while a month's sums and the months already built are alive
+  const sampled = { ...f, readLevel: async (t: number, k: number) => {
+    const v = await f.readLevel(t, k);
+    if (++reads % 10 === 0) sample();
+    return v;
+  } };
+  const clim = reduceTime(sampled, planTime(f, 'monthly', { path: 'runs[0].variables.NO3', monthlyRows: true, reference: false }));
   const sums = new Array(12).fill(0);
   for (let k = 0; k < LEVELS.length; k++) {
     for (let m = 0; m < 12; m++) {
@@ -89,15 +112,10 @@ async function runOurs(path: string): Promise<{ ms: number; peakBytes: number; s
       for (let c = 0; c < v.length; c++) if (v[c] === v[c]) s += v[c];
       sums[m] += s;
     }
-    // memory after each level, the collections outside the timing
-    const g0 = performance.now();
-    gc();
-    gc();
-    peak = Math.max(peak, mem() - base);
-    untimed += performance.now() - g0;
+    sample();
   }
   await f.close?.();
-  return { ms: performance.now() - t0 - untimed, peakBytes: peak, sums };
+  return { ms: performance.now() - t0 - untimed, peakBytes: peak, gridBytes: base - start, sums };
 }
 
 async function main(): Promise<void> {
@@ -119,17 +137,20 @@ async function main(): Promise<void> {
       ['', 'ours', 'xarray groupby (per level)', 'ratio'],
       ['seconds', (ours.ms / 1000).toFixed(2), peer.seconds.toFixed(2), `${(ours.ms / peerMs).toFixed(2)}x`],
       ['peak memory MB', MB(ours.peakBytes), MB(peer.peak_bytes), `${(ours.peakBytes / peer.peak_bytes).toFixed(2)}x`],
-      ['peak memory in level x 12 months', (ours.peakBytes / (12 * levelBytes)).toFixed(1), (peer.peak_bytes / (12 * levelBytes)).toFixed(1), ''],
+      ['peak memory in level x 12 months', (ours.peakBytes / (12 * levelBytes)).toFixed(2), (peer.peak_bytes / (12 * levelBytes)).toFixed(1), ''],
+      ['(ours: the opened field and grid, MB)', MB(ours.gridBytes), '', ''],
     ];
     const widths = rows[0].map((_, i) => Math.max(...rows.map((r) => r[i].length)));
     for (const r of rows) console.log(r.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('  '));
     const timeOk = ours.ms <= peerMs;
-    // what ours holds by design: the 12 months of the last 4 levels read (float32), the float64 sums and weights
-    // of the level being built (4 more in float32 terms), the grid's geometry (about 2 more at 1°)
-    const memBar = 10 * 12 * levelBytes;
-    const memOk = ours.peakBytes <= memBar * 1.1;
+    // the issue's bar: one level x 12 months of the variable (1.0 below). While the last month of a level is
+    // built, ours also holds that month's float64 sums and float32 weights (3/12) and the step just read
+    // (1/12) beside the 11 months built: 11/12 + 3/12 + 1/12 = 1.25; the gate allows 1.5 for that working set
+    // and what the collector leaves, and the line says how far above 1.0 it is
+    const inUnits = ours.peakBytes / (12 * levelBytes);
+    const memOk = inUnits <= 1.5;
     console.log(`time: ours ${timeOk ? 'within' : 'OVER'} the bar (at most 1x the peer)`);
-    console.log(`memory: ${memOk ? 'within' : 'OVER'} a few levels x 12 months (bar: 10 x ${MB(12 * levelBytes)} MB, +10 %: 4 kept levels, the float64 sums of one, the grid)`);
+    console.log(`memory: ours ${inUnits.toFixed(2)} x the issue's bar of one level x 12 months (${MB(12 * levelBytes)} MB) of level data; ${memOk ? 'within' : 'OVER'} 1.5 x, which allows one month's sums and one step being read (the grid, ${MB(ours.gridBytes)} MB, is counted apart)`);
     console.log(`monthly sums agree with the peer: ${worst < 1e-6 ? 'yes' : 'NO'} (largest relative difference ${worst.toExponential(2)})`);
     if (!timeOk || !memOk || !(worst < 1e-6)) process.exitCode = 1;
   } finally {

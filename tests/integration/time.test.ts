@@ -3,7 +3,8 @@
  * rows, merge carrying both, and the bad-input sentences (exit 2, nothing written). The monthly values
  * themselves are held against xarray in tests/unit/time/time.test.ts; here the checks are properties that a
  * wrong pipeline would break: a source compared with itself has no bias in any period, a cycle ratio of 1,
- * no phase difference and cells whose cycles correlate perfectly.
+ * no phase difference and cells whose cycles correlate perfectly; a run against the reference has the
+ * seasonal-cycle numbers that xarray and numpy give (tests/fixtures/time/make_cycle_numbers.py).
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
@@ -65,8 +66,17 @@ describe('stillwater compare with options.periods', () => {
       expect(c.cell_corr_mean).toBeCloseTo(1, 6);
       expect(c.cell_corr_cells).toBeGreaterThan(0);
     }
-    const std = doc.cycles.find((c: { run: string }) => c.run === 'Std');
-    expect(Number.isFinite(std.range_ratio)).toBe(true);
+    // the standard-calendar run against the noleap reference: every number as xarray's monthly grouping and
+    // numpy (range, FFT phase, corrcoef) give it (tests/fixtures/time/make_cycle_numbers.py)
+    const want = JSON.parse(readFileSync(join(fx, 'cycle_expected.json'), 'utf8')) as Record<string, Record<string, number>>;
+    const std = doc.cycles.filter((c: { run: string }) => c.run === 'Std');
+    expect(std.length).toBe(2);
+    std.forEach((c: Record<string, number>, i: number) => {
+      const w = want[i === 0 ? 'all' : '0-20 m'];
+      for (const key of ['model_range', 'ref_range', 'range_ratio', 'cell_corr_mean']) expect(Math.abs(c[key] / w[key] - 1), key).toBeLessThan(1e-5);
+      expect(c.max_phase_months).toBe(w.max_phase_months);
+      expect(Math.abs(c.harmonic_phase_months - w.harmonic_phase_months)).toBeLessThan(1e-4);
+    });
     const csv = readFileSync(join(out, 'skill.csv'), 'utf8').split('\r\n');
     expect(csv[0].split(',')).toContain('period');
     expect(readFileSync(join(out, 'seasonal-cycle.csv'), 'utf8').split('\r\n')[0]).toMatch(/^run,variable,region,layer,units,model_range,ref_range,range_ratio/);
@@ -162,6 +172,15 @@ print(json.dumps({'names': names, 'dims': list(d['X'].dimensions), 'x': [plain(d
       'calendar',
       { reference: { label: 'R', variables: { SST: { file: join(fx, 'bad_calendar.nc'), name: 'sst' } } }, runs: [{ label: 'A', variables: { SST: { file: join(fx, 'clim_noleap.nc'), name: 'sst' } } }], regions: ['global'] },
       /bad_calendar\.nc, variable 'sst': its time coordinate 'time': unknown calendar 'lunar'/,
+    );
+    refuses(
+      'months-without-time',
+      {
+        reference: { label: 'R', variables: { P: { file: join(fx, '../compare/ref.nc'), name: 'p_mean' } } },
+        runs: [{ label: 'A', variables: { P: { file: join(fx, '../compare/run_same.nc'), name: 'PO4', time: { months: [12, 1, 2] } } } }],
+        regions: ['global'],
+      },
+      /runs\[0\]\.variables\.P\.time: 'PO4' in .*run_same\.nc has no time axis, so "months" cannot apply\./,
     );
     refuses(
       'step-with-months',

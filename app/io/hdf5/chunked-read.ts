@@ -12,7 +12,7 @@ import type { ChunkEntry } from './chunk-index.js';
 import { decodeChunk, decodeChunkAsync } from './filters.js';
 import type { FilterStep } from './layout.js';
 import { UNDEFINED_ADDRESS } from './superblock.js';
-import { slabAhead, stepDimension, type SlabRecord } from '../sequential.js';
+import { slabAhead, slabRecord, steadyMove, type SlabRecord } from '../sequential.js';
 
 export interface ChunkedVariable {
   shape: number[];
@@ -136,11 +136,12 @@ export async function readChunked(
   const needed = chunksOf(v, start, count);
   const neededKeys = new Set(needed.map((c) => c.join(',')));
 
-  const dim = stepDimension(v.last, start, count);
-  v.last = { start: start.slice(), count: count.slice() };
-  if (dim >= 0) {
+  const record = slabRecord(v.last, start, count);
+  const move = steadyMove(v.last, record);
+  v.last = record;
+  if (move) {
     for (let k = 1; k <= READ_AHEAD_SLABS; k++) {
-      const next = slabAhead(start, count, dim, k, v.shape);
+      const next = slabAhead(start, count, move.dim, k, v.shape, move.by);
       if (!next) break;
       for (const c of chunksOf(v, next, count)) {
         const key = c.join(',');
