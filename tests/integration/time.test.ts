@@ -81,6 +81,9 @@ describe('stillwater compare with options.periods', () => {
     expect(csv[0].split(',')).toContain('period');
     expect(readFileSync(join(out, 'seasonal-cycle.csv'), 'utf8').split('\r\n')[0]).toMatch(/^run,variable,region,layer,units,model_range,ref_range,range_ratio/);
     expect(readFileSync(join(out, 'skill.md'), 'utf8')).toMatch(/\| run \| region \| layer \| period \|/);
+    const tex = readFileSync(join(out, 'skill.tex'), 'utf8');
+    expect(tex).toMatch(/Run & Region & Layer & Period &/);
+    expect(tex).toMatch(/Std & global & [^&]+ & JAN &/);
     expect(r.stdout).toMatch(/period/);
 
     // merge carries the periods and the cycle rows; one job per run gives the rows of one job over both
