@@ -6,6 +6,7 @@
 import type { MessagePort } from 'node:worker_threads';
 import type { ServiceEntry } from '../app/services/types.js';
 import { StillwaterError } from '../app/errors.js';
+import { requestEnded, requestStarted } from '../app/session/background.js';
 import { describeSchemaError, toWireError } from './dispatch.js';
 import { PathGuard } from './path-guard.js';
 import type { FromWorker, ToWorker } from './worker-protocol.js';
@@ -21,6 +22,8 @@ export function serveWorker(table: ServiceEntry[], port: MessagePort): void {
     const { job } = m;
     const controller = new AbortController();
     running.set(job.jobId, controller);
+    // work computed ahead for the sessions of this thread waits while a request is served
+    requestStarted();
     const run = async (): Promise<unknown> => {
       const entry = table.find((e) => e.name === job.name);
       if (!entry) throw new StillwaterError('E_INPUT', `There is no service '${job.name}'.`);
@@ -47,6 +50,9 @@ export function serveWorker(table: ServiceEntry[], port: MessagePort): void {
         },
         (e: unknown) => post({ type: 'error', jobId: job.jobId, error: toWireError(e) }),
       )
-      .finally(() => running.delete(job.jobId));
+      .finally(() => {
+        running.delete(job.jobId);
+        requestEnded();
+      });
   });
 }

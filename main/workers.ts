@@ -4,7 +4,8 @@
  * time, a queue of limited length behind them and a "busy" sentence beyond it.
  *
  * Threads live on between jobs: a workbench session stays on the thread that opened it and every call naming
- * it is queued for that thread. A job with a deadline (headers of untrusted files) that passes it, and a
+ * it is queued for that thread, where such calls may run side by side (one waiting for work the session
+ * computes must not hold up the next). A job with a deadline (headers of untrusted files) that passes it, and a
  * cancelled job that does not stop within a short grace, get their thread terminated (code looping inside
  * WebAssembly cannot be stopped any other way); the sessions on that thread are gone and say so when asked.
  */
@@ -69,12 +70,22 @@ interface Queued {
 
 interface Slot {
   worker: Worker | null;
-  current: Queued | null;
+  /** jobs running on this thread: one, or several calls that use its sessions */
+  running: Set<Queued>;
   /** sessions opened on this thread */
   sessions: Set<string>;
-  /** ends the current job: deadline or cancellation grace */
-  timer?: NodeJS.Timeout;
+  /** end a running job: deadline or cancellation grace (either stops the thread) */
+  timers: Map<Queued, NodeJS.Timeout>;
 }
+
+/**
+ * Calls that use a session may run on its thread beside each other (at most this many): a call waiting for work
+ * the session computes (skill rows, a spin-up) must not hold up the next level of the map. The thread's event loop
+ * interleaves them; work computed ahead waits for them (app/session/background.ts).
+ */
+const SESSION_CALLS_AT_ONCE = 4;
+
+const usesSession = (q: Queued): boolean => q.job.session?.mode === 'use';
 
 function sessionGone(id: string): StillwaterError {
   return new StillwaterError('E_INPUT', `The workbench session '${id}' is no longer open; open the recipe again.`);
@@ -97,7 +108,7 @@ export class WorkerPool {
 
   constructor(private readonly workerFile: string = defaultWorkerFile(), opts: PoolOptions = {}) {
     const size = Math.max(1, Math.floor(opts.size ?? poolSize()));
-    this.slots = Array.from({ length: size }, () => ({ worker: null, current: null, sessions: new Set<string>() }));
+    this.slots = Array.from({ length: size }, () => ({ worker: null, running: new Set<Queued>(), sessions: new Set<string>(), timers: new Map<Queued, NodeJS.Timeout>() }));
     this.queueLimit = opts.queueLimit ?? 64;
   }
 
@@ -157,15 +168,26 @@ export class WorkerPool {
     await Promise.all(this.slots.map((s) => this.stop(s, cancelled())));
   }
 
-  /** Hand queued jobs to free threads: a session's calls only to its own thread, other jobs to any. */
+  /**
+   * Hand queued jobs to threads, in order: a session's calls only to its own thread, beside other calls that use
+   * sessions there; other jobs to an idle thread, the one holding fewest sessions first.
+   */
   private pump(): void {
-    for (const slot of this.slots) {
-      if (slot.current) continue;
-      const i = this.queue.findIndex((q) => q.slot === null || q.slot === slot);
-      if (i < 0) continue;
-      const [q] = this.queue.splice(i, 1);
+    for (let i = 0; i < this.queue.length; ) {
+      const q = this.queue[i];
+      const slot = q.slot ? (this.canJoin(q.slot, q) ? q.slot : null) : (this.slots.filter((s) => s.running.size === 0).sort((a, b) => a.sessions.size - b.sessions.size)[0] ?? null);
+      if (!slot) {
+        i++;
+        continue;
+      }
+      this.queue.splice(i, 1);
       this.start(slot, q);
     }
+  }
+
+  private canJoin(slot: Slot, q: Queued): boolean {
+    if (slot.running.size === 0) return true;
+    return usesSession(q) && slot.running.size < SESSION_CALLS_AT_ONCE && [...slot.running].every(usesSession);
   }
 
   private thread(slot: Slot): Worker {
@@ -175,8 +197,8 @@ export class WorkerPool {
     const worker = new Worker(this.workerFile, { workerData: { stillwater: 'service-pool' } });
     slot.worker = worker;
     worker.on('message', (m: FromWorker) => {
-      const q = slot.current;
-      if (!q || m.jobId !== q.job.jobId) return;
+      const q = [...slot.running].find((r) => r.job.jobId === m.jobId);
+      if (!q) return;
       if (m.type === 'progress') q.hooks.progress(m.fraction, m.message);
       else if (m.type === 'done') this.finish(slot, q, () => this.settled(slot, q, m.result));
       else {
@@ -194,16 +216,16 @@ export class WorkerPool {
   }
 
   private start(slot: Slot, q: Queued): void {
-    slot.current = q;
+    slot.running.add(q);
     const worker = this.thread(slot);
     worker.ref();
     const { job } = q;
     if (job.deadlineMs !== undefined) {
       const seconds = Math.round(job.deadlineMs / 100) / 10;
-      slot.timer = setTimeout(() => {
+      slot.timers.set(q, setTimeout(() => {
         const subject = subjectOf(job.input);
         void this.stop(slot, new StillwaterError('E_FORMAT', `${subject}: could not be read within ${seconds} s (the file may be damaged).`, { file: subject }));
-      }, job.deadlineMs);
+      }, job.deadlineMs));
     }
     const { session: _session, deadlineMs: _deadline, ...toWorker } = job;
     worker.postMessage({ type: 'run', job: toWorker } satisfies ToWorker);
@@ -225,31 +247,31 @@ export class WorkerPool {
   }
 
   private finish(slot: Slot, q: Queued, settle: () => void): void {
-    if (slot.current !== q) return;
-    clearTimeout(slot.timer);
-    slot.timer = undefined;
-    slot.current = null;
-    slot.worker?.unref();
+    if (!slot.running.has(q)) return;
+    clearTimeout(slot.timers.get(q));
+    slot.timers.delete(q);
+    slot.running.delete(q);
+    if (slot.running.size === 0) slot.worker?.unref();
     settle();
     this.pump();
   }
 
   private cancelRunning(q: Queued): void {
-    const slot = this.slots.find((s) => s.current === q);
+    const slot = this.slots.find((s) => s.running.has(q));
     if (!slot?.worker) return;
     slot.worker.postMessage({ type: 'cancel', jobId: q.job.jobId } satisfies ToWorker);
-    clearTimeout(slot.timer);
-    slot.timer = setTimeout(() => void this.stop(slot, cancelled()), GRACE_MS);
+    clearTimeout(slot.timers.get(q));
+    slot.timers.set(q, setTimeout(() => void this.stop(slot, cancelled()), GRACE_MS));
   }
 
-  /** Terminate a slot's thread: its job is refused with `why`, its sessions are forgotten, queued calls for them refused. */
+  /** Terminate a slot's thread: its jobs are refused with `why`, its sessions are forgotten, queued calls for them refused. */
   private async stop(slot: Slot, why: StillwaterError): Promise<void> {
     const worker = slot.worker;
     slot.worker = null;
-    clearTimeout(slot.timer);
-    slot.timer = undefined;
-    const q = slot.current;
-    slot.current = null;
+    for (const t of slot.timers.values()) clearTimeout(t);
+    slot.timers.clear();
+    const running = [...slot.running];
+    slot.running.clear();
     for (const id of slot.sessions) this.home.delete(id);
     slot.sessions.clear();
     for (let i = this.queue.length - 1; i >= 0; i--) {
@@ -260,7 +282,7 @@ export class WorkerPool {
         else w.reject(sessionGone(w.job.session?.id ?? ''));
       }
     }
-    q?.reject(q.hooks.signal.aborted ? cancelled() : why);
+    for (const q of running) q.reject(q.hooks.signal.aborted ? cancelled() : why);
     if (worker) await worker.terminate().catch(() => undefined);
     this.pump();
   }

@@ -31,6 +31,8 @@ export interface CompareOptions {
   keepFields?: FieldSinkFactory;
   /** called once a variable's rows are complete (before the next variable is opened), e.g. to draw its figures */
   onVariable?: (info: VariableInfo, rows: SkillRow[]) => Promise<void>;
+  /** awaited before each variable and each level: work computed ahead lets the requests of a screen go first */
+  pause?: () => Promise<void>;
 }
 
 export interface InputFile {
@@ -89,6 +91,7 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
   for (let vi = 0; vi < recipe.variables.length; vi++) {
     if (opts.signal?.aborted) throw new StillwaterError('E_CANCELLED', 'The comparison was cancelled.');
     const variable = recipe.variables[vi];
+    await opts.pause?.();
     opts.onProgress?.(vi / recipe.variables.length, `${variable}: opening and regridding`);
     const firstRow = rows.length;
     const pair = await openPair(recipe, variable, { cacheDir: opts.cacheDir, noteFile, monthlyRows: monthly });
@@ -124,6 +127,7 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
         for (const r of runs) sinks.push(opts.keepFields ? await opts.keepFields({ run: r.label, variable, units: info.units, grid, periods: asked }) : null);
         const nz = grid.vertical?.nz ?? 1;
         for (let k = 0; k < nz; k++) {
+          await opts.pause?.();
           if (opts.signal?.aborted) throw new StillwaterError('E_CANCELLED', 'The comparison was cancelled.');
           const refLevels = await readPeriods(ref, k, periods);
           const refLogs = wantLog ? refLevels.levels.map((x) => log10Values(x)) : [];

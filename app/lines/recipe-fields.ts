@@ -27,8 +27,8 @@ export interface PreparedFields {
 
 export type PrepareOptions = Pick<OpenPairOptions, 'cacheDir' | 'units' | 'native'>;
 
-/** A source's levels seen as a field with one time step (the pair already picked it). */
-function levelsField(src: SourceLevels, units: ParsedUnits, variable: string): FieldSource {
+/** A source's levels seen as a field with one time step (the pair already picked it); `read` may serve them from a cache. */
+export function levelsField(src: SourceLevels, units: ParsedUnits, variable: string, read: (k: number) => Promise<Float32Array> = (k) => src.level(k)): FieldSource {
   return {
     file: src.file,
     variable,
@@ -36,7 +36,7 @@ function levelsField(src: SourceLevels, units: ParsedUnits, variable: string): F
     grid: src.grid,
     nt: 1,
     time: null,
-    readLevel: (_t: number, k: number) => src.level(k),
+    readLevel: (_t: number, k: number) => read(k),
     // the pair closes every reader at once
     close: async () => undefined,
   };

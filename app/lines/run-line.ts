@@ -5,7 +5,7 @@ import type { LonLat } from './great-circle.js';
 import { lineReport, type LineResult } from './line-report.js';
 import { columnMeansCsv, columnMeansJson, sectionCsv, sectionJson } from './line-output.js';
 import type { PointMethod } from './location-weights.js';
-import { prepareFields } from './recipe-fields.js';
+import { prepareFields, type PreparedFields } from './recipe-fields.js';
 import { DEFAULT_SPACING_KM, sampleGreatCircles, sampleMeridian, sampleParallel, type SampledLine } from './sample-path.js';
 import { jsonText } from '../output/json-keys.js';
 import { writeOutputFiles } from '../output/output-set.js';
@@ -24,6 +24,8 @@ export interface LineRequest {
   method?: PointMethod;
   cacheDir?: string;
   progress?: (fraction: number, message: string) => void;
+  /** the fields to sample, when the caller has them open already (a workbench session); else opened here */
+  fields?: () => Promise<PreparedFields>;
 }
 
 export interface LineRun extends LineResult {
@@ -38,7 +40,7 @@ export function sampleLine(spec: LineSpec, spacingKm = DEFAULT_SPACING_KM): Samp
 
 export async function runLine(recipe: Recipe, req: LineRequest): Promise<LineRun> {
   const line = sampleLine(req.line, req.spacingKm);
-  const fields = await prepareFields(recipe, req.variable, { cacheDir: req.cacheDir });
+  const fields = await (req.fields ? req.fields() : prepareFields(recipe, req.variable, { cacheDir: req.cacheDir }));
   try {
     const result = await lineReport(fields.reference, fields.runs, line, { method: req.method, range: req.depthRange, progress: req.progress });
     return { ...result, variable: req.variable, units: fields.units.text, notes: fields.notes };

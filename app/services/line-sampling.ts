@@ -10,6 +10,9 @@ import { parseWaypoints } from '../lines/waypoints.js';
 import type { Recipe } from '../recipe/index.js';
 import { recipeOfCall } from './recipe-guard.js';
 import type { ServiceContext } from './types.js';
+import { prepareFields } from '../lines/recipe-fields.js';
+import { sessionLineFields } from '../session/line-fields.js';
+import { sessionStore } from '../session/store.js';
 
 /** An open workbench session (its recipe is used, on its thread), or a recipe as JSON with its folder. */
 export const recipeJson = { session: z.string().min(1).optional(), recipe: z.unknown().optional(), baseDir: z.string().min(1).optional() };
@@ -49,6 +52,8 @@ export function sampleLineOfCall(input: LineInput, ctx: ServiceContext): Promise
       method: input.method,
       cacheDir: ctx.cacheDir,
       progress: (f, m) => ctx.progress(f, m),
+      // in a session: the pair it has open and the levels it has read (the map's, or read ahead)
+      ...(input.session !== undefined ? { fields: async () => (await sessionLineFields(sessionStore.get(input.session!), input.variable)) ?? prepareFields(recipe, input.variable, { cacheDir: ctx.cacheDir }) } : {}),
     });
   if (input.session === undefined) return make();
   let cache = kept.get(recipe);

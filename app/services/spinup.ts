@@ -18,6 +18,13 @@ import { cacheKey, readCachedResult, restoreNaN, writeCachedResult } from '../sp
 import { spinupFromJson } from '../spinup/write-output.js';
 import { entry, type ServiceContext, type ServiceEntry } from './types.js';
 import { checkParsingHere } from '../io/parsing-thread.js';
+import type { Session } from '../session/session.js';
+import { untilCancelled } from '../session/session.js';
+import type { TaskContext } from '../session/background.js';
+import { sessionStore } from '../session/store.js';
+
+/** The open session a call names, if it names one. */
+const sessionOf = (input: { session?: string }): Session | undefined => (input.session !== undefined ? sessionStore.get(input.session) : undefined);
 
 const spinupInput = z.object({
   /** an open workbench session whose recipe is followed */
@@ -46,33 +53,84 @@ const recent = new Map<string, SpinupResult>();
 const RECENT_MAX = 8;
 
 
-async function follow(recipe: Recipe, input: SpinupInput, ctx: ServiceContext, skill: boolean): Promise<SpinupResult> {
-  const files = recipeFiles(recipe).map((f) => f.file);
+/** Where results are looked up and what computes one: the same for a request and for work computed ahead. */
+interface Follow {
+  recipe: Recipe;
+  input: SpinupInput;
+  cacheDir: string;
+  skill: boolean;
+  progress?: (fraction: number, message: string) => void;
+}
+
+async function keysOf(f: Follow): Promise<{ key: string; alsoAnswers: string[] }> {
+  const files = recipeFiles(f.recipe).map((x) => x.file);
   // keyed by what is followed, whether the recipe came from a session or as JSON
-  const asked = { recipe: recipeToJson(recipe), baseDir: recipe.baseDir, run: input.run, variables: input.variables, threshold: input.threshold, tailYears: input.tailYears };
+  const { input } = f;
+  const asked = { recipe: recipeToJson(f.recipe), baseDir: f.recipe.baseDir, run: input.run, variables: input.variables, threshold: input.threshold, tailYears: input.tailYears };
   const keyOf = (withSkill: boolean) => cacheKey({ ...asked, skill: withSkill }, files);
-  const key = await keyOf(skill);
+  const key = await keyOf(f.skill);
   // a result with skill also answers a request without it
-  for (const k of skill ? [key] : [key, await keyOf(true)]) {
-    const hit = recent.get(k) ?? (await readCachedResult(ctx.cacheDir, k));
+  return { key, alsoAnswers: f.skill ? [] : [await keyOf(true)] };
+}
+
+async function cached(cacheDir: string, keys: string[]): Promise<SpinupResult | undefined> {
+  for (const k of keys) {
+    const hit = recent.get(k) ?? (await readCachedResult(cacheDir, k));
     if (hit) return hit;
   }
-  const result = await spinupFromRecipe(recipe, {
+  return undefined;
+}
+
+async function compute(f: Follow, key: string, signal: AbortSignal, pause?: () => Promise<void>): Promise<SpinupResult> {
+  const hit = await cached(f.cacheDir, [key]);
+  if (hit) return hit;
+  const { input } = f;
+  const result = await spinupFromRecipe(f.recipe, {
     run: input.run,
     variables: input.variables,
     settings: {
       ...(input.threshold !== undefined ? { thresholdPercentPerKyr: input.threshold } : {}),
       ...(input.tailYears !== undefined ? { tailYears: input.tailYears } : {}),
     },
-    skill,
-    cacheDir: ctx.cacheDir,
-    signal: ctx.signal,
-    progress: (f, m) => ctx.progress(f, m),
+    skill: f.skill,
+    cacheDir: f.cacheDir,
+    signal,
+    pause,
+    progress: f.progress,
   });
   recent.set(key, result);
   if (recent.size > RECENT_MAX) recent.delete(recent.keys().next().value!);
-  await writeCachedResult(ctx.cacheDir, key, result);
+  await writeCachedResult(f.cacheDir, key, result);
   return result;
+}
+
+/**
+ * The spin-up of a recipe: from this thread's recent results or the disk, else computed. In a workbench session
+ * it is computed once, with skill, as a task of the session (perhaps already under way since the recipe was
+ * opened), so that the banner of the scores view and the spin-up view share one computation.
+ */
+async function follow(recipe: Recipe, input: SpinupInput, ctx: ServiceContext, skill: boolean, session?: Session, hurry = true): Promise<SpinupResult> {
+  const asked: Follow = { recipe, input, cacheDir: ctx.cacheDir, skill, progress: (f, m) => ctx.progress(f, m) };
+  const { key, alsoAnswers } = await keysOf(asked);
+  const hit = await cached(ctx.cacheDir, [key, ...alsoAnswers]);
+  if (hit) return hit;
+  if (!session) return compute(asked, key, ctx.signal);
+  const shared: Follow = { ...asked, skill: true };
+  const sharedKey = skill ? key : alsoAnswers[0];
+  const work = (task: TaskContext) => compute(shared, sharedKey, task.signal, task.pause);
+  const key2 = `spinup\u0000${sharedKey}`;
+  return untilCancelled(hurry ? session.background.want(key2, work) : session.background.later(key2, work), ctx.signal);
+}
+
+/** Once a session's screen has its first map: the spin-up of each run that lists snapshots, computed ahead (with skill, as the view asks). */
+export function spinupAhead(session: Session, cacheDir: string): void {
+  for (const run of session.recipe.runs) {
+    if (!run.snapshots?.length) continue;
+    const f: Follow = { recipe: session.recipe, input: { run: run.label }, cacheDir, skill: true };
+    void keysOf(f)
+      .then(({ key }) => session.background.ahead(`spinup\u0000${key}`, (task) => compute(f, key, task.signal, task.pause)))
+      .catch(() => undefined);
+  }
 }
 
 export const spinupServices: ServiceEntry[] = [
@@ -83,7 +141,7 @@ export const spinupServices: ServiceEntry[] = [
     heavy: true,
     session: 'use',
     async run(input, ctx): Promise<SpinupResult> {
-      return follow(recipeOfCall(input, ctx), input, ctx, input.skill !== false);
+      return follow(recipeOfCall(input, ctx), input, ctx, input.skill !== false, sessionOf(input));
     },
   }),
   entry({
@@ -96,7 +154,8 @@ export const spinupServices: ServiceEntry[] = [
       const recipe = recipeOfCall(input, ctx);
       const run = input.run !== undefined ? recipe.runs.find((r) => r.label === input.run) : recipe.runs.find((r) => r.snapshots?.length);
       if (!run?.snapshots?.length) return null;
-      return (await follow(recipe, { ...input, run: run.label }, ctx, false)).summary;
+      // the banner waits its turn: the skill rows on the same screen come first
+      return (await follow(recipe, { ...input, run: run.label }, ctx, false, sessionOf(input), false)).summary;
     },
   }),
   entry({

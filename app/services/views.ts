@@ -21,7 +21,8 @@ import { guardRecipe } from './recipe-guard.js';
 import { levelData } from '../session/level-data.js';
 import { profileData } from '../session/profile-data.js';
 import { sectionData } from '../session/section-data.js';
-import { openSession } from '../session/session.js';
+import { openSession, type Session } from '../session/session.js';
+import { spinupAhead } from './spinup.js';
 import { sessionStore } from '../session/store.js';
 import type { LevelData, ProfileCycleData, ProfileData, SectionData, SessionInfo, TableText } from '../../contract/view-types.js';
 import { entry, type ServiceEntry } from './types.js';
@@ -35,6 +36,19 @@ const periodInput = z.enum(ALL_PERIODS as [Period, ...Period[]]).default('annual
 
 /** Seconds that reading headers may take before the worker is stopped (damaged files can make a library loop). */
 const HEADER_DEADLINE_S = 20;
+
+const aheadStarted = new WeakSet<Session>();
+
+/**
+ * Once the screen has its first map, the session computes ahead, between requests: the skill rows of the
+ * variable shown, then of the others (Scores, Diagram), then the spin-up of runs with snapshots (its banner and view).
+ */
+function computeAhead(s: Session, cacheDir: string, variable: string): void {
+  if (aheadStarted.has(s)) return;
+  aheadStarted.add(s);
+  s.startAhead(variable);
+  spinupAhead(s, cacheDir);
+}
 
 export const viewsServices: ServiceEntry[] = [
   entry({
@@ -130,7 +144,11 @@ export const viewsServices: ServiceEntry[] = [
     heavy: true,
     session: 'use',
     async run(input, ctx): Promise<LevelData> {
-      return levelData(sessionStore.get(input.session), input.variable, input.run, input.layer, ctx, input.period);
+      const s = sessionStore.get(input.session);
+      const data = await levelData(s, input.variable, input.run, input.layer, ctx, input.period);
+      computeAhead(s, ctx.cacheDir, input.variable);
+      if (data.layer.kind === 'level') s.readAhead(input.variable, input.run, data.layer.k ?? 0, input.period);
+      return data;
     },
   }),
   entry({

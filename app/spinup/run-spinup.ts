@@ -24,6 +24,8 @@ export interface SpinupOptions {
   cacheDir?: string;
   progress?: (fraction: number, message: string) => void;
   signal?: AbortSignal;
+  /** awaited between steps: work computed ahead lets the requests of a screen go first */
+  pause?: () => Promise<void>;
   open?: SnapshotOpener;
 }
 
@@ -97,9 +99,10 @@ export async function spinupFromRecipe(recipe: Recipe, opts: SpinupOptions = {})
     open: opts.open ?? openSnapshot,
     progress: stage(0, wantSkill ? 0.5 : 1),
     signal: opts.signal,
+    pause: opts.pause,
   });
   const skill = wantSkill
-    ? await skillOverTime({ recipe, run, snapshots: series.snapshots, tracers, layers, trackUnits: concentrationUnits(series.tracers), cacheDir: opts.cacheDir, progress: stage(0.5, 1), signal: opts.signal })
+    ? await skillOverTime({ recipe, run, snapshots: series.snapshots, tracers, layers, trackUnits: concentrationUnits(series.tracers), cacheDir: opts.cacheDir, progress: stage(0.5, 1), signal: opts.signal, pause: opts.pause })
     : [];
   const result = buildResult(run.label, series, settings, skill);
   if (skipped.length) result.notes.push(`Not followed (absent from the first snapshot): ${skipped.join(', ')}.`);

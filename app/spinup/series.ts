@@ -31,6 +31,8 @@ export interface SeriesInput {
   open: SnapshotOpener;
   progress?: (fraction: number, message: string) => void;
   signal?: AbortSignal;
+  /** awaited between snapshots and tracers: work computed ahead lets the requests of a screen go first */
+  pause?: () => Promise<void>;
 }
 
 export interface TracerInfo {
@@ -142,6 +144,7 @@ export async function seriesSums(input: SeriesInput): Promise<SeriesSums> {
   // pass 1: headers only
   for (let i = 0; i < snapshots.length; i++) {
     const s = snapshots[i];
+    await input.pause?.();
     cancelled(input.signal);
     const h = await open(s.file);
     try {
@@ -170,6 +173,8 @@ export async function seriesSums(input: SeriesInput): Promise<SeriesSums> {
     try {
       const perTracer: SnapshotSums[][][] = [];
       for (let j = 0; j < infos.length; j++) {
+        await input.pause?.();
+        cancelled(input.signal);
         const f = await openField(h, s, infos[j].spec, infos[j].spec.units);
         check(f, s, j);
         perTracer.push(await snapshotSums(f, s.timeIndex ?? 0, regions, layers));

@@ -19,6 +19,7 @@ export interface SkillOverTimeInput {
   cacheDir?: string;
   progress?: (fraction: number, message: string) => void;
   signal?: AbortSignal;
+  pause?: () => Promise<void>;
 }
 
 /**
@@ -48,7 +49,7 @@ export async function skillOverTime(input: SkillOverTimeInput): Promise<SkillPoi
   const units = { ...recipe.options.units };
   for (const t of scored) if (input.trackUnits?.[t.name]) units[t.name] = input.trackUnits[t.name];
   const derived: Recipe = { ...recipe, runs, layers: input.layers ?? recipe.layers, variables: scored.map((t) => t.name), options: { ...recipe.options, units } };
-  const result = await runComparison(derived, { cacheDir: input.cacheDir, onProgress: input.progress, signal: input.signal });
+  const result = await runComparison(derived, { cacheDir: input.cacheDir, onProgress: input.progress, signal: input.signal, pause: input.pause });
   const yearOf = new Map(runs.map((r, i) => [r.label, input.snapshots[i].year]));
   return result.rows.map((row) => ({ ...row, run: run.label, year: yearOf.get(row.run) ?? NaN }));
 }

@@ -117,6 +117,18 @@ describe('the pool of worker threads (issue 16, items 1 and 11)', () => {
     const calls = Array.from({ length: 6 }, () => pool.run(job('use', { session: a.session }, { session: { mode: 'use', id: a.session } }), free()));
     for (const r of (await Promise.all(calls)) as { threadId: number }[]) expect(r.threadId).toBe(a.threadId);
   });
+  it("runs a session's call beside another of its calls that waits (a view waiting for the skill rows does not hold up the map)", async () => {
+    const pool = new WorkerPool(workerFile, { size: 1 });
+    pools.push(pool);
+    const a = (await pool.run(job('open', { name: 'h' }, { session: { mode: 'open' } }), free())) as { session: string };
+    const use = { session: { mode: 'use' as const, id: a.session } };
+    const holding = pool.run(job('hold', { session: a.session }, use), free());
+    // one call a thread would queue this behind the held call for ever
+    await expect(pool.run(job('letGo', { session: a.session }, use), free())).resolves.toMatchObject({ wasHeld: true });
+    await expect(holding).resolves.toMatchObject({ held: true });
+    // a call without a session still waits for the thread to be idle: it runs after both
+    await expect(pool.run(job('count', { steps: 1, ms: 0 }), free())).resolves.toMatchObject({ threadId: expect.any(Number) });
+  });
   it('says a session is gone once its thread was stopped', async () => {
     const pool = new WorkerPool(workerFile, { size: 1 });
     pools.push(pool);

@@ -53,6 +53,17 @@ describe('line and station services', () => {
     expect(Array.from(bySession.fields[0].columnMean)).toEqual(Array.from(byJson.fields[0].columnMean));
     expect(bySession.skill).toEqual(byJson.skill);
   });
+  it("line.sample on a session samples the session's own levels (read for the map first): every value and note as by JSON", async () => {
+    const open = viewsServices.find((e) => e.name === 'view.open')!;
+    const level = viewsServices.find((e) => e.name === 'view.level')!;
+    const info = (await open.run(open.input.parse({ recipe: join(dir, 'recipe.json') }), ctx)) as SessionInfo;
+    await level.run(level.input.parse({ session: info.session, variable: 'PO4', run: info.variables[0].runs[0], layer: 'k:1' }), ctx);
+    const line = { kind: 'meridian', lon: -25 };
+    const bySession = (await svc('line.sample').run(svc('line.sample').input.parse({ session: info.session, variable: 'PO4', line, spacingKm: 300 }), ctx)) as LineData;
+    const byJson = (await svc('line.sample').run(svc('line.sample').input.parse({ recipe, baseDir: dir, variable: 'PO4', line, spacingKm: 300 }), ctx)) as LineData;
+    expect(bySession.fields.length).toBeGreaterThan(1);
+    expect(bySession).toEqual(byJson);
+  });
   it('a call naming neither a session nor a recipe is one sentence', async () => {
     const input = svc('line.sample').input.parse({ variable: 'PO4', line: { kind: 'meridian', lon: 0 } });
     await expect(svc('line.sample').run(input, ctx)).rejects.toThrow(/^Name an open session, or send a recipe with the folder/);
