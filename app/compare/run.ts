@@ -132,6 +132,7 @@ export async function runComparison(recipe: Recipe, opts: CompareOptions = {}): 
           const refLevels = await readPeriods(ref, k, periods);
           const refLogs = wantLog ? refLevels.levels.map((x) => log10Values(x)) : [];
           for (let q = 0; q < runs.length; q++) {
+            if (q > 0) await opts.pause?.();
             const modelLevels = await readPeriods(runs[q], k, periods);
             periods.forEach((_, p) => {
               accs[q][p].addLevel(k, modelLevels.levels[p], refLevels.levels[p]);
